@@ -1,0 +1,197 @@
+/**
+ * Conversions that need the leap-second table: UTC in and out, ISO 8601 text, GPS week,
+ * MJD, and the UT1≈UTC Julian date used for Earth rotation. Built once at the edge.
+ */
+import { TimeError } from '../errors.ts';
+import { civilFromDays, daysFromCivil, daysInMonth, MJD_OF_UNIX_EPOCH } from './calendar.ts';
+import { Instant, instantFromLabel, TIME_SCALES, type TimeScale } from './instant.ts';
+import { LeapSecondTable } from './leapSeconds.ts';
+
+/** Broken-down civil time in some scale. `second` may reach 60.x during a UTC leap second. */
+export interface CivilTime {
+  year: number;
+  month: number;
+  day: number;
+  hour: number;
+  minute: number;
+  second: number;
+}
+
+/** Seconds in a GPS week. IS-GPS-200. */
+export const GPS_WEEK_S = 604_800;
+const GPS_EPOCH_DAY = daysFromCivil(1980, 1, 6);
+
+export class TimeSystem {
+  constructor(readonly leap: LeapSecondTable) {}
+
+  /** Instant from a UTC civil label, 23:59:60 allowed on days that end with a leap second. */
+  fromUtc(c: CivilTime, where = 'time'): Instant {
+    checkCivil(c, where, true);
+    const day = daysFromCivil(c.year, c.month, c.day);
+    if (c.second >= 60 && !(c.hour === 23 && c.minute === 59 && this.leap.hasLeapSecondAtEndOf(day))) {
+      throw new TimeError(`second ${c.second} on a day with no leap second`, where, 'seconds run 0–59 except at 23:59:60 on a leap-second day');
+    }
+    const delta = this.leap.taiMinusUtcForUtcDay(day, where);
+    const secWhole = Math.floor(c.second);
+    return new Instant(day * 86400 + c.hour * 3600 + c.minute * 60 + secWhole + delta, c.second - secWhole, 'UTC');
+  }
+
+  /** Instant from a civil label in a uniform scale (TAI, TT, GPS, GST, BDT). */
+  fromScale(scale: Exclude<TimeScale, 'UTC'>, c: CivilTime, where = 'time'): Instant {
+    checkCivil(c, where, false);
+    const day = daysFromCivil(c.year, c.month, c.day);
+    const secWhole = Math.floor(c.second);
+    const t = instantFromLabel(scale, day * 86400 + c.hour * 3600 + c.minute * 60 + secWhole, c.second - secWhole);
+    this.leap.taiToUtcLabel(t.taiWholeS, where); // refuses pre-1972, marks expiry
+    return t;
+  }
+
+  /** UTC civil label of an instant; second is 60.x inside a leap second. */
+  utcCivil(t: Instant): CivilTime & { taiMinusUtcS: number } {
+    const { utcWholeS, inLeapSecond, taiMinusUtcS } = this.leap.taiToUtcLabel(t.taiWholeS);
+    const label = inLeapSecond ? utcWholeS - 1 : utcWholeS;
+    const c = civilFromSeconds(label, t.taiFracS);
+    if (inLeapSecond) c.second += 1;
+    return { ...c, taiMinusUtcS };
+  }
+
+  /** Civil label in any scale. */
+  civil(t: Instant, scale: TimeScale): CivilTime {
+    if (scale === 'UTC') return this.utcCivil(t);
+    const { wholeS, fracS } = t.labelS(scale);
+    return civilFromSeconds(wholeS, fracS);
+  }
+
+  /** ISO 8601 with milliseconds. UTC ends in `Z`; other scales end in a space and the scale name. */
+  format(t: Instant, scale: TimeScale = 'UTC', fractionDigits = 3): string {
+    const c = this.civil(t, scale);
+    const text = formatCivil(c, fractionDigits);
+    return scale === 'UTC' ? `${text}Z` : `${text} ${scale}`;
+  }
+
+  /** GPS week number (not rolled over) and seconds of week. */
+  gpsWeek(t: Instant): { week: number; secondsOfWeek: number } {
+    const { wholeS, fracS } = t.labelS('GPS');
+    const sinceEpoch = wholeS - GPS_EPOCH_DAY * 86400;
+    const week = Math.floor(sinceEpoch / GPS_WEEK_S);
+    return { week, secondsOfWeek: sinceEpoch - week * GPS_WEEK_S + fracS };
+  }
+
+  /** Instant from GPS week and seconds of week. */
+  fromGpsWeek(week: number, secondsOfWeek: number, where = 'time'): Instant {
+    if (!Number.isInteger(week) || week < 0) throw new TimeError(`GPS week ${week} is not a whole number ≥ 0`, where, 'give the full week count since 1980-01-06, e.g. 2451');
+    if (!(secondsOfWeek >= 0 && secondsOfWeek < GPS_WEEK_S)) throw new TimeError(`seconds of week ${secondsOfWeek} out of range`, where, 'use 0 ≤ seconds < 604800');
+    const whole = Math.floor(secondsOfWeek);
+    const t = instantFromLabel('GPS', GPS_EPOCH_DAY * 86400 + week * GPS_WEEK_S + whole, secondsOfWeek - whole);
+    this.leap.taiToUtcLabel(t.taiWholeS, where);
+    return t;
+  }
+
+  /** Modified Julian Date in UTC; a leap-second day is 86401 s long. */
+  mjdUtc(t: Instant): number {
+    const c = this.utcCivil(t);
+    const day = daysFromCivil(c.year, c.month, c.day);
+    const dayLengthS = this.leap.hasLeapSecondAtEndOf(day) ? 86401 : 86400;
+    return day + MJD_OF_UNIX_EPOCH + (c.hour * 3600 + c.minute * 60 + c.second) / dayLengthS;
+  }
+
+  /** Instant from an MJD in a scale (UTC by default). */
+  fromMjd(mjd: number, scale: TimeScale, where = 'time'): Instant {
+    if (!Number.isFinite(mjd)) throw new TimeError(`MJD ${mjd} is not a number`, where, 'write e.g. "MJD 61406.5"');
+    const day = Math.floor(mjd) - MJD_OF_UNIX_EPOCH;
+    const secOfDay = (mjd - Math.floor(mjd)) * 86400;
+    const { year, month, day: d } = civilFromDays(day);
+    const hour = Math.floor(secOfDay / 3600);
+    const minute = Math.floor((secOfDay - hour * 3600) / 60);
+    const second = secOfDay - hour * 3600 - minute * 60;
+    const c = { year, month, day: d, hour, minute, second };
+    return scale === 'UTC' ? this.fromUtc(c, where) : this.fromScale(scale, c, where);
+  }
+
+  /** Julian date of UTC (as a stand-in for UT1; |UT1 − UTC| < 0.9 s) for Earth rotation angles. */
+  jdUtcFromTtJ2000S(ttJ2000S: number): number {
+    const t = Instant.fromTtJ2000S(ttJ2000S);
+    const { utcWholeS } = this.leap.taiToUtcLabel(t.taiWholeS);
+    return 2440587.5 + (utcWholeS + t.taiFracS) / 86400;
+  }
+
+  /**
+   * Parse a time string:
+   * - ISO 8601 `2027-03-01T00:00:00Z` (UTC) or `2027-03-01T00:00:00 GPS|TAI|TT|GST|BDT|UTC`;
+   * - `GPSW 2451 345600.5` (GPS week and seconds of week);
+   * - `MJD 61406.25` (UTC) or `MJD 61406.25 TT`.
+   * A time with neither `Z` nor a scale name is refused rather than guessed.
+   */
+  parse(text: string, where = 'time'): Instant {
+    const s = text.trim();
+    let m = /^GPSW\s+(\d+)\s+(\d+(?:\.\d+)?)$/i.exec(s);
+    if (m !== null) return this.fromGpsWeek(Number(m[1]), Number(m[2]), where);
+    m = /^MJD\s+(-?\d+(?:\.\d+)?)(?:\s+([A-Za-z]+))?$/i.exec(s);
+    if (m !== null) return this.fromMjd(Number(m[1]), scaleOf(m[2] ?? 'UTC', where), where);
+    m = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2}(?:\.\d{1,12})?))?)?(Z|\s+[A-Za-z]+)?$/.exec(s);
+    if (m === null) {
+      throw new TimeError(`cannot read time ${JSON.stringify(text)}`, where, 'write ISO 8601 like 2027-03-01T00:00:00Z, or "2027-03-01T00:00:00 GPS", "GPSW 2451 345600", "MJD 61406.5"');
+    }
+    const zone = m[7];
+    if (zone === undefined) {
+      throw new TimeError(`time ${JSON.stringify(text)} has no scale`, where, 'end it with Z for UTC or a space and GPS, TAI, TT, GST or BDT');
+    }
+    const scale: TimeScale = zone === 'Z' ? 'UTC' : scaleOf(zone.trim(), where);
+    const c: CivilTime = {
+      year: Number(m[1]),
+      month: Number(m[2]),
+      day: Number(m[3]),
+      hour: m[4] === undefined ? 0 : Number(m[4]),
+      minute: m[5] === undefined ? 0 : Number(m[5]),
+      second: m[6] === undefined ? 0 : Number(m[6]),
+    };
+    return scale === 'UTC' ? this.fromUtc(c, where) : this.fromScale(scale, c, where);
+  }
+}
+
+function scaleOf(name: string, where: string): TimeScale {
+  const upper = name.toUpperCase();
+  const found = TIME_SCALES.find((s) => s === upper);
+  if (found === undefined) throw new TimeError(`unknown time scale ${JSON.stringify(name)}`, where, `use one of ${TIME_SCALES.join(', ')}`);
+  return found;
+}
+
+function checkCivil(c: CivilTime, where: string, allowLeap: boolean): void {
+  const ok =
+    Number.isInteger(c.year) &&
+    c.month >= 1 &&
+    c.month <= 12 &&
+    c.day >= 1 &&
+    c.day <= daysInMonth(c.year, c.month) &&
+    c.hour >= 0 &&
+    c.hour <= 23 &&
+    c.minute >= 0 &&
+    c.minute <= 59 &&
+    c.second >= 0 &&
+    c.second < (allowLeap ? 61 : 60);
+  if (!ok) {
+    throw new TimeError(`no such date or time ${formatCivil(c, 3)}`, where, 'check month 1–12, the day of the month, hour 0–23, minute and second 0–59');
+  }
+}
+
+function civilFromSeconds(wholeS: number, fracS: number): CivilTime {
+  const day = Math.floor(wholeS / 86400);
+  let rest = wholeS - day * 86400;
+  const hour = Math.floor(rest / 3600);
+  rest -= hour * 3600;
+  const minute = Math.floor(rest / 60);
+  const second = rest - minute * 60 + fracS;
+  return { ...civilFromDays(day), hour, minute, second };
+}
+
+/** `YYYY-MM-DDTHH:MM:SS.fff`, truncating (never rounding up into the next second). */
+export function formatCivil(c: CivilTime, fractionDigits: number): string {
+  const pad = (n: number, w = 2): string => String(n).padStart(w, '0');
+  const whole = Math.floor(c.second);
+  let frac = '';
+  if (fractionDigits > 0) {
+    const scaled = Math.floor((c.second - whole) * 10 ** fractionDigits + 1e-6);
+    frac = `.${String(Math.min(scaled, 10 ** fractionDigits - 1)).padStart(fractionDigits, '0')}`;
+  }
+  return `${pad(c.year, 4)}-${pad(c.month)}-${pad(c.day)}T${pad(c.hour)}:${pad(c.minute)}:${pad(whole)}${frac}`;
+}
