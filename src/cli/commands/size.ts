@@ -1,0 +1,41 @@
+/** `tauplan size`: frequency-offset sizing for one orbit (or every satellite of a TLE file with --all). */
+import type { Argv } from 'yargs';
+import { gravityModel } from '../../clock/gravity.ts';
+import { GNSS_NOMINAL_HZ } from '../../constants.ts';
+import { InputError } from '../../errors.ts';
+import { sizeClock } from '../../plan/size.ts';
+import { sizeToCsv, sizeToJson, sizeToText } from '../../report/sizeReport.ts';
+import { parsePositiveDurationS } from '../../time/duration.ts';
+import type { TimeSystem } from '../../time/timeSystem.ts';
+import type { Rendered } from '../emit.ts';
+import { orbitFromFlags, orbitOptions, type OrbitFlags } from '../orbitArgs.ts';
+
+export function sizeOptions<T>(y: Argv<T>) {
+  return orbitOptions(y)
+    .option('gravity', { type: 'string', default: 'zonal', describe: 'point | j2 | zonal' })
+    .option('from', { type: 'string', describe: 'start of the span (default: the orbit epoch)' })
+    .option('span', { type: 'string', default: '1d', describe: 'length of the span, e.g. 1d, 36h, P2D' })
+    .option('nominal-hz', { type: 'number', default: GNSS_NOMINAL_HZ, describe: 'nominal oscillator frequency [Hz]' });
+}
+
+export interface SizeArgs extends OrbitFlags {
+  gravity: string;
+  from?: string;
+  span: string;
+  nominalHz: number;
+}
+
+export async function runSize(a: SizeArgs, ts: TimeSystem): Promise<Rendered> {
+  const gravity = gravityModel(a.gravity, '--gravity');
+  const spanS = parsePositiveDurationS(a.span, '--span');
+  if (!(a.nominalHz > 0)) throw new InputError(`nominal frequency ${a.nominalHz} Hz is not positive`, '--nominal-hz', 'give e.g. 10.23e6');
+  const fromGiven = a.from === undefined ? null : ts.parse(a.from, '--from').ttJ2000S;
+  const orbit = orbitFromFlags(a, ts, gravity, (epoch) => ({ fromTtJ2000S: fromGiven ?? epoch, toTtJ2000S: (fromGiven ?? epoch) + spanS }));
+  const from = fromGiven ?? orbit.trajectory.epochTtJ2000S ?? orbit.trajectory.validFromTtJ2000S;
+  const result = sizeClock({ trajectory: orbit.trajectory, gravity, fromTtJ2000S: from, spanS, nominalHz: a.nominalHz, rebuildWithDeltaAKm: orbit.rebuildWithDeltaAKm });
+  return {
+    json: () => sizeToJson(result, ts),
+    text: () => sizeToText(result, ts),
+    csv: () => sizeToCsv([result], ts),
+  };
+}

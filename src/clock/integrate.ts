@@ -1,0 +1,141 @@
+/**
+ * Integration of the fractional offset along a trajectory (physics.md §1): x(t) = ∫ y dt.
+ * The span is cut into equal steps; each step uses an n-point Gauss–Legendre rule
+ * (exact for polynomials of degree 2n − 1). The n node values also define an interpolating
+ * polynomial per step, integrated analytically for dense output, so x is continuous and
+ * available at any instant without re-sampling the orbit.
+ *
+ * Accuracy: with n = 8 and steps of at most P/40 (P the period, shorter near perigee) the error
+ * is far below 1 ps/day (tests/clock-integration.test.ts measures it against a 1-s reference).
+ */
+import { InternalError } from '../errors.ts';
+import type { StateBlock, Trajectory } from '../orbit/trajectory.ts';
+import { allocStateBlock } from '../orbit/trajectory.ts';
+import { gaussLegendre, inverseVandermonde } from './quadrature.ts';
+
+/** Quadrature points per step. */
+export const GAUSS_POINTS_PER_STEP = 8;
+const RULE = gaussLegendre(GAUSS_POINTS_PER_STEP);
+const VINV = inverseVandermonde(RULE.nodes);
+
+/** A function of one state: position [m] and inertial velocity [m/s], in true-of-date axes. */
+export type StateFunction = (x: number, y: number, z: number, vx: number, vy: number, vz: number) => number;
+
+/** Dense integral X(t) = ∫_{from}^{t} f dt [s·(unit of f)] over a span, built once. */
+export class IntegratedTrack {
+  constructor(
+    /** Start of the span, seconds since J2000.0 TT. */
+    readonly fromTtJ2000S: number,
+    /** Step length [s]. */
+    readonly stepS: number,
+    /** Number of steps. */
+    readonly stepCount: number,
+    /** Monomial coefficients of f on each step in u ∈ [−1, 1], n per step. */
+    private readonly coeffs: Float64Array,
+    /** X at each step start (stepCount + 1 values). */
+    private readonly xAtStepStart: Float64Array,
+  ) {}
+
+  get toTtJ2000S(): number {
+    return this.fromTtJ2000S + this.stepS * this.stepCount;
+  }
+
+  private locate(ttJ2000S: number): { k: number; u: number } {
+    const rel = (ttJ2000S - this.fromTtJ2000S) / this.stepS;
+    if (rel < -1e-9 || rel > this.stepCount + 1e-9) {
+      throw new InternalError(`clock track queried outside its span (step ${rel.toFixed(3)} of ${this.stepCount})`, 'clock offset');
+    }
+    const k = Math.min(this.stepCount - 1, Math.max(0, Math.floor(rel)));
+    return { k, u: 2 * (rel - k) - 1 };
+  }
+
+  /** X(t) = ∫_{from}^{t} f dt. */
+  integralAt(ttJ2000S: number): number {
+    const { k, u } = this.locate(ttJ2000S);
+    const n = GAUSS_POINTS_PER_STEP;
+    let sum = 0;
+    let up = u;
+    let lowp = -1;
+    for (let j = 0; j < n; j++) {
+      sum += (this.coeffs[k * n + j] * (up - lowp)) / (j + 1);
+      up *= u;
+      lowp *= -1;
+    }
+    return this.xAtStepStart[k] + 0.5 * this.stepS * sum;
+  }
+
+  /** f(t) from the step's interpolating polynomial. */
+  valueAt(ttJ2000S: number): number {
+    const { k, u } = this.locate(ttJ2000S);
+    const n = GAUSS_POINTS_PER_STEP;
+    let v = 0;
+    for (let j = n - 1; j >= 0; j--) v = v * u + this.coeffs[k * n + j];
+    return v;
+  }
+
+  /** X over the whole span. */
+  get total(): number {
+    return this.xAtStepStart[this.stepCount];
+  }
+}
+
+/** Step length [s] for a trajectory: ≤ 300 s, ≤ P/40, shorter for eccentric orbits (perigee passes). */
+export function clockStepS(periodS: number, e: number): number {
+  const raw = (periodS / 40) * Math.pow(Math.max(1 - e, 0.05), 1.5);
+  return Math.min(300, Math.max(5, raw));
+}
+
+/**
+ * Integrate several state functions along `traj` over [from, to]. The span is rounded up to a
+ * whole number of steps of at most `maxStepS` (the last step ends exactly at `to`).
+ * One bulk sampling of the trajectory feeds all functions.
+ */
+export function integrateAlong(traj: Trajectory, fromTtJ2000S: number, toTtJ2000S: number, maxStepS: number, fns: readonly StateFunction[]): IntegratedTrack[] {
+  const spanS = toTtJ2000S - fromTtJ2000S;
+  if (!(spanS > 0)) throw new InternalError(`integration span ${spanS} s is not positive`, 'clock span');
+  const stepCount = Math.max(1, Math.ceil(spanS / maxStepS - 1e-9));
+  const stepS = spanS / stepCount;
+  const n = GAUSS_POINTS_PER_STEP;
+  // Sample in chunks so memory stays bounded on long horizons.
+  const chunkSteps = 4096;
+  const coeffs = fns.map(() => new Float64Array(stepCount * n));
+  const xs = fns.map(() => new Float64Array(stepCount + 1));
+  const times = new Float64Array(chunkSteps * n);
+  const block: StateBlock = allocStateBlock(chunkSteps * n);
+  const values = new Float64Array(n);
+  for (let s0 = 0; s0 < stepCount; s0 += chunkSteps) {
+    const s1 = Math.min(stepCount, s0 + chunkSteps);
+    const count = (s1 - s0) * n;
+    const t = count === times.length ? times : times.subarray(0, count);
+    for (let s = s0; s < s1; s++) {
+      const mid = fromTtJ2000S + (s + 0.5) * stepS;
+      for (let j = 0; j < n; j++) t[(s - s0) * n + j] = mid + 0.5 * stepS * RULE.nodes[j];
+    }
+    const out: StateBlock = count === times.length ? block : { positionM: block.positionM.subarray(0, 3 * count), velocityMPerS: block.velocityMPerS.subarray(0, 3 * count) };
+    traj.sampleInto(t, out);
+    const p = out.positionM;
+    const v = out.velocityMPerS;
+    for (let f = 0; f < fns.length; f++) {
+      const fn = fns[f];
+      const c = coeffs[f];
+      const x = xs[f];
+      for (let s = s0; s < s1; s++) {
+        let integral = 0;
+        for (let j = 0; j < n; j++) {
+          const i = (s - s0) * n + j;
+          const val = fn(p[3 * i], p[3 * i + 1], p[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]);
+          values[j] = val;
+          integral += RULE.weights[j] * val;
+        }
+        if (!Number.isFinite(integral)) throw new InternalError(`non-finite clock rate at step ${s} of ${traj.id}`, 'fractional offset');
+        for (let r = 0; r < n; r++) {
+          let cr = 0;
+          for (let j = 0; j < n; j++) cr += VINV[r * n + j] * values[j];
+          c[s * n + r] = cr;
+        }
+        x[s + 1] = x[s] + 0.5 * stepS * integral;
+      }
+    }
+  }
+  return fns.map((_, f) => new IntegratedTrack(fromTtJ2000S, stepS, stepCount, coeffs[f], xs[f]));
+}

@@ -1,0 +1,215 @@
+/**
+ * Use case `size`: the factory frequency offset that makes an onboard clock keep ground (TT) rate
+ * in orbit, with the split into gravitational and velocity parts, the periodic terms and the
+ * sensitivity to the orbit. Contract: `tauplan size`.
+ */
+import { InternalError } from '../errors.ts';
+import { integrateAlong, clockStepS } from '../clock/integrate.ts';
+import { potentialM2PerS2, type GravityModel } from '../clock/gravity.ts';
+import { conventionalPeriodicS, fractionalOffset, SPEED_OF_LIGHT_SQUARED_M2_PER_S2 as C2 } from '../clock/rate.ts';
+import { IERS2010_L_G, SECONDS_PER_DAY } from '../constants.ts';
+import { elementsFromState } from '../orbit/keplerian.ts';
+import { allocStateBlock, type Trajectory } from '../orbit/trajectory.ts';
+
+export interface SizeRequest {
+  trajectory: Trajectory;
+  gravity: GravityModel;
+  fromTtJ2000S: number;
+  spanS: number;
+  nominalHz: number;
+  /**
+   * Rebuilds the orbit with its semi-major axis changed by `deltaAKm`, for a measured sensitivity.
+   * Absent for sources with no elements to change (the closed form 3GM/(2a²c²) is used then).
+   */
+  rebuildWithDeltaAKm?: (deltaAKm: number) => Trajectory;
+}
+
+/** Osculating two-body summary at the start of the span (for the report). */
+export interface OrbitSummary {
+  aKm: number;
+  e: number;
+  iDeg: number;
+  periodS: number;
+  perigeeAltitudeKm: number;
+  apogeeAltitudeKm: number;
+}
+
+export interface SizeResult {
+  satellite: string;
+  source: string;
+  gravity: string;
+  fromTtJ2000S: number;
+  spanS: number;
+  orbit: OrbitSummary;
+  /** Slope of the LS line through the proper-time offset after removing −2r·v/c² (dimensionless). */
+  meanFractionalOffset: number;
+  driftNsPerDay: number;
+  components: { gravitational: number; velocity: number };
+  nominalHz: number;
+  recommendedHz: number;
+  recommendedOffsetHz: number;
+  eccentricityAmplitudeNs: number;
+  residualPeriodicAmplitudeNs: number;
+  sensitivityPerKm: number;
+  /** 'finite difference ±1 km' or 'closed form 3GM/(2a²c²)'. */
+  sensitivityMethod: string;
+  /** Time mean of y over the span, (x(end) − x(start))/span; differs from the slope by the periodic term's end points. */
+  spanMeanFractionalOffset: number;
+  integrationStepS: number;
+  statesEvaluated: number;
+}
+
+interface Core {
+  meanFractionalOffset: number;
+  gravitational: number;
+  velocity: number;
+  eccentricityAmplitudeS: number;
+  residualAmplitudeS: number;
+  spanMean: number;
+  stepS: number;
+  states: number;
+}
+
+function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS: number, orbit: OrbitSummary): Core {
+  const stepS = clockStepS(orbit.periodS, orbit.e);
+  const gm = gravity.gmM3PerS2;
+  const [total, grav, vel] = integrateAlong(traj, fromTt, fromTt + spanS, stepS, [
+    (x, y, z, vx, vy, vz) => fractionalOffset(gravity, x, y, z, vx, vy, vz),
+    (x, y, z) => IERS2010_L_G - potentialM2PerS2(gravity, x, y, z) / C2,
+    (_x, _y, _z, vx, vy, vz) => (-0.5 * (vx * vx + vy * vy + vz * vz)) / C2,
+  ]);
+  // Uniform grid for the line fit and the periodic amplitudes: 4 points per integration step.
+  const m = total.stepCount * 4 + 1;
+  const t = new Float64Array(m);
+  for (let i = 0; i < m; i++) t[i] = fromTt + (spanS * i) / (m - 1);
+  const block = allocStateBlock(m);
+  traj.sampleInto(t, block);
+  const p = new Float64Array(m);
+  const xt = new Float64Array(m);
+  const xg = new Float64Array(m);
+  const xv = new Float64Array(m);
+  let pMin = Infinity;
+  let pMax = -Infinity;
+  for (let i = 0; i < m; i++) {
+    const r = block.positionM;
+    const v = block.velocityMPerS;
+    p[i] = conventionalPeriodicS(r[3 * i], r[3 * i + 1], r[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]);
+    pMin = Math.min(pMin, p[i]);
+    pMax = Math.max(pMax, p[i]);
+    xt[i] = total.integralAt(t[i]) - p[i];
+    // Each part carries half of the conventional term (exact for two-body motion, where both parts
+    // share the periodic −GM/(rc²)), so the parts' slopes add up to the total's slope.
+    xg[i] = grav.integralAt(t[i]) - 0.5 * p[i];
+    xv[i] = vel.integralAt(t[i]) - 0.5 * p[i];
+  }
+  const lt = lineFit(t, xt);
+  const lg = lineFit(t, xg);
+  const lv = lineFit(t, xv);
+  let rMin = Infinity;
+  let rMax = -Infinity;
+  for (let i = 0; i < m; i++) {
+    const res = xt[i] - (lt.intercept + lt.slope * (t[i] - lt.tMean));
+    rMin = Math.min(rMin, res);
+    rMax = Math.max(rMax, res);
+  }
+  // Less than one period shows only part of the eccentricity term: use the osculating closed form then.
+  const eccAmp = spanS >= orbit.periodS ? (pMax - pMin) / 2 : (2 * Math.sqrt(gm * orbit.aKm * 1000) * orbit.e) / C2;
+  return {
+    meanFractionalOffset: lt.slope,
+    gravitational: lg.slope,
+    velocity: lv.slope,
+    eccentricityAmplitudeS: eccAmp,
+    residualAmplitudeS: (rMax - rMin) / 2,
+    spanMean: total.total / spanS,
+    stepS: total.stepS,
+    states: total.stepCount * 8 + m,
+  };
+}
+
+/** Least-squares line through (t, x) with centred time for precision. */
+export function lineFit(t: Float64Array, x: Float64Array): { slope: number; intercept: number; tMean: number } {
+  const n = t.length;
+  let tm = 0;
+  let xm = 0;
+  for (let i = 0; i < n; i++) {
+    tm += t[i];
+    xm += x[i];
+  }
+  tm /= n;
+  xm /= n;
+  let sxx = 0;
+  let sxy = 0;
+  for (let i = 0; i < n; i++) {
+    const dt = t[i] - tm;
+    sxx += dt * dt;
+    sxy += dt * (x[i] - xm);
+  }
+  if (!(sxx > 0)) throw new InternalError('line fit over a zero-length span', 'meanFractionalOffset');
+  return { slope: sxy / sxx, intercept: xm, tMean: tm };
+}
+
+/** Osculating summary of a trajectory at an instant. */
+export function orbitSummaryAt(traj: Trajectory, ttJ2000S: number, gmM3PerS2: number): OrbitSummary {
+  const s = traj.stateAt(ttJ2000S);
+  const el = elementsFromState(s.positionM, s.velocityMPerS, gmM3PerS2, ttJ2000S);
+  const aKm = el.aM / 1000;
+  return {
+    aKm,
+    e: el.e,
+    iDeg: (el.iRad * 180) / Math.PI,
+    periodS: el.aM > 0 ? 2 * Math.PI * Math.sqrt(el.aM ** 3 / gmM3PerS2) : NaN,
+    perigeeAltitudeKm: aKm * (1 - el.e) - 6378.137,
+    apogeeAltitudeKm: aKm * (1 + el.e) - 6378.137,
+  };
+}
+
+/** Run the sizing for one orbit. */
+export function sizeClock(req: SizeRequest): SizeResult {
+  const { trajectory: traj, gravity, fromTtJ2000S: from, spanS } = req;
+  const orbit = orbitSummaryAt(traj, from, gravity.gmM3PerS2);
+  if (!(orbit.aKm > 0) || orbit.e >= 1) {
+    throw new InternalError(`orbit of ${traj.id} is not closed (a = ${orbit.aKm} km, e = ${orbit.e})`, 'orbit');
+  }
+  const core = analyse(traj, gravity, from, spanS, orbit);
+  let sensitivityPerKm: number;
+  let sensitivityMethod: string;
+  let states = core.states;
+  if (req.rebuildWithDeltaAKm !== undefined) {
+    const up = req.rebuildWithDeltaAKm(+1);
+    const down = req.rebuildWithDeltaAKm(-1);
+    const cu = analyse(up, gravity, from, spanS, orbitSummaryAt(up, from, gravity.gmM3PerS2));
+    const cd = analyse(down, gravity, from, spanS, orbitSummaryAt(down, from, gravity.gmM3PerS2));
+    sensitivityPerKm = (cu.meanFractionalOffset - cd.meanFractionalOffset) / 2;
+    sensitivityMethod = 'central difference, semi-major axis ±1 km, same model';
+    states += cu.states + cd.states;
+  } else {
+    const aM = orbit.aKm * 1000;
+    sensitivityPerKm = ((3 * gravity.gmM3PerS2) / (2 * aM * aM * C2)) * 1000;
+    sensitivityMethod = 'closed form 3GM/(2a²c²) at the osculating a';
+  }
+  const y = core.meanFractionalOffset;
+  // Computed as a product, not as a difference of two 10 MHz numbers, to keep its digits.
+  const recommendedOffsetHz = -req.nominalHz * y;
+  const recommendedHz = req.nominalHz + recommendedOffsetHz;
+  return {
+    satellite: traj.id,
+    source: traj.sourceLabel,
+    gravity: gravity.name,
+    fromTtJ2000S: from,
+    spanS,
+    orbit,
+    meanFractionalOffset: y,
+    driftNsPerDay: y * SECONDS_PER_DAY * 1e9,
+    components: { gravitational: core.gravitational, velocity: core.velocity },
+    nominalHz: req.nominalHz,
+    recommendedHz,
+    recommendedOffsetHz,
+    eccentricityAmplitudeNs: core.eccentricityAmplitudeS * 1e9,
+    residualPeriodicAmplitudeNs: core.residualAmplitudeS * 1e9,
+    sensitivityPerKm,
+    sensitivityMethod,
+    spanMeanFractionalOffset: core.spanMean,
+    integrationStepS: core.stepS,
+    statesEvaluated: states,
+  };
+}
