@@ -33,9 +33,15 @@ export class Instant {
   readonly scale: TimeScale;
 
   constructor(taiWholeS: number, taiFracS: number, scale: TimeScale = 'TAI') {
-    const carry = Math.floor(taiFracS);
+    let carry = Math.floor(taiFracS);
+    let frac = taiFracS - carry;
+    // Snap sub-picosecond rounding noise at a whole second (e.g. from TT's 32.184 s offset) onto it.
+    if (1 - frac < 1e-12) {
+      carry += 1;
+      frac = 0;
+    }
     this.taiWholeS = taiWholeS + carry;
-    this.taiFracS = taiFracS - carry;
+    this.taiFracS = frac;
     this.scale = scale;
   }
 

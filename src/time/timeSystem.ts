@@ -64,7 +64,17 @@ export class TimeSystem {
 
   /** ISO 8601 with milliseconds. UTC ends in `Z`; other scales end in a space and the scale name. */
   format(t: Instant, scale: TimeScale = 'UTC', fractionDigits = 3): string {
-    const c = this.civil(t, scale);
+    // Round to the printed precision first (on the label, so TT's .184 s offset rounds right),
+    // then break down: a leap second or a minute boundary is never skipped by rounding.
+    const unit = 10 ** fractionDigits;
+    let c: CivilTime;
+    if (scale === 'UTC') {
+      const rounded = Math.round(t.taiFracS * unit) / unit;
+      c = this.utcCivil(new Instant(t.taiWholeS, rounded, 'UTC'));
+    } else {
+      const { wholeS, fracS } = t.labelS(scale);
+      c = civilFromSeconds(wholeS, Math.round(fracS * unit) / unit);
+    }
     const text = formatCivil(c, fractionDigits);
     return scale === 'UTC' ? `${text}Z` : `${text} ${scale}`;
   }
@@ -184,13 +194,14 @@ function civilFromSeconds(wholeS: number, fracS: number): CivilTime {
   return { ...civilFromDays(day), hour, minute, second };
 }
 
-/** `YYYY-MM-DDTHH:MM:SS.fff`, truncating (never rounding up into the next second). */
+/** `YYYY-MM-DDTHH:MM:SS.fff`; the fraction is clamped so it never carries into the next second. */
 export function formatCivil(c: CivilTime, fractionDigits: number): string {
   const pad = (n: number, w = 2): string => String(n).padStart(w, '0');
   const whole = Math.floor(c.second);
   let frac = '';
   if (fractionDigits > 0) {
-    const scaled = Math.floor((c.second - whole) * 10 ** fractionDigits + 1e-6);
+    // Callers round the instant first; rounding here only removes binary noise (42.184 → 42.18399…).
+    const scaled = Math.round((c.second - whole) * 10 ** fractionDigits);
     frac = `.${String(Math.min(scaled, 10 ** fractionDigits - 1)).padStart(fractionDigits, '0')}`;
   }
   return `${pad(c.year, 4)}-${pad(c.month)}-${pad(c.day)}T${pad(c.hour)}:${pad(c.minute)}:${pad(whole)}${frac}`;
