@@ -84,3 +84,10 @@ describe('leap-second table', () => {
     expect(parseDurationS('36h')).toBe(129600);
   });
 });
+
+describe('J2000.0', () => {
+  it('2000-01-01T12:00:00 TT is ttJ2000S = 0, and 11:58:55.816 UTC (TAI − UTC = 32 s then; derived)', () => {
+    expect(Math.abs(ts.parse('2000-01-01T12:00:00 TT').ttJ2000S)).toBeLessThan(1e-12); // binary noise of 0.184
+    expect(Math.abs(ts.parse('2000-01-01T11:58:55.816Z').ttJ2000S)).toBeLessThan(1e-9);
+  });
+});

@@ -21,7 +21,7 @@ export const SCALE_MINUS_TAI_S: Record<Exclude<TimeScale, 'UTC'>, number> = {
 };
 
 /** TAI label seconds of 2000-01-01T12:00:00 TT (J2000.0), from 1970-01-01T00:00:00 TAI. */
-const J2000_TT_AS_TAI_WHOLE_S = daysFromCivil(2000, 1, 1) * 86400 + 43200 - 32; // −32.184 s: whole part
+const J2000_TT_AS_TAI_WHOLE_S = daysFromCivil(2000, 1, 1) * 86400 + 43200 - 33; // 12:00:00 TT = 11:59:27.816 TAI
 const J2000_TT_AS_TAI_FRAC_S = 1 - 0.184;
 
 export class Instant {

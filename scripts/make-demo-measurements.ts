@@ -1,0 +1,122 @@
+/**
+ * Simulated clock-offset measurements for the demo and the fit tests. The data are invented:
+ * a known polynomial clock plus seeded white Gaussian noise, nothing measured.
+ *
+ * Generator: mulberry32 (a 32-bit multiply–xorshift generator, public domain) seeded with an
+ * unsigned 32-bit integer, and Box–Muller for Gaussian deviates. The same options always give
+ * the same file, on every platform (only 32-bit integer arithmetic and IEEE doubles).
+ *
+ * Run: `node --import tsx scripts/make-demo-measurements.ts OUT.csv` writes the demo file with
+ * the parameters of demoOptions() and prints its provenance on stderr.
+ */
+import { writeFileSync } from 'node:fs';
+import { pathToFileURL } from 'node:url';
+import { defaultTimeSystem } from '../src/io/tables.ts';
+import { Instant } from '../src/time/instant.ts';
+import type { TimeSystem } from '../src/time/timeSystem.ts';
+
+/** Options of {@link simulateMeasurements}. */
+export interface SimulationOptions {
+  /** First sample time, s since J2000.0 TT; this is also the epoch of the parameters. */
+  startTtJ2000S: number;
+  /** Spacing of the samples, s. */
+  stepS: number;
+  /** Number of rows. */
+  count: number;
+  /** Offset at the first sample, ns. */
+  offsetNs: number;
+  /** Fractional frequency at the first sample (dimensionless). */
+  fractionalFrequency: number;
+  /** Change of fractional frequency per day (1/day). */
+  driftPerDay: number;
+  /** Standard deviation of the white measurement noise, ns (0 for none). */
+  whiteNoiseNs: number;
+  /** Seed of the generator, an integer (taken modulo 2³²). */
+  seed: number;
+  /** Write a `sigmaNs` column equal to `whiteNoiseNs` (default false). */
+  withSigma?: boolean;
+  /** Rows (0-based data index) whose offset is moved by `outlierNs`, to test clipping. */
+  outlierRows?: readonly number[];
+  /** Size of the injected outliers, ns (default 0). */
+  outlierNs?: number;
+}
+
+/** A seeded uniform generator on [0, 1): mulberry32. */
+export function mulberry32(seed: number): () => number {
+  let state = seed >>> 0;
+  return () => {
+    state = (state + 0x6d2b79f5) >>> 0;
+    let z = state;
+    z = Math.imul(z ^ (z >>> 15), z | 1);
+    z ^= z + Math.imul(z ^ (z >>> 7), z | 61);
+    return ((z ^ (z >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** Standard normal deviates from a uniform source (Box–Muller, both outputs used). */
+export function gaussian(uniform: () => number): () => number {
+  let spare: number | null = null;
+  return () => {
+    if (spare !== null) {
+      const v = spare;
+      spare = null;
+      return v;
+    }
+    const u1 = 1 - uniform(); // (0, 1]: keeps log finite
+    const u2 = uniform();
+    const r = Math.sqrt(-2 * Math.log(u1));
+    spare = r * Math.sin(2 * Math.PI * u2);
+    return r * Math.cos(2 * Math.PI * u2);
+  };
+}
+
+/**
+ * CSV text `time,offsetNs[,sigmaNs]` of a simulated clock:
+ * offsetNs(t) = offsetNs + y·t·1e9 + (driftPerDay/86400)·t²/2·1e9 + noise, t from the first sample.
+ * Times are written as UTC with `Z` and milliseconds; keep `stepS` a whole number of ms.
+ * @param timeSystem formats the times (default: the package's leap-second table)
+ */
+export function simulateMeasurements(o: SimulationOptions, timeSystem: TimeSystem = defaultTimeSystem()): string {
+  const normal = gaussian(mulberry32(o.seed));
+  const outliers = new Set(o.outlierRows ?? []);
+  const driftPerS = o.driftPerDay / 86400;
+  const lines = [o.withSigma === true ? 'time,offsetNs,sigmaNs' : 'time,offsetNs'];
+  for (let k = 0; k < o.count; k++) {
+    const tS = k * o.stepS;
+    let offsetNs = o.offsetNs + (o.fractionalFrequency * tS + (driftPerS * tS * tS) / 2) * 1e9;
+    offsetNs += o.whiteNoiseNs * normal();
+    if (outliers.has(k)) offsetNs += o.outlierNs ?? 0;
+    const time = timeSystem.format(Instant.fromTtJ2000S(o.startTtJ2000S + tS));
+    const fields = [time, offsetNs.toPrecision(15)];
+    if (o.withSigma === true) fields.push(String(o.whiteNoiseNs));
+    lines.push(fields.join(','));
+  }
+  return `${lines.join('\n')}\n`;
+}
+
+/** Parameters of the demo file: one day of 5-min samples from 2027-01-01T00:00:00Z, an invented clock. */
+export const demoOptions = (timeSystem: TimeSystem): SimulationOptions => ({
+  startTtJ2000S: timeSystem.parse('2027-01-01T00:00:00Z', 'demo start').ttJ2000S,
+  stepS: 300,
+  count: 288,
+  offsetNs: 125.0,
+  fractionalFrequency: 4.2e-12,
+  driftPerDay: 1.0e-13,
+  whiteNoiseNs: 0.8,
+  seed: 20270101,
+  withSigma: false,
+  outlierRows: [137],
+  outlierNs: 15,
+});
+
+if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  const out = process.argv[2];
+  if (out === undefined) {
+    process.stderr.write('usage: node --import tsx scripts/make-demo-measurements.ts OUT.csv\n');
+    process.exit(2);
+  }
+  const timeSystem = defaultTimeSystem();
+  const options = demoOptions(timeSystem);
+  writeFileSync(out, simulateMeasurements(options, timeSystem));
+  process.stderr.write(`wrote ${out}: SIMULATED data (invented clock, seeded noise), options ${JSON.stringify(options)}\n`);
+}

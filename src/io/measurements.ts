@@ -1,0 +1,124 @@
+/**
+ * Reader for clock-offset measurement files (`tauplan fit MEASUREMENTS.csv`).
+ *
+ * Format (contract, `tauplan fit`): a header that is exactly `time,offsetNs` or
+ * `time,offsetNs,sigmaNs` (spaces around names and a UTF-8 BOM are tolerated), then one row
+ * per measurement. `time` is any time string {@link TimeSystem.parse} accepts (ISO 8601 with
+ * `Z` or a scale name, `GPSW week sow`, `MJD ...`); `offsetNs` is the clock reading minus the
+ * reference scale in ns; `sigmaNs` (optional) is its 1-σ uncertainty in ns, > 0.
+ */
+import { parse } from 'csv-parse/sync';
+import { InputError } from '../errors.ts';
+import type { TimeSystem } from '../time/timeSystem.ts';
+
+/** One measurement row, as read. */
+export interface MeasurementRow {
+  /** 1-based line number in the file (the record's last line if a quoted field spans lines). */
+  line: number;
+  /** Time of the measurement, seconds since J2000.0 TT. */
+  ttJ2000S: number;
+  /** The time exactly as written in the file (trimmed), for messages. */
+  timeText: string;
+  /** Clock offset: onboard clock reading minus the reference time scale, ns. */
+  offsetNs: number;
+  /** 1-σ uncertainty of `offsetNs` in ns, or null when the file has no `sigmaNs` column. */
+  sigmaNs: number | null;
+}
+
+/** Parsed measurement file: rows in file order (which is strictly increasing time order). */
+export interface Measurements {
+  rows: MeasurementRow[];
+  /** True when the file has a `sigmaNs` column (then every row has a sigma). */
+  hasSigma: boolean;
+}
+
+const HEADER_2 = 'time,offsetNs';
+const HEADER_3 = 'time,offsetNs,sigmaNs';
+/** A plain decimal or exponent number; refuses `''`, `0x10`, `Infinity` that `Number()` would take. */
+const NUMBER_RE = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+
+interface CsvRecord {
+  record: string[];
+  info: { lines: number };
+}
+
+/**
+ * Parse the text of a measurement CSV.
+ *
+ * Times must be strictly increasing. Unsorted or repeated times are refused, naming both lines,
+ * rather than silently sorted or merged: a file out of order usually means two files were
+ * concatenated or a column was mis-edited, and the fit's rejected-row line numbers must point at
+ * the file as written.
+ *
+ * @param text      whole file content (UTF-8, BOM allowed)
+ * @param fileName  name used in messages (`file:line`)
+ * @param timeSystem leap-second-aware parser for the `time` column
+ * @throws InputError (or its TimeError subclass) with `file:line` for every fault
+ */
+export function parseMeasurementsCsv(text: string, fileName: string, timeSystem: TimeSystem): Measurements {
+  let records: CsvRecord[];
+  try {
+    records = parse(text, {
+      bom: true,
+      trim: true,
+      skip_empty_lines: true,
+      relax_column_count: true,
+      info: true,
+    }) as unknown as CsvRecord[];
+  } catch (e) {
+    const line = typeof (e as { lines?: unknown }).lines === 'number' ? (e as { lines: number }).lines : 1;
+    const msg = e instanceof Error ? e.message : String(e);
+    throw new InputError(`cannot read CSV: ${msg}`, `${fileName}:${line}`, 'check quotes and commas; the file must be plain comma-separated text');
+  }
+
+  const first = records[0];
+  if (first === undefined) {
+    throw new InputError('empty measurement file', `${fileName}:1`, `start with the header ${HEADER_2} or ${HEADER_3}, then one row per measurement`);
+  }
+  const header = first.record.join(',');
+  if (header !== HEADER_2 && header !== HEADER_3) {
+    throw new InputError(
+      `header is ${JSON.stringify(header)}`,
+      `${fileName}:${first.info.lines}`,
+      `the first line must be exactly ${HEADER_2} or ${HEADER_3}`,
+    );
+  }
+  const hasSigma = header === HEADER_3;
+  const columns = hasSigma ? 3 : 2;
+
+  const rows: MeasurementRow[] = [];
+  for (let k = 1; k < records.length; k++) {
+    const { record, info } = records[k];
+    const line = info.lines;
+    const where = `${fileName}:${line}`;
+    if (record.length !== columns) {
+      throw new InputError(`row has ${record.length} fields, the header has ${columns}`, where, `write ${hasSigma ? HEADER_3 : HEADER_2} values on every row`);
+    }
+    const timeText = record[0];
+    const ttJ2000S = timeSystem.parse(timeText, where).ttJ2000S;
+    const offsetNs = readNumber(record[1], 'offsetNs', where);
+    let sigmaNs: number | null = null;
+    if (hasSigma) {
+      sigmaNs = readNumber(record[2], 'sigmaNs', where);
+      if (!(sigmaNs > 0)) throw new InputError(`sigmaNs ${record[2]} is not positive`, where, 'give each 1-σ uncertainty in ns as a number > 0, or drop the sigmaNs column');
+    }
+    const prev = rows[rows.length - 1];
+    if (prev !== undefined && !(ttJ2000S > prev.ttJ2000S)) {
+      const what = ttJ2000S === prev.ttJ2000S ? `time ${timeText} repeats the time of line ${prev.line}` : `time ${timeText} is earlier than ${prev.timeText} on line ${prev.line}`;
+      throw new InputError(what, where, 'sort the rows by time and keep one measurement per instant');
+    }
+    rows.push({ line, ttJ2000S, timeText, offsetNs, sigmaNs });
+  }
+  if (rows.length === 0) {
+    throw new InputError('no measurement rows after the header', `${fileName}:${first.info.lines + 1}`, 'add rows like 2027-01-01T00:00:00Z,12.5');
+  }
+  return { rows, hasSigma };
+}
+
+function readNumber(text: string, column: string, where: string): number {
+  const value = NUMBER_RE.test(text) ? Number(text) : Number.NaN;
+  if (!Number.isFinite(value)) {
+    throw new InputError(`${column} ${JSON.stringify(text)} is not a number`, where, `write ${column} as a decimal number such as 12.5 or -3.2e2`);
+  }
+  return value;
+}

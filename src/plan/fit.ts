@@ -1,0 +1,372 @@
+/**
+ * Clock estimation from offset measurements (`tauplan fit`), pure: no I/O.
+ *
+ * Model, with t = time − epoch in SI seconds (TT):
+ *
+ *     offsetNs(t) = x0 + y·t·1e9 + D·t²/2·1e9
+ *
+ * x0 = `offsetNs` at the epoch (ns), y = `fractionalFrequency` (dimensionless, positive = the clock
+ * runs fast), D = drift of y per second; `driftPerDay` = D·86400 s (change of y per day). This is
+ * the oscillator model of physics.md §6 with D = agingPerDay / 86400 s.
+ *
+ * Method: weighted linear least squares solved by singular value decomposition (ml-matrix), never
+ * by normal equations, with the time column scaled to ±1 for conditioning. Covariance is
+ * (AᵀWA)⁻¹ = V S⁻² Vᵀ of the weighted, scaled design matrix.
+ */
+import { Matrix, SingularValueDecomposition } from 'ml-matrix';
+import { InputError, InternalError, assertFinite } from '../errors.ts';
+import type { TimeSystem } from '../time/timeSystem.ts';
+import { Instant } from '../time/instant.ts';
+import { evenSpacingS, modifiedAdev, octaveFactors, overlappingAdev } from '../clock/stability.ts';
+
+/** One measurement as the fit needs it (a superset of `MeasurementRow` from src/io/measurements.ts works). */
+export interface FitInputRow {
+  /** 1-based line number in the source file, for the rejected list. */
+  line: number;
+  /** Time, s since J2000.0 TT. */
+  ttJ2000S: number;
+  /** Clock reading minus the reference scale, ns. */
+  offsetNs: number;
+  /** 1-σ uncertainty, ns, or null. Either every row has one or none does. */
+  sigmaNs: number | null;
+}
+
+/** Options of {@link fitClock}. */
+export interface FitOptions {
+  /** Polynomial degree: 0 offset, 1 + frequency, 2 + drift. */
+  degree: 0 | 1 | 2;
+  /** Formats output times (UTC with `Z`); the leap-second table travels with it. */
+  timeSystem: TimeSystem;
+  /** Epoch the parameters refer to, s since J2000.0 TT. Default: the first row's time. */
+  epochTtJ2000S?: number;
+  /**
+   * Sigma-clipping threshold k (default 4). A row is rejected when |residual| > k·σ_i with the
+   * given sigmas, or > k·s without them (s = √(Σr²/(n−p)), the residual standard deviation).
+   * 0 or Infinity disables clipping.
+   */
+  clipSigma?: number;
+  /** Iteration cap for clipping (default 20). Rejection is monotone, so it also ends by itself. */
+  maxClipIterations?: number;
+  /**
+   * Periodic term in ns at a time (s since J2000.0 TT), subtracted from every offset before the
+   * fit; e.g. the relativistic −2 r·v/c² term of the satellite, supplied by the caller.
+   */
+  periodicNs?: (ttJ2000S: number) => number;
+  /** Relative tolerance for "evenly spaced" in the stability table (default 1e-3). */
+  spacingRelTol?: number;
+}
+
+/** A row left out by sigma clipping. */
+export interface RejectedRow {
+  line: number;
+  /** UTC, ISO 8601 with `Z` and milliseconds. */
+  time: string;
+  /** The offset as given, ns (before any periodic term is removed). */
+  offsetNs: number;
+  /** Residual against the final fit, ns (after the periodic term is removed). */
+  residualNs: number;
+}
+
+/** One line of the stability table of the residual phase. */
+export interface FitStabilityRow {
+  /** Averaging time, s. */
+  tauS: number;
+  /** Overlapping Allan deviation (dimensionless). */
+  oadev: number;
+  /** Modified Allan deviation (dimensionless). */
+  mdev: number;
+  /** Number of terms in the overlapping Allan variance sum (N − 2m). */
+  count: number;
+}
+
+/** Result of {@link fitClock}. Field names follow the contract (`tauplan fit`). */
+export interface FitResult {
+  /** Epoch of the parameters, UTC ISO 8601 with `Z`. */
+  epoch: string;
+  /** The same epoch, s since J2000.0 TT. */
+  epochTtJ2000S: number;
+  degree: 0 | 1 | 2;
+  /** Offset at the epoch, ns, and its 1-σ. */
+  offsetNs: number;
+  offsetSigmaNs: number | null;
+  /** Fractional frequency (dimensionless) and 1-σ; null at degree 0. */
+  fractionalFrequency: number | null;
+  fractionalFrequencySigma: number | null;
+  /** Change of fractional frequency per day (1/day) and 1-σ; null below degree 2. */
+  driftPerDay: number | null;
+  driftPerDaySigma: number | null;
+  /** Correlation matrix of the fitted parameters (offset, frequency, drift order), or null when sigmas are unknown. */
+  correlation: number[][] | null;
+  /** Unweighted root mean square of the residuals of the rows used, ns. */
+  rmsNs: number;
+  /** Number of rows used in the final fit. */
+  used: number;
+  rejected: RejectedRow[];
+  /** Octave-spaced stability of the residual phase; empty when the rows are not evenly spaced. */
+  stability: FitStabilityRow[];
+  /** Why `stability` is empty, or how rejected rows were bridged; null when nothing to say. */
+  stabilityNote: string | null;
+  /** Where the parameter sigmas come from. */
+  sigmaSource: 'given' | 'scaled by reduced chi-square';
+  /** χ²/(n − p) of the final fit (with unit weights without sigmas); null when n = p. */
+  reducedChiSquare: number | null;
+  /** True when a periodic term was subtracted before fitting. */
+  periodicRemoved: boolean;
+  /** The clipping threshold used (null when disabled) and the number of fit passes. */
+  clipSigma: number | null;
+  iterations: number;
+  /** Span of the rows used, s. */
+  spanS: number;
+}
+
+const SECONDS_PER_DAY = 86400;
+/** Singular-value ratio below which the design is treated as rank-deficient. */
+const CONDITION_LIMIT = 1e12;
+
+interface Solution {
+  /** Parameters in physical units: [ns, ns/s, ns/s²]. */
+  params: number[];
+  /** Covariance of `params` from the weights alone (unit weights → multiply by s²). */
+  cov: number[][];
+  residualNs: number[];
+  chiSquare: number;
+}
+
+/**
+ * Fit offset, fractional frequency and drift to clock-offset measurements, with iterative sigma
+ * clipping and a stability table of the residuals.
+ *
+ * Without sigmas, rows have unit weight and the covariance is scaled by the reduced χ² (so the
+ * sigmas come from the scatter). With sigmas, weights are 1/σ² and the covariance comes from the
+ * sigmas alone; the reduced χ² is reported so a mismatch is visible.
+ *
+ * @param rows    measurements in strictly increasing time order (as parseMeasurementsCsv gives them)
+ * @throws InputError when fewer rows than parameters remain (before or after clipping), when the
+ *   times cannot separate the parameters, or when an option is out of range
+ */
+export function fitClock(rows: readonly FitInputRow[], options: FitOptions): FitResult {
+  const degree = options.degree;
+  if (degree !== 0 && degree !== 1 && degree !== 2) throw new InputError(`degree ${String(degree)}`, '--degree', 'use 0, 1 or 2');
+  const p = degree + 1;
+  const clip = options.clipSigma ?? 4;
+  if (Number.isNaN(clip) || clip < 0) throw new InputError(`clip ${clip}`, '--clip', 'give a number of sigmas ≥ 0 (0 disables clipping)');
+  const clipOn = clip > 0 && Number.isFinite(clip);
+  const maxIterations = options.maxClipIterations ?? 20;
+  if (rows.length < p) {
+    throw new InputError(`${rows.length} measurement rows for a degree-${degree} fit`, 'measurements', `give at least ${p} rows, or lower --degree`);
+  }
+  const withSigma = rows[0].sigmaNs !== null;
+  if (rows.some((r) => (r.sigmaNs !== null) !== withSigma)) {
+    throw new InputError('some rows have sigmaNs and some do not', 'measurements', 'give sigmaNs on every row or on none');
+  }
+  for (let i = 1; i < rows.length; i++) {
+    if (!(rows[i].ttJ2000S > rows[i - 1].ttJ2000S)) throw new InputError(`row at line ${rows[i].line} is not later than line ${rows[i - 1].line}`, 'measurements', 'sort the rows by time, one per instant');
+  }
+  const epochTt = options.epochTtJ2000S ?? rows[0].ttJ2000S;
+  assertFinite(epochTt, 'fit epoch');
+
+  const periodic = options.periodicNs;
+  const yNs = rows.map((r) => r.offsetNs - (periodic === undefined ? 0 : assertFinite(periodic(r.ttJ2000S), 'periodic term')));
+  const tS = rows.map((r) => r.ttJ2000S - epochTt);
+  const sigma = rows.map((r) => r.sigmaNs ?? 1);
+
+  let usedIdx = rows.map((_, i) => i);
+  const rejectedIdx = new Set<number>();
+  let sol = solve(usedIdx, tS, yNs, sigma, degree);
+  let iterations = 1;
+  while (clipOn && iterations < maxIterations) {
+    const dof = usedIdx.length - p;
+    if (dof <= 0) break;
+    const scale = withSigma ? 1 : Math.sqrt(sol.chiSquare / dof);
+    if (!(scale > 0)) break; // a perfect fit: nothing to clip against
+    const out = usedIdx.filter((i, k) => Math.abs(sol.residualNs[k]) > clip * scale * sigma[i]);
+    if (out.length === 0) break;
+    for (const i of out) rejectedIdx.add(i);
+    usedIdx = usedIdx.filter((i) => !rejectedIdx.has(i));
+    if (usedIdx.length < p) {
+      throw new InputError(
+        `clipping at ${clip}σ left ${usedIdx.length} rows for a degree-${degree} fit`,
+        'measurements',
+        `check the rejected rows, raise --clip, or use --clip 0 to keep every row`,
+      );
+    }
+    sol = solve(usedIdx, tS, yNs, sigma, degree);
+    iterations++;
+  }
+
+  const n = usedIdx.length;
+  const dof = n - p;
+  const reducedChiSquare = dof > 0 ? sol.chiSquare / dof : null;
+  // Covariance scale: 1 with given sigmas; reduced χ² with unit weights (unknown when dof = 0).
+  const covScale = withSigma ? 1 : reducedChiSquare;
+  const sd = (k: number): number | null => (covScale === null ? null : Math.sqrt(sol.cov[k][k] * covScale));
+
+  const [x0, yNsPerS, dNsPerS2] = sol.params;
+  const nsToFraction = 1e-9;
+  const offsetSigmaNs = sd(0);
+  const s1 = p > 1 ? sd(1) : null;
+  const s2 = p > 2 ? sd(2) : null;
+
+  let correlation: number[][] | null = null;
+  if (covScale !== null) {
+    correlation = sol.cov.map((row, a) => row.map((v, b) => v / Math.sqrt(sol.cov[a][a] * sol.cov[b][b])));
+  }
+
+  // Residuals of every row against the final fit (rejected rows too, for the report).
+  const model = (t: number): number => x0 + (p > 1 ? yNsPerS * t : 0) + (p > 2 ? (dNsPerS2 * t * t) / 2 : 0);
+  const rejected: RejectedRow[] = [...rejectedIdx]
+    .sort((a, b) => a - b)
+    .map((i) => ({
+      line: rows[i].line,
+      time: options.timeSystem.format(Instant.fromTtJ2000S(rows[i].ttJ2000S)),
+      offsetNs: rows[i].offsetNs,
+      residualNs: assertFinite(yNs[i] - model(tS[i]), 'residual'),
+    }));
+
+  let sumSq = 0;
+  for (const r of sol.residualNs) sumSq += r * r;
+  const rmsNs = Math.sqrt(sumSq / n);
+
+  const { stability, note } = residualStability(rows, usedIdx, sol.residualNs, options.spacingRelTol ?? 1e-3);
+
+  const usedTimes = usedIdx.map((i) => rows[i].ttJ2000S);
+  return {
+    epoch: options.timeSystem.format(Instant.fromTtJ2000S(epochTt)),
+    epochTtJ2000S: epochTt,
+    degree,
+    offsetNs: assertFinite(x0, 'offsetNs'),
+    offsetSigmaNs,
+    fractionalFrequency: p > 1 ? assertFinite(yNsPerS * nsToFraction, 'fractionalFrequency') : null,
+    fractionalFrequencySigma: s1 === null ? null : s1 * nsToFraction,
+    driftPerDay: p > 2 ? assertFinite(dNsPerS2 * nsToFraction * SECONDS_PER_DAY, 'driftPerDay') : null,
+    driftPerDaySigma: s2 === null ? null : s2 * nsToFraction * SECONDS_PER_DAY,
+    correlation,
+    rmsNs,
+    used: n,
+    rejected,
+    stability,
+    stabilityNote: note,
+    sigmaSource: withSigma ? 'given' : 'scaled by reduced chi-square',
+    reducedChiSquare,
+    periodicRemoved: periodic !== undefined,
+    clipSigma: clipOn ? clip : null,
+    iterations,
+    spanS: usedTimes[usedTimes.length - 1] - usedTimes[0],
+  };
+}
+
+/** Weighted least squares on the rows `idx` by SVD of the scaled, weighted design matrix. */
+function solve(idx: readonly number[], tS: readonly number[], yNs: readonly number[], sigma: readonly number[], degree: number): Solution {
+  const p = degree + 1;
+  const n = idx.length;
+  let scaleS = 0;
+  for (const i of idx) scaleS = Math.max(scaleS, Math.abs(tS[i]));
+  if (scaleS === 0) scaleS = 1;
+  const a = new Matrix(n, p);
+  const b = new Matrix(n, 1);
+  idx.forEach((i, k) => {
+    const u = tS[i] / scaleS;
+    const w = 1 / sigma[i];
+    a.set(k, 0, w);
+    if (p > 1) a.set(k, 1, u * w);
+    if (p > 2) a.set(k, 2, ((u * u) / 2) * w);
+    b.set(k, 0, yNs[i] * w);
+  });
+  const svd = new SingularValueDecomposition(a, { autoTranspose: false });
+  const s = svd.diagonal;
+  const sMax = Math.max(...s);
+  const sMin = Math.min(...s);
+  if (!(sMin > sMax / CONDITION_LIMIT)) {
+    throw new InputError(
+      `the ${n} measurement times cannot separate ${p} parameters`,
+      'measurements',
+      'spread the measurements over more distinct times, or lower --degree',
+    );
+  }
+  const v = svd.rightSingularVectors;
+  const u = svd.leftSingularVectors;
+  // x = V S⁻¹ Uᵀ b, Cov = V S⁻² Vᵀ (scaled units).
+  const utb = new Array<number>(p).fill(0);
+  for (let j = 0; j < p; j++) {
+    let acc = 0;
+    for (let k = 0; k < n; k++) acc += u.get(k, j) * b.get(k, 0);
+    utb[j] = acc / s[j];
+  }
+  const scaledParams = new Array<number>(p).fill(0);
+  for (let r = 0; r < p; r++) for (let j = 0; j < p; j++) scaledParams[r] += v.get(r, j) * utb[j];
+  const unit = [1, 1 / scaleS, 1 / (scaleS * scaleS)];
+  const params = scaledParams.map((x, r) => x * unit[r]);
+  const cov: number[][] = [];
+  for (let r = 0; r < p; r++) {
+    cov.push([]);
+    for (let c = 0; c < p; c++) {
+      let acc = 0;
+      for (let j = 0; j < p; j++) acc += (v.get(r, j) * v.get(c, j)) / (s[j] * s[j]);
+      cov[r].push(acc * unit[r] * unit[c]);
+    }
+  }
+  const residualNs: number[] = [];
+  let chiSquare = 0;
+  idx.forEach((i) => {
+    const t = tS[i];
+    const m = params[0] + (p > 1 ? params[1] * t : 0) + (p > 2 ? (params[2] * t * t) / 2 : 0);
+    const r = yNs[i] - m;
+    residualNs.push(r);
+    chiSquare += (r / sigma[i]) ** 2;
+  });
+  if (!Number.isFinite(chiSquare)) throw new InternalError('least-squares residuals are not finite', 'chiSquare');
+  return { params, cov, residualNs, chiSquare };
+}
+
+/**
+ * Octave stability table of the residual phase (ns → s). Needs the rows, before clipping, to be
+ * evenly spaced. A rejected row inside the series is filled by linear interpolation of its used
+ * neighbours' residuals (so one outlier does not void the table); rejected rows at either end
+ * are dropped. The note says when that happened.
+ */
+function residualStability(
+  rows: readonly FitInputRow[],
+  usedIdx: readonly number[],
+  usedResidualNs: readonly number[],
+  relTol: number,
+): { stability: FitStabilityRow[]; note: string | null } {
+  const tau0S = evenSpacingS(
+    rows.map((r) => r.ttJ2000S),
+    relTol,
+  );
+  if (tau0S === null) return { stability: [], note: 'no stability table: the samples are not evenly spaced' };
+  const first = usedIdx[0];
+  const last = usedIdx[usedIdx.length - 1];
+  const residualByRow = new Map<number, number>();
+  usedIdx.forEach((i, k) => residualByRow.set(i, usedResidualNs[k]));
+  const x: number[] = [];
+  let filled = 0;
+  let prevUsed = first;
+  for (let i = first; i <= last; i++) {
+    const r = residualByRow.get(i);
+    if (r !== undefined) {
+      x.push(r * 1e-9);
+      prevUsed = i;
+      continue;
+    }
+    let nextUsed = i + 1;
+    while (!residualByRow.has(nextUsed)) nextUsed++; // ends at `last`, which is used
+    const a = residualByRow.get(prevUsed) as number;
+    const b = residualByRow.get(nextUsed) as number;
+    x.push((a + ((b - a) * (i - prevUsed)) / (nextUsed - prevUsed)) * 1e-9);
+    filled++;
+  }
+  const dropped = rows.length - (last - first + 1);
+  const factors = octaveFactors(x.length);
+  if (factors.length === 0) return { stability: [], note: 'no stability table: fewer than 3 evenly spaced samples' };
+  const stability = factors.map((m) => {
+    const o = overlappingAdev(x, tau0S, m);
+    const d = modifiedAdev(x, tau0S, m);
+    if (o.deviation === null || d.deviation === null) throw new InternalError(`stability undefined at m = ${m}`, 'stability');
+    return { tauS: o.tauS, oadev: o.deviation, mdev: d.deviation, count: o.count };
+  });
+  const parts: string[] = [];
+  if (filled > 0) parts.push(`${filled} rejected row(s) inside the series filled by linear interpolation of the neighbouring residuals`);
+  if (dropped > 0) parts.push(`${dropped} rejected row(s) at the ends left out`);
+  return { stability, note: parts.length === 0 ? null : parts.join('; ') };
+}

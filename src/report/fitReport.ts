@@ -1,0 +1,198 @@
+/**
+ * Writers for the result of `tauplan fit` ({@link FitResult} from src/plan/fit.ts): JSON object,
+ * CSV and a plain-text worksheet. Pure string building; the CLI does the writing.
+ */
+import { stringify } from 'csv-stringify/sync';
+import { InternalError } from '../errors.ts';
+import type { FitResult } from '../plan/fit.ts';
+import type { TimeSystem } from '../time/timeSystem.ts';
+import { Instant } from '../time/instant.ts';
+import { textTable } from './format.ts';
+
+/** JSON shape of `tauplan fit` (contract field names, then extras). */
+export interface FitJson {
+  epoch: string;
+  offsetNs: number;
+  offsetSigmaNs: number | null;
+  fractionalFrequency: number | null;
+  fractionalFrequencySigma: number | null;
+  driftPerDay: number | null;
+  driftPerDaySigma: number | null;
+  rmsNs: number;
+  used: number;
+  rejected: { line: number; time: string; offsetNs: number; residualNs: number }[];
+  stability: { tauS: number; oadev: number; mdev: number; count: number }[];
+  // Extras (not in the contract):
+  degree: 0 | 1 | 2;
+  stabilityNote: string | null;
+  sigmaSource: 'given' | 'scaled by reduced chi-square';
+  reducedChiSquare: number | null;
+  periodicRemoved: boolean;
+  clipSigma: number | null;
+  iterations: number;
+  spanS: number;
+  correlation: number[][] | null;
+}
+
+/**
+ * The JSON-ready object of a fit: every number finite (checked; a non-finite value is a bug and
+ * throws InternalError), unknown values as null. Serialise with `JSON.stringify`.
+ */
+export function fitToJson(result: FitResult): FitJson {
+  const json: FitJson = {
+    epoch: result.epoch,
+    offsetNs: result.offsetNs,
+    offsetSigmaNs: result.offsetSigmaNs,
+    fractionalFrequency: result.fractionalFrequency,
+    fractionalFrequencySigma: result.fractionalFrequencySigma,
+    driftPerDay: result.driftPerDay,
+    driftPerDaySigma: result.driftPerDaySigma,
+    rmsNs: result.rmsNs,
+    used: result.used,
+    rejected: result.rejected.map((r) => ({ line: r.line, time: r.time, offsetNs: r.offsetNs, residualNs: r.residualNs })),
+    stability: result.stability.map((s) => ({ tauS: s.tauS, oadev: s.oadev, mdev: s.mdev, count: s.count })),
+    degree: result.degree,
+    stabilityNote: result.stabilityNote,
+    sigmaSource: result.sigmaSource,
+    reducedChiSquare: result.reducedChiSquare,
+    periodicRemoved: result.periodicRemoved,
+    clipSigma: result.clipSigma,
+    iterations: result.iterations,
+    spanS: result.spanS,
+    correlation: result.correlation,
+  };
+  requireFinite(json, '$');
+  return json;
+}
+
+/** CSV columns of {@link fitToCsv}, in order. */
+export const FIT_CSV_COLUMNS = [
+  'epoch',
+  'degree',
+  'offsetNs',
+  'offsetSigmaNs',
+  'fractionalFrequency',
+  'fractionalFrequencySigma',
+  'driftPerDay',
+  'driftPerDaySigma',
+  'rmsNs',
+  'used',
+  'rejected',
+  'sigmaSource',
+  'reducedChiSquare',
+  'periodicRemoved',
+] as const;
+
+/**
+ * CSV of a fit: one header line ({@link FIT_CSV_COLUMNS}) and one row of parameters, so fits of
+ * many files concatenate into one table. `rejected` is the count of rejected rows (their lines are
+ * in the JSON and text outputs); null values are empty fields. Numbers are full precision.
+ */
+export function fitToCsv(result: FitResult): string {
+  const j = fitToJson(result);
+  const row: (string | number | boolean | null)[] = [
+    j.epoch,
+    j.degree,
+    j.offsetNs,
+    j.offsetSigmaNs,
+    j.fractionalFrequency,
+    j.fractionalFrequencySigma,
+    j.driftPerDay,
+    j.driftPerDaySigma,
+    j.rmsNs,
+    j.used,
+    j.rejected.length,
+    j.sigmaSource,
+    j.reducedChiSquare,
+    j.periodicRemoved,
+  ];
+  return stringify([[...FIT_CSV_COLUMNS], row.map((v) => (v === null ? '' : String(v)))]);
+}
+
+/**
+ * Engineer's worksheet: parameters with units and ±1σ, where the sigmas come from, the rejected
+ * rows, and the stability table of the residuals.
+ * @param timeSystem used to show the epoch also in GPS time
+ */
+export function fitToText(result: FitResult, timeSystem: TimeSystem): string {
+  const j = fitToJson(result);
+  const pm = (v: number | null, s: number | null, fmt: (x: number) => string, unit: string): string =>
+    v === null ? 'not fitted' : `${fmt(v)} ± ${s === null ? '(unknown)' : fmt(s)}${unit}`;
+  const e = (x: number): string => x.toExponential(4);
+  const ns = (x: number): string => x.toFixed(3);
+  const epochGps = timeSystem.format(Instant.fromTtJ2000S(result.epochTtJ2000S), 'GPS');
+  const out: string[] = [];
+  out.push(`Clock fit, degree ${j.degree} (${['offset', 'offset + frequency', 'offset + frequency + drift'][j.degree]})`);
+  out.push(`Model: offset(t) = x0 + y·t + D·t²/2, t from the epoch; y > 0 means the clock runs fast.`);
+  out.push('');
+  out.push(`  epoch                  ${j.epoch}  (${epochGps})`);
+  out.push(`  offset x0              ${pm(j.offsetNs, j.offsetSigmaNs, ns, ' ns')}`);
+  out.push(`  fractional frequency y ${pm(j.fractionalFrequency, j.fractionalFrequencySigma, e, '')}`);
+  if (j.fractionalFrequency !== null) out.push(`    = ${(j.fractionalFrequency * 86400e9).toFixed(3)} ns/day`);
+  out.push(`  drift D                ${pm(j.driftPerDay, j.driftPerDaySigma, e, ' per day')}`);
+  out.push('  (± values are 1σ)');
+  out.push('');
+  out.push(`  rows used              ${j.used}, spanning ${(j.spanS / 86400).toFixed(4)} d`);
+  out.push(`  rms residual           ${ns(j.rmsNs)} ns`);
+  const chi = j.reducedChiSquare === null ? 'undefined (as many rows as parameters)' : j.reducedChiSquare.toPrecision(4);
+  if (j.sigmaSource === 'given') {
+    out.push(`  sigmas                 from the sigmaNs column; reduced χ² = ${chi} (≈ 1 if the sigmas are right)`);
+  } else {
+    out.push(`  sigmas                 no sigmaNs column: unit weights, covariance scaled by the reduced χ²`);
+    out.push(`                         (= residual variance ${chi} ns²)`);
+  }
+  if (j.periodicRemoved) out.push('  periodic term          the relativistic periodic term was removed before fitting');
+  out.push(`  clipping               ${j.clipSigma === null ? 'off' : `${j.clipSigma}σ, ${j.iterations} pass(es)`}`);
+  out.push('');
+  if (j.rejected.length === 0) {
+    out.push('Rejected rows: none');
+  } else {
+    out.push(`Rejected rows (${j.rejected.length}):`);
+    out.push(
+      indent(
+        textTable(
+          ['line', 'time (UTC)', 'offsetNs', 'residualNs'],
+          j.rejected.map((r) => [String(r.line), r.time, r.offsetNs.toFixed(3), r.residualNs.toFixed(3)]),
+        ),
+      ),
+    );
+  }
+  out.push('');
+  if (j.stability.length === 0) {
+    out.push(`Stability: ${j.stabilityNote ?? 'none'}`);
+  } else {
+    out.push('Stability of the residual phase (NIST SP 1065 overlapping and modified Allan deviations):');
+    out.push(
+      indent(
+        textTable(
+          ['tau [s]', 'OADEV', 'MDEV', 'terms'],
+          j.stability.map((s) => [formatTau(s.tauS), s.oadev.toExponential(3), s.mdev.toExponential(3), String(s.count)]),
+        ),
+      ),
+    );
+    out.push('  The fitted polynomial is removed first, which lowers the values at long tau.');
+    if (j.stabilityNote !== null) out.push(`  Note: ${j.stabilityNote}.`);
+  }
+  return `${out.join('\n')}\n`;
+}
+
+function formatTau(tauS: number): string {
+  return Number.isInteger(tauS) ? String(tauS) : tauS.toPrecision(6);
+}
+
+function indent(text: string): string {
+  return text
+    .split('\n')
+    .map((l) => `  ${l}`)
+    .join('\n');
+}
+
+function requireFinite(value: unknown, path: string): void {
+  if (typeof value === 'number') {
+    if (!Number.isFinite(value)) throw new InternalError(`non-finite number ${value} at ${path} in the fit output`, path);
+  } else if (Array.isArray(value)) {
+    value.forEach((v, i) => requireFinite(v, `${path}[${i}]`));
+  } else if (value !== null && typeof value === 'object') {
+    for (const [k, v] of Object.entries(value)) requireFinite(v, `${path}.${k}`);
+  }
+}
