@@ -2,7 +2,10 @@
 import type { Argv } from 'yargs';
 import type { GravityModel } from '../clock/gravity.ts';
 import { InputError } from '../errors.ts';
-import { elementsFromDegKm, KeplerianTrajectory, type KeplerianElements } from '../orbit/keplerian.ts';
+import { loadScenario, scenarioSatellite } from '../io/loadScenario.ts';
+import { idOf, labelOf, pickElementSet, readElementSets, sgp4Trajectory, trajectoryForSatellite, type ResolvedOrbit } from '../io/orbitSources.ts';
+import { elementsFromDegKm } from '../orbit/keplerian.ts';
+import { trajectoryFromKeplerian } from '../orbit/stateVector.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 
@@ -37,13 +40,8 @@ export interface OrbitFlags {
   sat?: string;
 }
 
-export interface ResolvedOrbit {
-  trajectory: Trajectory;
-  rebuildWithDeltaAKm?: (deltaAKm: number) => Trajectory;
-}
-
-/** Span wanted by the caller, given the orbit's epoch (seconds since J2000.0 TT). */
-export type SpanFor = (epochTtJ2000S: number) => { fromTtJ2000S: number; toTtJ2000S: number };
+/** Span wanted by the caller, given the orbit's epoch (seconds since J2000.0 TT; null when the source has none). */
+export type SpanFor = (epochTtJ2000S: number | null) => { fromTtJ2000S: number; toTtJ2000S: number };
 
 export function orbitFromFlags(a: OrbitFlags, ts: TimeSystem, gravity: GravityModel, spanFor: SpanFor): ResolvedOrbit {
   const fileSources = [a.tle, a.omm, a.scenario].filter((x) => x !== undefined).length;
@@ -57,21 +55,30 @@ export function orbitFromFlags(a: OrbitFlags, ts: TimeSystem, gravity: GravityMo
   if (fileSources === 0 && !hasElements) {
     throw new InputError('no orbit given', 'command line', 'give --a-km or --altitude-km (with --e, --i-deg ...), or --tle, --omm or --scenario with --sat');
   }
-  if (!hasElements) throw new InputError('orbit files are not wired in yet', '--tle/--omm/--scenario', 'use --a-km');
+  if (a.tle !== undefined || a.omm !== undefined) {
+    const kind = a.tle !== undefined ? 'tle' : 'omm';
+    const file = (a.tle ?? a.omm) as string;
+    const rec = pickElementSet(readElementSets(file, kind, `--${kind}`), a.sat, file);
+    const probe = sgp4Trajectory(rec, ts, null);
+    return { trajectory: sgp4Trajectory(rec, ts, spanFor(probe.epochTtJ2000S), idOf(rec)), name: labelOf(rec) };
+  }
+  if (a.scenario !== undefined) {
+    const scenario = loadScenario(a.scenario, ts, '--scenario');
+    const sat = scenarioSatellite(scenario, a.sat);
+    const o = sat.orbit;
+    const epoch = o.kind === 'keplerian' || o.kind === 'state' ? o.epoch.ttJ2000S : scenario.window.start.ttJ2000S;
+    return trajectoryForSatellite(sat, scenario, ts, gravity, spanFor(epoch));
+  }
   const aKm = a.aKm ?? 6378.137 + (a.altitudeKm as number);
   const epoch = ts.parse(a.epoch, '--epoch').ttJ2000S;
+  const span = spanFor(epoch);
+  const full = { fromTtJ2000S: Math.min(span.fromTtJ2000S, epoch), toTtJ2000S: Math.max(span.toTtJ2000S, epoch) };
   const build = (deltaAKm: number): Trajectory => {
     const el = elementsFromDegKm(
       { epochTtJ2000S: epoch, aKm: aKm + deltaAKm, e: a.e, iDeg: a.iDeg, raanDeg: a.raanDeg, argpDeg: a.argpDeg, meanAnomalyDeg: a.mDeg },
       { a: a.aKm !== undefined ? '--a-km' : '--altitude-km', e: '--e' },
     );
-    return keplerianTrajectory('flags', el, gravity, spanFor(epoch));
+    return trajectoryFromKeplerian(el, gravity, full, 'keplerian');
   };
-  return { trajectory: build(0), rebuildWithDeltaAKm: build };
-}
-
-/** Point-mass: exact two-body; otherwise numerical propagation from the osculating state. */
-export function keplerianTrajectory(id: string, el: KeplerianElements, gravity: GravityModel, span: { fromTtJ2000S: number; toTtJ2000S: number }): Trajectory {
-  void span;
-  return new KeplerianTrajectory(id, el, gravity.gmM3PerS2);
+  return { trajectory: build(0), name: 'Keplerian orbit from flags', rebuildWithDeltaAKm: build };
 }

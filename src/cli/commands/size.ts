@@ -8,6 +8,7 @@ import { sizeToCsv, sizeToJson, sizeToText } from '../../report/sizeReport.ts';
 import { parsePositiveDurationS } from '../../time/duration.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
+import { Instant } from '../../time/instant.ts';
 import { orbitFromFlags, orbitOptions, type OrbitFlags } from '../orbitArgs.ts';
 
 export function sizeOptions<T>(y: Argv<T>) {
@@ -30,8 +31,21 @@ export async function runSize(a: SizeArgs, ts: TimeSystem): Promise<Rendered> {
   const spanS = parsePositiveDurationS(a.span, '--span');
   if (!(a.nominalHz > 0)) throw new InputError(`nominal frequency ${a.nominalHz} Hz is not positive`, '--nominal-hz', 'give e.g. 10.23e6');
   const fromGiven = a.from === undefined ? null : ts.parse(a.from, '--from').ttJ2000S;
-  const orbit = orbitFromFlags(a, ts, gravity, (epoch) => ({ fromTtJ2000S: fromGiven ?? epoch, toTtJ2000S: (fromGiven ?? epoch) + spanS }));
+  const startFor = (epoch: number | null): number => {
+    const start = fromGiven ?? epoch;
+    if (start === null) throw new InputError('this orbit source has no epoch to start from', '--from', 'give --from');
+    return start;
+  };
+  const orbit = orbitFromFlags(a, ts, gravity, (epoch) => ({ fromTtJ2000S: startFor(epoch), toTtJ2000S: startFor(epoch) + spanS }));
   const from = fromGiven ?? orbit.trajectory.epochTtJ2000S ?? orbit.trajectory.validFromTtJ2000S;
+  if (from < orbit.trajectory.validFromTtJ2000S - 1e-3 || from + spanS > orbit.trajectory.validToTtJ2000S + 1e-3) {
+    const f = (t: number): string => ts.format(Instant.fromTtJ2000S(t));
+    throw new InputError(
+      `span ${f(from)} + ${spanS} s is outside the orbit source's span ${f(orbit.trajectory.validFromTtJ2000S)} to ${f(orbit.trajectory.validToTtJ2000S)}`,
+      '--from/--span',
+      'choose a span inside the source span',
+    );
+  }
   const result = sizeClock({ trajectory: orbit.trajectory, gravity, fromTtJ2000S: from, spanS, nominalHz: a.nominalHz, rebuildWithDeltaAKm: orbit.rebuildWithDeltaAKm });
   return {
     json: () => sizeToJson(result, ts),

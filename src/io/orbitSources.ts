@@ -1,0 +1,155 @@
+/**
+ * The orbit factory: turns a scenario satellite, or command-line flags, into a Trajectory.
+ * This is the edge: it reads TLE, OMM and SP3 files. Everything after it sees only Trajectory.
+ */
+import { readFileSync } from 'node:fs';
+import type { GravityModel } from '../clock/gravity.ts';
+import { InputError } from '../errors.ts';
+import { elementsFromDegKm, type KeplerianElements } from '../orbit/keplerian.ts';
+import { Sgp4Trajectory } from '../orbit/sgp4.ts';
+import { Sp3Trajectory } from '../orbit/sp3.ts';
+import { trajectoryFromKeplerian, trajectoryFromStateVector } from '../orbit/stateVector.ts';
+import type { Trajectory } from '../orbit/trajectory.ts';
+import type { TimeSystem } from '../time/timeSystem.ts';
+import { parseOmmFile, ommFromObject, type OmmRecord } from './omm.ts';
+import type { SatelliteSpec, ScenarioSpec } from './scenario.ts';
+import { parseSp3, type Sp3File } from './sp3.ts';
+import { parseTleFile, type TleRecord } from './tle.ts';
+
+/** A span of interest, seconds since J2000.0 TT. */
+export interface Span {
+  fromTtJ2000S: number;
+  toTtJ2000S: number;
+}
+
+/** A trajectory, and for element-based sources a way to rebuild it with a changed semi-major axis. */
+export interface ResolvedOrbit {
+  trajectory: Trajectory;
+  /** Display name (TLE name line, OMM OBJECT_NAME, scenario name), or the id. */
+  name: string;
+  rebuildWithDeltaAKm?: (deltaAKm: number) => Trajectory;
+}
+
+/** Read a text file, turning file-system faults into one-line input errors. */
+export function readTextFile(path: string, where: string): string {
+  try {
+    return readFileSync(path, 'utf8');
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    const what = code === 'ENOENT' ? `file not found: ${path}` : code === 'EISDIR' ? `${path} is a folder, not a file` : `cannot read ${path} (${code ?? 'error'})`;
+    throw new InputError(what, where, 'check the path');
+  }
+}
+
+/** SGP4 span: the wanted span, widened to hold the element-set epoch, so sizing from the epoch works. */
+function sgp4Span(epochTt: number, span: Span): Span {
+  return { fromTtJ2000S: Math.min(span.fromTtJ2000S, epochTt), toTtJ2000S: Math.max(span.toTtJ2000S, epochTt) };
+}
+
+/** SGP4 trajectory from a parsed element set, its span covering `span`. */
+export function sgp4Trajectory(rec: TleRecord | OmmRecord, ts: TimeSystem, span: Span | null, id?: string): Sgp4Trajectory {
+  const probe = new Sgp4Trajectory(rec, ts, id === undefined ? {} : { id });
+  if (span === null) return probe;
+  return new Sgp4Trajectory(rec, ts, { ...(id === undefined ? {} : { id }), span: sgp4Span(probe.epochTtJ2000S, span) });
+}
+
+/** Find one record in an element-set file by catalogue number, name or OMM id. */
+export function pickElementSet<T extends TleRecord | OmmRecord>(records: T[], sat: string | undefined, file: string): T {
+  if (sat === undefined) {
+    if (records.length === 1) return records[0];
+    throw new InputError(`${file} holds ${records.length} satellites`, '--sat', 'name one with --sat (catalogue number or name), or use --all');
+  }
+  const wanted = sat.trim();
+  const found = records.find((r) => matchesElementSet(r, wanted));
+  if (found === undefined) {
+    const some = records.slice(0, 5).map(labelOf).join(', ');
+    throw new InputError(`no satellite ${JSON.stringify(sat)} in ${file}`, '--sat', `use a catalogue number or name from the file (e.g. ${some})`);
+  }
+  return found;
+}
+
+function matchesElementSet(r: TleRecord | OmmRecord, wanted: string): boolean {
+  if (r.kind === 'tle') return r.catalogNumber.trim() === wanted || String(r.catalogNumberValue) === wanted.replace(/^0+/, '') || (r.name ?? '').trim() === wanted;
+  return String(r.noradCatId ?? '') === wanted.replace(/^0+/, '') || (r.objectName ?? '') === wanted || (r.objectId ?? '') === wanted;
+}
+
+/** Display label of an element set. */
+export function labelOf(r: TleRecord | OmmRecord): string {
+  if (r.kind === 'tle') return r.name ?? r.catalogNumber.trim();
+  return r.objectName ?? r.objectId ?? String(r.noradCatId ?? '?');
+}
+
+/** Stable id of an element set (catalogue number when there is one). */
+export function idOf(r: TleRecord | OmmRecord): string {
+  if (r.kind === 'tle') return String(r.catalogNumberValue);
+  return r.noradCatId !== null && r.noradCatId !== undefined ? String(r.noradCatId) : (r.objectId ?? r.objectName ?? 'omm');
+}
+
+/** All element sets of a TLE or OMM file. */
+export function readElementSets(path: string, kind: 'tle' | 'omm', flag: string): (TleRecord | OmmRecord)[] {
+  const text = readTextFile(path, flag);
+  return kind === 'tle' ? parseTleFile(text, path) : parseOmmFile(text, path);
+}
+
+const sp3Cache = new Map<string, Sp3File>();
+
+function readSp3(path: string, where: string): Sp3File {
+  let f = sp3Cache.get(path);
+  if (f === undefined) {
+    f = parseSp3(readTextFile(path, where), path);
+    sp3Cache.set(path, f);
+  }
+  return f;
+}
+
+/** Keplerian elements of a scenario satellite. */
+function scenarioElements(sat: SatelliteSpec, deltaAKm: number): KeplerianElements {
+  const o = sat.orbit;
+  if (o.kind !== 'keplerian') throw new InputError('not a Keplerian orbit', sat.path, 'internal');
+  return elementsFromDegKm(
+    { epochTtJ2000S: o.epoch.ttJ2000S, aKm: o.aKm + deltaAKm, e: o.e, iDeg: o.iDeg, raanDeg: o.raanDeg, argpDeg: o.argpDeg, meanAnomalyDeg: o.meanAnomalyDeg },
+    { a: `${sat.path}.orbit.keplerian.aKm`, e: `${sat.path}.orbit.keplerian.e` },
+  );
+}
+
+/** The trajectory of one scenario satellite over `span` (its validity covers at least the span). */
+export function trajectoryForSatellite(sat: SatelliteSpec, scenario: ScenarioSpec, ts: TimeSystem, gravity: GravityModel, span: Span): ResolvedOrbit {
+  const o = sat.orbit;
+  const name = sat.name ?? sat.id;
+  switch (o.kind) {
+    case 'tle': {
+      const [rec] = parseTleFile(o.text, `${scenario.fileName} ${sat.path}.orbit.tle`);
+      return { trajectory: sgp4Trajectory(rec, ts, span, sat.id), name };
+    }
+    case 'omm': {
+      const rec = ommFromObject(o.fields, `${scenario.fileName} ${sat.path}.orbit.omm`);
+      return { trajectory: sgp4Trajectory(rec, ts, span, sat.id), name };
+    }
+    case 'keplerian': {
+      const epoch = o.epoch.ttJ2000S;
+      const full = { fromTtJ2000S: Math.min(span.fromTtJ2000S, epoch), toTtJ2000S: Math.max(span.toTtJ2000S, epoch) };
+      const build = (d: number): Trajectory => trajectoryFromKeplerian(scenarioElements(sat, d), gravity, full, sat.id);
+      return { trajectory: build(0), name, rebuildWithDeltaAKm: build };
+    }
+    case 'state': {
+      const epoch = o.epoch.ttJ2000S;
+      const trajectory = trajectoryFromStateVector({
+        id: sat.id,
+        epochTtJ2000S: epoch,
+        frame: o.frame,
+        positionKm: o.positionKm,
+        velocityKmPerS: o.velocityKmPerS,
+        gravity,
+        fromTtJ2000S: Math.min(span.fromTtJ2000S, epoch),
+        toTtJ2000S: Math.max(span.toTtJ2000S, epoch),
+        jdUtcAtEpoch: ts.jdUtcFromTtJ2000S(epoch),
+        where: `${scenario.fileName} ${sat.path}.orbit.state`,
+      });
+      return { trajectory, name };
+    }
+    case 'sp3': {
+      const file = readSp3(o.resolvedFile, `${scenario.fileName} ${sat.path}.orbit.sp3.file`);
+      return { trajectory: new Sp3Trajectory(file, o.id, ts), name };
+    }
+  }
+}
