@@ -91,6 +91,9 @@ export function readElementSets(path: string, kind: 'tle' | 'omm', flag: string)
   return kind === 'tle' ? parseTleFile(text, path) : parseOmmFile(text, path);
 }
 
+/** Padding of computed trajectories beyond the requested span [s]. */
+export const SPAN_PAD_S = 120;
+
 const sp3Cache = new Map<string, Sp3File>();
 
 function readSp3(path: string, where: string): Sp3File {
@@ -113,8 +116,10 @@ function scenarioElements(sat: SatelliteSpec, deltaAKm: number): KeplerianElemen
 }
 
 /** The trajectory of one scenario satellite over `span` (its validity covers at least the span). */
-export function trajectoryForSatellite(sat: SatelliteSpec, scenario: ScenarioSpec, ts: TimeSystem, gravity: GravityModel, span: Span): ResolvedOrbit {
+export function trajectoryForSatellite(sat: SatelliteSpec, scenario: ScenarioSpec, ts: TimeSystem, gravity: GravityModel, wanted: Span): ResolvedOrbit {
   const o = sat.orbit;
+  // A little room either side: light time at a pass at the window edge looks ~0.1 s back.
+  const span = { fromTtJ2000S: wanted.fromTtJ2000S - SPAN_PAD_S, toTtJ2000S: wanted.toTtJ2000S + SPAN_PAD_S };
   const name = sat.name ?? sat.id;
   switch (o.kind) {
     case 'tle': {

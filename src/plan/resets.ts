@@ -11,7 +11,8 @@
  *    or from the plan start.
  * 3. The adjustment goes in the last qualifying pass (any station, ending before the earliest edge
  *    of the crossing of |x| = L − margin, minus the lead time), at that pass's TCA.
- * 4. Phase: step to the value that maximises the time to the next crossing (adjust.ts). Frequency:
+ * 4. Phase: step to the value that maximises the time to the next crossing (adjust.ts), inside the
+ *    band narrowed by the margin and the orbit's periodic swing. Frequency:
  *    cancel the mean rate over one orbit. `prefer` chooses which is applied; both sizes are reported.
  * 5. Repeat to the horizon. Every loop is capped.
  */
@@ -86,6 +87,9 @@ export interface ResetRequest {
 /** Cap on adjustments per satellite over a horizon (a clock needing more is a design problem). */
 export const MAX_ADJUSTMENTS = 500;
 const MAX_BISECTIONS = 80;
+/** Headroom on the periodic swing when placing a phase step (its amplitude varies a little from orbit to orbit). */
+const PERIODIC_ALLOWANCE = 1.1;
+const PERIODIC_ALLOWANCE_NS = 0.5;
 const CROSSING_RESOLUTION_S = 0.1;
 
 interface Step {
@@ -102,6 +106,16 @@ class PlannedClock {
     let x = this.clock.offsetNs(t);
     for (const s of this.steps) if (t >= s.atTtJ2000S) x += s.phaseNs + 1e9 * s.fractional * (t - s.atTtJ2000S);
     return x;
+  }
+  /** Offset averaged over one orbit centred on t (Simpson, 64 intervals): the trend without the periodic swing. */
+  meanOffsetNs(t: number, periodS: number, from: number, to: number): number {
+    let a = Math.max(from, t - periodS / 2);
+    const b = Math.min(to, a + periodS);
+    a = Math.max(from, b - periodS);
+    const n = 64;
+    let sum = 0;
+    for (let k = 0; k <= n; k++) sum += (k === 0 || k === n ? 1 : k % 2 === 1 ? 4 : 2) * this.offsetNs(a + ((b - a) * k) / n);
+    return sum / (3 * n);
   }
   /** Mean fractional rate over [t − P/2, t + P/2] (removes the orbit's periodic term). */
   meanRate(t: number, periodS: number, from: number, to: number): number {
@@ -121,13 +135,21 @@ class PlannedClock {
  * First time in [from, to] at which g(t) ≥ 0, with g continuous. Coarse scan of `stepS`, then
  * bisection to 0.1 s. Returns null if g stays negative.
  */
-export function firstRoot(g: (t: number) => number, from: number, to: number, stepS: number): number | null {
-  if (g(from) >= 0) return from;
+export function firstRoot(g: (t: number) => number, from: number, to: number, stepS: number, enteringOnly = false): number | null {
+  // enteringOnly: a start at or beyond the level does not count; wait until g < 0, then find the next rise.
+  let inside = g(from) < 0;
+  if (!inside && !enteringOnly) return from;
   const n = Math.ceil((to - from) / stepS);
   let prev = from;
   for (let k = 1; k <= n; k++) {
     const t = Math.min(to, from + k * stepS);
-    if (g(t) >= 0) {
+    const gt = g(t);
+    if (!inside) {
+      inside = gt < 0;
+      prev = t;
+      continue;
+    }
+    if (gt >= 0) {
       let lo = prev;
       let hi = t;
       for (let it = 0; it < MAX_BISECTIONS && hi - lo > CROSSING_RESOLUTION_S; it++) {
@@ -143,6 +165,25 @@ export function firstRoot(g: (t: number) => number, from: number, to: number, st
   return null;
 }
 
+/**
+ * Half peak-to-peak [ns] of the offset about its straight trend over one orbit (the periodic
+ * relativistic swing, mostly eccentricity), sampled 200 times.
+ */
+export function periodicAmplitudeNs(clock: OnboardClock, from: number, to: number): number {
+  if (!(to > from)) return 0;
+  const x0 = clock.offsetNs(from);
+  const x1 = clock.offsetNs(to);
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let k = 0; k <= 200; k++) {
+    const t = from + ((to - from) * k) / 200;
+    const d = clock.offsetNs(t) - (x0 + ((x1 - x0) * k) / 200);
+    lo = Math.min(lo, d);
+    hi = Math.max(hi, d);
+  }
+  return (hi - lo) / 2;
+}
+
 /** Plan the adjustments for one satellite. */
 export function planResets(req: ResetRequest): SatelliteResetPlan {
   const { limitNs: L, policy, fromTtJ2000S: from, toTtJ2000S: to } = req;
@@ -151,14 +192,17 @@ export function planResets(req: ResetRequest): SatelliteResetPlan {
   const scanStepS = Math.max(10, Math.min(600, req.periodS / 8));
   const bandNs = (t: number, since: number): number => (req.noise === null ? 0 : Z95 * predictionSigmaNs(req.noise, t - since));
 
-  const crossingAfter = (since: number, level: number): Crossing | null => {
-    const at = firstRoot((t) => Math.abs(planned.offsetNs(t)) - level, since, to, scanStepS);
+  // The limit itself counts from the start (a clock may begin outside it); the margin level only
+  // when the offset comes back to it from inside, since a phase step lands exactly on it.
+  const crossingAfter = (since: number, level: number, enteringOnly = false): Crossing | null => {
+    const at = firstRoot((t) => Math.abs(planned.offsetNs(t)) - level, since, to, scanStepS, enteringOnly);
     if (at === null) return null;
-    const earliest = firstRoot((t) => Math.abs(planned.offsetNs(t)) + bandNs(t, since) - level, since, to, scanStepS) ?? at;
-    const latest = firstRoot((t) => Math.abs(planned.offsetNs(t)) - bandNs(t, since) - level, since, to, scanStepS) ?? to;
+    const earliest = firstRoot((t) => Math.abs(planned.offsetNs(t)) + bandNs(t, since) - level, since, to, scanStepS, enteringOnly) ?? at;
+    const latest = firstRoot((t) => Math.abs(planned.offsetNs(t)) - bandNs(t, since) - level, since, to, scanStepS, enteringOnly) ?? to;
     return { atTtJ2000S: at, earliestTtJ2000S: Math.min(earliest, at), latestTtJ2000S: Math.max(latest, at), side: planned.offsetNs(at) >= 0 ? 1 : -1 };
   };
 
+  const periodicNs = periodicAmplitudeNs(req.clock, from, Math.min(to, from + req.periodS));
   const startsOutside = Math.abs(planned.offsetNs(from)) >= L;
   const firstCrossing = crossingAfter(from, L);
   const adjustments: Adjustment[] = [];
@@ -171,8 +215,8 @@ export function planResets(req: ResetRequest): SatelliteResetPlan {
     if (crossing === null) break;
     const outsideNow = Math.abs(planned.offsetNs(since)) >= L;
     // Deadline: the band's earliest edge at the margin level, minus the lead time.
-    const marginCrossing = crossingAfter(since, L - policy.marginNs);
-    const deadline = (marginCrossing?.earliestTtJ2000S ?? crossing.earliestTtJ2000S) - policy.leadTimeS;
+    const marginCrossing = policy.marginNs > 0 ? crossingAfter(since, L - policy.marginNs, true) : null;
+    const deadline = Math.min(marginCrossing?.earliestTtJ2000S ?? Infinity, crossing.earliestTtJ2000S) - policy.leadTimeS;
     let chosen: Contact | undefined;
     let chosenIndex = -1;
     if (outsideNow) {
@@ -206,9 +250,13 @@ export function planResets(req: ResetRequest): SatelliteResetPlan {
     const before = planned.offsetNs(t);
     const rate = planned.meanRate(t, req.periodS, from, to);
     const agingPerS2 = req.clock.params === null ? 0 : req.clock.params.agingPerDay / 86400;
-    const band = L - policy.marginNs;
+    // Leave room for the orbit's periodic swing, so the step does not land the clock on the limit.
+    const band = Math.max(0, L - policy.marginNs - PERIODIC_ALLOWANCE * periodicNs - PERIODIC_ALLOWANCE_NS);
+    // The step moves the trend (the offset averaged over one orbit) to the chosen value; the
+    // periodic swing then stays inside the band around it.
+    const trend = planned.meanOffsetNs(t, req.periodS, from, to);
     const target = bestPhaseNs(rate * 1e9, agingPerS2 * 1e9, band);
-    const phaseStepNs = target - before;
+    const phaseStepNs = target - trend;
     const frequencyStep = -rate;
     const kind = policy.prefer;
     const step: Step = kind === 'phase' ? { atTtJ2000S: t, phaseNs: phaseStepNs, fractional: 0 } : { atTtJ2000S: t, phaseNs: 0, fractional: frequencyStep };

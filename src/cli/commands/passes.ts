@@ -1,0 +1,36 @@
+/** `tauplan passes SCENARIO [--from --to --sat --station]`. */
+import type { Argv } from 'yargs';
+import { planPasses } from '../../plan/passes.ts';
+import { passesToCsv, passesToJson, passesToText } from '../../report/passesReport.ts';
+import type { TimeSystem } from '../../time/timeSystem.ts';
+import type { Rendered } from '../emit.ts';
+import { loadScenarioContext } from '../scenarioContext.ts';
+
+export function passesOptions<T>(y: Argv<T>) {
+  return y
+    .positional('scenario', { type: 'string', demandOption: true, describe: 'scenario file (JSON or YAML)' })
+    .option('from', { type: 'string', describe: 'window start (default: scenario window)' })
+    .option('to', { type: 'string', describe: 'window end (default: scenario window)' })
+    .option('sat', { type: 'string', describe: 'only these satellites (comma-separated ids or names)' })
+    .option('station', { type: 'string', describe: 'only these stations (comma-separated ids)' });
+}
+
+export interface PassesArgs {
+  scenario: string;
+  from?: string;
+  to?: string;
+  sat?: string;
+  station?: string;
+}
+
+export function runPasses(a: PassesArgs, ts: TimeSystem, html?: (ctx: unknown) => string): Rendered {
+  const ctx = loadScenarioContext(a.scenario, ts, a);
+  const plan = planPasses(ctx.runs, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
+  const meta = { scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, gravity: ctx.gravity.name };
+  return {
+    json: () => passesToJson(plan.rows, meta, ts),
+    csv: () => passesToCsv(plan.rows, ts),
+    text: () => passesToText(plan.rows, meta, ts),
+    ...(html === undefined ? {} : { html: () => html({ ctx, plan }) }),
+  };
+}

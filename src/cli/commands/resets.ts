@@ -1,0 +1,72 @@
+/** `tauplan resets SCENARIO [--horizon 180d]`. */
+import type { Argv } from 'yargs';
+import { InputError } from '../../errors.ts';
+import { planPasses } from '../../plan/passes.ts';
+import { planResets, type SatelliteResetPlan } from '../../plan/resets.ts';
+import { resetsToCsv, resetsToJson, resetsToText, type ResetsMeta } from '../../report/resetsReport.ts';
+import { parsePositiveDurationS } from '../../time/duration.ts';
+import type { TimeSystem } from '../../time/timeSystem.ts';
+import type { Rendered } from '../emit.ts';
+import { loadScenarioContext, type ScenarioContext } from '../scenarioContext.ts';
+
+export function resetsOptions<T>(y: Argv<T>) {
+  return y
+    .positional('scenario', { type: 'string', demandOption: true, describe: 'scenario file (JSON or YAML)' })
+    .option('horizon', { type: 'string', describe: 'how far ahead to plan (default: policy.horizon, else 180d)' })
+    .option('from', { type: 'string', describe: 'plan start (default: scenario window start)' })
+    .option('sat', { type: 'string', describe: 'only these satellites (comma-separated)' })
+    .option('station', { type: 'string', describe: 'only contacts with these stations (comma-separated)' });
+}
+
+export interface ResetsArgs {
+  scenario: string;
+  horizon?: string;
+  from?: string;
+  sat?: string;
+  station?: string;
+}
+
+export interface ResetsOutcome {
+  ctx: ScenarioContext;
+  plans: SatelliteResetPlan[];
+  meta: ResetsMeta;
+}
+
+export function computeResets(a: ResetsArgs, ts: TimeSystem): ResetsOutcome {
+  const horizonS = a.horizon === undefined ? undefined : parsePositiveDurationS(a.horizon, '--horizon');
+  // The scenario's own horizon applies when --horizon is absent; load once to read it.
+  const ctx0 = loadScenarioContext(a.scenario, ts, { ...a, horizonS: horizonS ?? 1 });
+  const h = horizonS ?? ctx0.scenario.policy.horizonS;
+  const ctx = horizonS === undefined && h !== 1 ? loadScenarioContext(a.scenario, ts, { ...a, horizonS: h }) : ctx0;
+  const policy = ctx.scenario.policy;
+  const withLimit = ctx.runs.filter((r) => r.keepInNs !== null);
+  if (withLimit.length === 0) throw new InputError('no satellite has a keep-in limit', `${a.scenario} satellites[].clock.keepInNs`, 'give clock.keepInNs for the satellites to plan');
+  const passes = planPasses(withLimit, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
+  const minPass = new Map(ctx.stations.map((s) => [s.id, s.minPassS]));
+  const plans = withLimit.map((run) =>
+    planResets({
+      satellite: run.id,
+      clock: run.clock,
+      limitNs: run.keepInNs as number,
+      noise: run.clock.params?.noise ?? null,
+      policy: { marginNs: policy.marginNs, leadTimeS: policy.leadTimeS ?? 0, prefer: policy.prefer },
+      fromTtJ2000S: ctx.fromTtJ2000S,
+      toTtJ2000S: ctx.toTtJ2000S,
+      periodS: Number.isFinite(run.orbit.periodS) ? run.orbit.periodS : 86400,
+      contacts: passes.rows
+        .filter((p) => p.satelliteId === run.id && p.durationS >= (minPass.get(p.stationId) ?? 0))
+        .map((p) => ({ station: p.stationId, aosTtJ2000S: p.aosTtJ2000S, tcaTtJ2000S: p.tcaTtJ2000S, losTtJ2000S: p.losTtJ2000S })),
+    }),
+  );
+  const meta: ResetsMeta = { scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, marginNs: policy.marginNs, leadTimeS: policy.leadTimeS ?? 0, prefer: policy.prefer };
+  return { ctx, plans, meta };
+}
+
+export function runResets(a: ResetsArgs, ts: TimeSystem): Rendered {
+  const { plans, meta } = computeResets(a, ts);
+  return {
+    json: () => resetsToJson(plans, meta, ts),
+    csv: () => resetsToCsv(plans, ts),
+    text: () => resetsToText(plans, meta, ts),
+  };
+}

@@ -1,0 +1,103 @@
+/**
+ * Loading a scenario for the planning commands: satellites with their trajectories and clocks,
+ * stations, the window, and the Earth-rotation function. This is the edge (it reads files).
+ */
+import { gravityModel, type GravityModel } from '../clock/gravity.ts';
+import type { OscillatorParams } from '../clock/oscillator.ts';
+import { InputError, SpanError } from '../errors.ts';
+import type { GmstRadAt } from '../events/passes.ts';
+import type { Station } from '../events/station.ts';
+import { loadScenario } from '../io/loadScenario.ts';
+import { trajectoryForSatellite } from '../io/orbitSources.ts';
+import type { ClockSpec, SatelliteSpec, ScenarioSpec } from '../io/scenario.ts';
+import { gmstRadAtTt } from '../orbit/sp3.ts';
+import type { Trajectory } from '../orbit/trajectory.ts';
+import { prepareSatelliteClock, type SatelliteClockRun } from '../plan/satelliteClock.ts';
+import { Instant } from '../time/instant.ts';
+import type { TimeSystem } from '../time/timeSystem.ts';
+
+export interface ScenarioContext {
+  scenario: ScenarioSpec;
+  ts: TimeSystem;
+  gravity: GravityModel;
+  fromTtJ2000S: number;
+  toTtJ2000S: number;
+  runs: SatelliteClockRun[];
+  stations: Station[];
+  gmstRadAt: GmstRadAt;
+  /** Satellite specs in the same order as runs. */
+  satellites: SatelliteSpec[];
+}
+
+export interface ScenarioSelection {
+  from?: string;
+  to?: string;
+  /** Comma-separated satellite ids or names. */
+  sat?: string;
+  /** Comma-separated station ids. */
+  station?: string;
+  /** Overrides the window end as start + horizon [s]. */
+  horizonS?: number;
+}
+
+/** Oscillator parameters from a scenario clock block. */
+export function oscillatorParams(c: ClockSpec | null): OscillatorParams | null {
+  if (c === null) return null;
+  return {
+    epochTtJ2000S: c.epoch.ttJ2000S,
+    offsetNs: c.offsetNs,
+    hardwareFractionalOffset: c.hardwareFractionalOffset,
+    agingPerDay: c.agingPerDay,
+    noise: c.noise,
+    ...(c.keepInNs === null ? {} : { keepInNs: c.keepInNs }),
+  };
+}
+
+function pick<T>(items: T[], wanted: string | undefined, keyOf: (t: T) => string[], flag: string, what: string): T[] {
+  if (wanted === undefined) return items;
+  const names = wanted.split(',').map((s) => s.trim()).filter((s) => s.length > 0);
+  const out: T[] = [];
+  for (const n of names) {
+    const found = items.find((t) => keyOf(t).includes(n));
+    if (found === undefined) {
+      const known = items.slice(0, 8).map((t) => keyOf(t)[0]).join(', ');
+      throw new InputError(`no ${what} ${JSON.stringify(n)} in the scenario`, flag, `use one of ${known}`);
+    }
+    if (!out.includes(found)) out.push(found);
+  }
+  return out;
+}
+
+/** Refuse a window outside the trajectory's span, naming the span. */
+export function checkWindowInSpan(traj: Trajectory, from: number, to: number, ts: TimeSystem, satPath: string): void {
+  const f = (t: number): string => ts.format(Instant.fromTtJ2000S(t));
+  if (from < traj.validFromTtJ2000S - 1e-3 || to > traj.validToTtJ2000S + 1e-3) {
+    throw new SpanError(
+      `window ${f(from)} to ${f(to)} goes beyond ${traj.id}'s orbit source span ${f(traj.validFromTtJ2000S)} to ${f(traj.validToTtJ2000S)}`,
+      satPath,
+      f(traj.validFromTtJ2000S),
+      f(traj.validToTtJ2000S),
+      'shorten the window (--from/--to or window:) to the source span',
+    );
+  }
+}
+
+export function loadScenarioContext(path: string, ts: TimeSystem, sel: ScenarioSelection): ScenarioContext {
+  const scenario = loadScenario(path, ts);
+  const gravity = gravityModel(scenario.gravity, `${path} gravity`);
+  const from = sel.from === undefined ? scenario.window.start.ttJ2000S : ts.parse(sel.from, '--from').ttJ2000S;
+  let to = sel.to === undefined ? scenario.window.end.ttJ2000S : ts.parse(sel.to, '--to').ttJ2000S;
+  if (sel.horizonS !== undefined) to = from + sel.horizonS;
+  if (!(to > from)) throw new InputError('the window ends before it starts', sel.to !== undefined ? '--to' : sel.from !== undefined ? '--from' : `${path} window`, 'give an end after the start');
+  const satellites = pick(scenario.satellites, sel.sat, (s) => [s.id, ...(s.name === null ? [] : [s.name])], '--sat', 'satellite');
+  const stationSpecs = pick(scenario.stations, sel.station, (s) => [s.id], '--station', 'station');
+  const runs = satellites.map((sat) => {
+    const resolved = trajectoryForSatellite(sat, scenario, ts, gravity, { fromTtJ2000S: from, toTtJ2000S: to });
+    checkWindowInSpan(resolved.trajectory, from, to, ts, `${path} ${sat.path}`);
+    const params = oscillatorParams(sat.clock);
+    if (params !== null) checkWindowInSpan(resolved.trajectory, Math.min(from, params.epochTtJ2000S), Math.max(to, params.epochTtJ2000S), ts, `${path} ${sat.path}.clock.epoch`);
+    return prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, params, from, to);
+  });
+  const stations: Station[] = stationSpecs.map((s) => ({ id: s.id, latDeg: s.latDeg, lonDeg: s.lonDeg, heightM: s.heightM, geoidHeightM: s.geoidHeightM, maskDeg: s.maskDeg, minPassS: s.minPassS }));
+  return { scenario, ts, gravity, fromTtJ2000S: from, toTtJ2000S: to, runs, stations, gmstRadAt: (t) => gmstRadAtTt(ts, t), satellites };
+}

@@ -1,0 +1,397 @@
+/**
+ * Pass finding: when a satellite is above a station's elevation mask.
+ *
+ * Frames and time: the trajectory's inertial states (TEME or TOD) are turned earth-fixed with the
+ * caller's sidereal angle `gmstRadAt(ttJ2000S)` (GMST of UTC-as-UT1, see src/orbit/frames.ts). A TOD
+ * state is treated as TEME: the two differ by the equation of the equinoxes (< 1.2", about 40 m at
+ * GNSS range and 4 m at LEO range), which moves AOS/LOS by well under 0.1 s; we accept that.
+ * Elevations are geometric (no refraction) above the geodetic horizon. Times are seconds since
+ * J2000.0 TT.
+ *
+ * Method:
+ * 1. A coarse grid with step h = clamp(min(minPassS / 2, τp / 4), 10 s, 600 s), where τp = r_p / v_p is
+ *    the time scale of perigee passage from the osculating state at the window start (vis-viva).
+ *    Each grid sample gives the elevation and the sign of its rate (from the earth-fixed velocity).
+ * 2. In every grid bin where the elevation rate changes sign from + to −, the maximum is located
+ *    by a root finder on the (smooth) rate numerator; where it changes − to + and both ends are
+ *    above the mask, the minimum is located too. This catches passes shorter than h (the rate
+ *    turns inside the bin even when both ends are below the mask) and dips that would merge two
+ *    passes. Any pass lasting ≥ minPassS also contains a grid point, since h ≤ minPassS / 2.
+ *    The remaining assumption — at most one elevation extremum per bin — holds because h is a
+ *    quarter of the fastest orbital time scale.
+ * 3. Between consecutive knots (grid points and located extrema) the elevation is monotonic, so a
+ *    sign change of (elevation − mask) holds exactly one AOS or LOS; it is refined to 1 ms.
+ * 4. TCA is the culmination: the highest located maximum in the pass (time of maximum elevation,
+ *    located to 1 ms through the elevation-rate root; close to, but not exactly, the time of minimum
+ *    range). A truncated pass may culminate at the window edge.
+ *
+ * Passes shorter than the station's `minPassS` are dropped, except truncated ones: their full length
+ * is unknown from inside the window, so they are kept whatever their in-window length and flagged
+ * (`truncated`). A planner that needs `minPassS` inside the window checks `durationS` itself.
+ * Every iteration is capped; hitting a cap throws InternalError.
+ */
+import { WGS84_GM_M3_PER_S2 } from '../constants.ts';
+import { InputError, InternalError } from '../errors.ts';
+import { temeToEcef } from '../orbit/frames.ts';
+import { allocStateBlock, checkSpan, type Trajectory } from '../orbit/trajectory.ts';
+import { vec3 } from '../orbit/vec.ts';
+import { elevationRad, elevationRateSignM4PerS, stationFrame, type StationFrame } from './lookAngles.ts';
+import { checkStation, type Station } from './station.ts';
+
+const DEG = Math.PI / 180;
+
+/** Sidereal angle [rad] at an instant given in seconds since J2000.0 TT (inertial → earth-fixed rotation). */
+export type GmstRadAt = (ttJ2000S: number) => number;
+
+/** One pass of a satellite over a station. Times in seconds since J2000.0 TT. */
+export interface Pass {
+  satelliteId: string;
+  stationId: string;
+  /** Acquisition: elevation rises through the mask, or the window start when `aosTruncated`. */
+  aosTtJ2000S: number;
+  /** Culmination (time of maximum elevation within the pass and window). */
+  tcaTtJ2000S: number;
+  /** Loss: elevation falls through the mask, or the window end when `losTruncated`. */
+  losTtJ2000S: number;
+  /** Maximum geometric elevation [deg] reached in the pass (within the window). */
+  maxElevationDeg: number;
+  /** losTtJ2000S − aosTtJ2000S [s]. */
+  durationS: number;
+  /** aosTruncated || losTruncated. */
+  truncated: boolean;
+  /** The pass was in progress at the window start. */
+  aosTruncated: boolean;
+  /** The pass was in progress at the window end. */
+  losTruncated: boolean;
+}
+
+export interface PassSearchOptions {
+  /** Override the coarse grid step [s] (> 0). Tests use it; the default sizing is described above. */
+  gridStepS?: number;
+}
+
+export interface PassSearchResult {
+  /** Passes sorted by AOS (then station id). */
+  passes: Pass[];
+  /** Number of trajectory states computed: grid samples plus refinement evaluations. */
+  statesEvaluated: number;
+  /** Coarse grid step used [s]. */
+  gridStepS: number;
+}
+
+/** Cap on root-finder iterations; 1 ms from a 600 s bracket needs about 20 bisections. */
+const ROOT_MAX_ITERATIONS = 200;
+/** Crossing and culmination times are located to this [s] (contract: AOS/LOS ≤ 0.01 s, TCA ≤ 0.1 s). */
+const TIME_TOLERANCE_S = 1e-3;
+/** Grid step bounds [s]. */
+const MIN_GRID_STEP_S = 10;
+const MAX_GRID_STEP_S = 600;
+/** Samples per bulk `sampleInto` call; bounds memory for long windows. */
+const CHUNK_SAMPLES = 4096;
+
+/**
+ * Root of `fn` on [a, b] where fa and fb have opposite signs (or one is zero): Illinois-weighted
+ * regula falsi, with a bisection whenever the bracket fails to halve within two steps. Works on
+ * offsets from `a` to keep precision when a is ~1e9 s. Returns a time within `tolS` of the root.
+ */
+export function bracketedRoot(fn: (t: number) => number, a: number, b: number, fa: number, fb: number, tolS: number, what: string): number {
+  if (fa === 0) return a;
+  if (fb === 0) return b;
+  if (Math.sign(fa) === Math.sign(fb)) throw new InternalError(`root of ${what} is not bracketed on [${a}, ${b}] (${fa}, ${fb})`, what);
+  let lo = 0;
+  let hi = b - a;
+  let flo = fa;
+  let fhi = fb;
+  // Illinois weights: halve the value kept at an end that did not move.
+  let side = 0;
+  let widthTwoAgo = hi - lo;
+  let widthOneAgo = hi - lo;
+  for (let k = 0; k < ROOT_MAX_ITERATIONS; k++) {
+    const width = hi - lo;
+    if (width <= tolS) return a + 0.5 * (lo + hi);
+    let x: number;
+    if (k >= 2 && width > 0.5 * widthTwoAgo) {
+      x = 0.5 * (lo + hi);
+      side = 0;
+    } else {
+      x = lo + (flo * (lo - hi)) / (fhi - flo);
+      // Stay strictly inside, at least a quarter tolerance from either end.
+      const margin = 0.25 * tolS;
+      if (!(x > lo + margin)) x = lo + margin;
+      if (!(x < hi - margin)) x = hi - margin;
+    }
+    widthTwoAgo = widthOneAgo;
+    widthOneAgo = width;
+    const fx = fn(a + x);
+    if (fx === 0) return a + x;
+    if (Math.sign(fx) === Math.sign(flo)) {
+      lo = x;
+      flo = fx;
+      if (side === -1) fhi *= 0.5;
+      side = -1;
+    } else {
+      hi = x;
+      fhi = fx;
+      if (side === 1) flo *= 0.5;
+      side = 1;
+    }
+  }
+  throw new InternalError(`root finder for ${what} hit its cap of ${ROOT_MAX_ITERATIONS} iterations on [${a}, ${b}]`, what);
+}
+
+/**
+ * Coarse grid step [s] for a trajectory: clamp(min(minPassS / 2, τp / 4), 10, 600), with
+ * τp = r_p / v_p from the osculating two-body orbit of `state` (position m, velocity m/s, inertial).
+ * For an unbound or degenerate state τp falls back to r / v at the state.
+ */
+export function passGridStepS(positionM: readonly number[], velocityMPerS: readonly number[], minPassS: number): number {
+  const r = Math.hypot(positionM[0], positionM[1], positionM[2]);
+  const v2 = velocityMPerS[0] ** 2 + velocityMPerS[1] ** 2 + velocityMPerS[2] ** 2;
+  const gm = WGS84_GM_M3_PER_S2;
+  const energy = v2 / 2 - gm / r;
+  let timeScaleS = r / Math.sqrt(Math.max(v2, 1e-6));
+  if (energy < 0) {
+    const aM = -gm / (2 * energy);
+    const hx = positionM[1] * velocityMPerS[2] - positionM[2] * velocityMPerS[1];
+    const hy = positionM[2] * velocityMPerS[0] - positionM[0] * velocityMPerS[2];
+    const hz = positionM[0] * velocityMPerS[1] - positionM[1] * velocityMPerS[0];
+    const h2 = hx * hx + hy * hy + hz * hz;
+    const e = Math.sqrt(Math.max(0, 1 - h2 / (gm * aM)));
+    const rpM = aM * (1 - e);
+    const vp = Math.sqrt((gm * (1 + e)) / Math.max(rpM, 1));
+    timeScaleS = Math.min(timeScaleS, rpM / vp);
+  }
+  const wanted = Math.min(minPassS / 2, timeScaleS / 4);
+  return Math.min(MAX_GRID_STEP_S, Math.max(MIN_GRID_STEP_S, wanted));
+}
+
+/** Shared evaluation context: one trajectory, one Earth rotation, one counter. */
+class Evaluator {
+  statesEvaluated = 0;
+  constructor(
+    readonly traj: Trajectory,
+    readonly gmstRadAt: GmstRadAt,
+  ) {}
+  /** Earth-fixed position [m] and velocity [m/s] at t, into out[0..5]. */
+  ecefAt(t: number, out: Float64Array): void {
+    const s = this.traj.stateAt(t);
+    this.statesEvaluated++;
+    const { r, v } = temeToEcef(vec3<'TEME'>(s.positionM[0], s.positionM[1], s.positionM[2]), vec3<'TEME'>(s.velocityMPerS[0], s.velocityMPerS[1], s.velocityMPerS[2]), this.gmstRadAt(t));
+    out[0] = r[0];
+    out[1] = r[1];
+    out[2] = r[2];
+    out[3] = v[0];
+    out[4] = v[1];
+    out[5] = v[2];
+  }
+}
+
+/** Streaming scan of one station along the shared grid. */
+class StationScan {
+  readonly passes: Pass[] = [];
+  private readonly frame: StationFrame;
+  private readonly maskRad: number;
+  private readonly buf = new Float64Array(6);
+  private started = false;
+  private prevT = 0;
+  private prevF = 0;
+  private prevG = 0;
+  private inPass = false;
+  private aosT = 0;
+  private aosTruncated = false;
+  private bestF = -Infinity;
+  private bestT = 0;
+
+  constructor(
+    readonly station: Station,
+    private readonly ev: Evaluator,
+    private readonly satelliteId: string,
+  ) {
+    this.frame = stationFrame(station);
+    this.maskRad = station.maskDeg * DEG;
+  }
+
+  /** Elevation minus mask [rad] from an earth-fixed position. */
+  fOf(x: number, y: number, z: number): number {
+    return elevationRad(this.frame, x, y, z) - this.maskRad;
+  }
+  gOf(x: number, y: number, z: number, vx: number, vy: number, vz: number): number {
+    return elevationRateSignM4PerS(this.frame, x, y, z, vx, vy, vz);
+  }
+
+  private fAt = (t: number): number => {
+    this.ev.ecefAt(t, this.buf);
+    return this.fOf(this.buf[0], this.buf[1], this.buf[2]);
+  };
+  private gAt = (t: number): number => {
+    this.ev.ecefAt(t, this.buf);
+    const b = this.buf;
+    return this.gOf(b[0], b[1], b[2], b[3], b[4], b[5]);
+  };
+
+  /** Feed the next grid sample: time, elevation − mask [rad], elevation-rate sign quantity. */
+  push(t: number, f: number, g: number): void {
+    if (!this.started) {
+      this.started = true;
+      if (f > 0) this.open(t, true);
+      this.visit(t, f);
+      this.prevT = t;
+      this.prevF = f;
+      this.prevG = g;
+      return;
+    }
+    const t0 = this.prevT;
+    const f0 = this.prevF;
+    const g0 = this.prevG;
+    // Interior extremum: locate it so that each sub-interval is monotonic.
+    let hasKnot = false;
+    let tk = 0;
+    let fk = 0;
+    if ((g0 > 0 && g <= 0) || (g0 < 0 && g >= 0 && f0 > 0 && f > 0)) {
+      tk = bracketedRoot(this.gAt, t0, t, g0, g, TIME_TOLERANCE_S, `elevation rate for station ${this.station.id}`);
+      fk = this.fAt(tk);
+      hasKnot = true;
+    }
+    if (hasKnot) {
+      this.segment(t0, f0, tk, fk);
+      this.visit(tk, fk);
+      this.segment(tk, fk, t, f);
+    } else {
+      this.segment(t0, f0, t, f);
+    }
+    this.visit(t, f);
+    this.prevT = t;
+    this.prevF = f;
+    this.prevG = g;
+  }
+
+  /** Close a pass still open at the window end. */
+  finish(): void {
+    if (this.started && this.inPass) this.close(this.prevT, true);
+  }
+
+  /** Monotonic piece [ta, tb]: at most one mask crossing. */
+  private segment(ta: number, fa: number, tb: number, fb: number): void {
+    if (fa <= 0 && fb > 0) {
+      const t = bracketedRoot(this.fAt, ta, tb, fa, fb, TIME_TOLERANCE_S, `AOS for station ${this.station.id}`);
+      this.open(t, false);
+    } else if (fa > 0 && fb <= 0) {
+      const t = bracketedRoot(this.fAt, ta, tb, fa, fb, TIME_TOLERANCE_S, `LOS for station ${this.station.id}`);
+      this.close(t, false);
+    }
+  }
+
+  private visit(t: number, f: number): void {
+    if (this.inPass && f > this.bestF) {
+      this.bestF = f;
+      this.bestT = t;
+    }
+  }
+
+  private open(t: number, truncated: boolean): void {
+    this.inPass = true;
+    this.aosT = t;
+    this.aosTruncated = truncated;
+    this.bestF = -Infinity;
+    this.bestT = t;
+  }
+
+  private close(t: number, truncated: boolean): void {
+    this.inPass = false;
+    const durationS = t - this.aosT;
+    const anyTruncated = truncated || this.aosTruncated;
+    if (!anyTruncated && durationS < this.station.minPassS) return;
+    // A pass that only touches the mask has no knot above it: culminate at its AOS.
+    const tca = Number.isFinite(this.bestF) ? this.bestT : this.aosT;
+    const maxElevationDeg = Number.isFinite(this.bestF) ? (this.bestF + this.maskRad) / DEG : this.station.maskDeg;
+    this.passes.push({
+      satelliteId: this.satelliteId,
+      stationId: this.station.id,
+      aosTtJ2000S: this.aosT,
+      tcaTtJ2000S: tca,
+      losTtJ2000S: t,
+      maxElevationDeg,
+      durationS,
+      truncated: anyTruncated,
+      aosTruncated: this.aosTruncated,
+      losTruncated: truncated,
+    });
+  }
+}
+
+/**
+ * Passes of one trajectory over several stations in [fromTtJ2000S, toTtJ2000S], sharing one coarse
+ * sampling of the trajectory. The grid step is the smallest any station needs.
+ * Throws SpanError when the window leaves the trajectory's span, InputError for a bad window or station.
+ */
+export function findPassesMany(
+  traj: Trajectory,
+  stations: readonly Station[],
+  gmstRadAt: GmstRadAt,
+  fromTtJ2000S: number,
+  toTtJ2000S: number,
+  opts: PassSearchOptions = {},
+): PassSearchResult {
+  if (!Number.isFinite(fromTtJ2000S) || !Number.isFinite(toTtJ2000S) || toTtJ2000S < fromTtJ2000S) {
+    throw new InputError(`pass window [${fromTtJ2000S}, ${toTtJ2000S}] s TT is empty or not finite`, 'window', 'give an end time after the start time');
+  }
+  for (const s of stations) checkStation(s);
+  if (opts.gridStepS !== undefined && !(Number.isFinite(opts.gridStepS) && opts.gridStepS > 0)) {
+    throw new InputError(`grid step ${opts.gridStepS} s is not positive`, 'gridStepS', 'give a positive step in seconds, or leave it out');
+  }
+  checkSpan(traj, fromTtJ2000S);
+  checkSpan(traj, toTtJ2000S);
+  const ev = new Evaluator(traj, gmstRadAt);
+  if (stations.length === 0 || toTtJ2000S === fromTtJ2000S) return { passes: [], statesEvaluated: 0, gridStepS: opts.gridStepS ?? 0 };
+
+  let stepS = opts.gridStepS;
+  if (stepS === undefined) {
+    const s0 = traj.stateAt(fromTtJ2000S);
+    ev.statesEvaluated++;
+    const minPassS = Math.min(...stations.map((s) => s.minPassS));
+    stepS = passGridStepS(s0.positionM, s0.velocityMPerS, minPassS);
+  }
+
+  const scans = stations.map((s) => new StationScan(s, ev, traj.id));
+  const spanS = toTtJ2000S - fromTtJ2000S;
+  const intervals = Math.max(1, Math.ceil(spanS / stepS - 1e-9));
+  const total = intervals + 1;
+  const chunk = Math.min(CHUNK_SAMPLES, total);
+  const times = new Float64Array(chunk);
+  const block = allocStateBlock(chunk);
+  for (let start = 0; start < total; start += chunk) {
+    const n = Math.min(chunk, total - start);
+    const ts = n === chunk ? times : times.subarray(0, n);
+    for (let i = 0; i < n; i++) {
+      const k = start + i;
+      ts[i] = k === intervals ? toTtJ2000S : fromTtJ2000S + k * stepS;
+    }
+    traj.sampleInto(ts, block);
+    ev.statesEvaluated += n;
+    const p = block.positionM;
+    const v = block.velocityMPerS;
+    for (let i = 0; i < n; i++) {
+      const { r, v: ve } = temeToEcef(vec3<'TEME'>(p[3 * i], p[3 * i + 1], p[3 * i + 2]), vec3<'TEME'>(v[3 * i], v[3 * i + 1], v[3 * i + 2]), gmstRadAt(ts[i]));
+      for (const scan of scans) scan.push(ts[i], scan.fOf(r[0], r[1], r[2]), scan.gOf(r[0], r[1], r[2], ve[0], ve[1], ve[2]));
+    }
+  }
+  for (const scan of scans) scan.finish();
+  const passes = scans.flatMap((s) => s.passes);
+  passes.sort((a, b) => a.aosTtJ2000S - b.aosTtJ2000S || (a.stationId < b.stationId ? -1 : a.stationId > b.stationId ? 1 : 0));
+  return { passes, statesEvaluated: ev.statesEvaluated, gridStepS: stepS };
+}
+
+/**
+ * Passes of one trajectory over one station in [fromTtJ2000S, toTtJ2000S] (seconds since J2000.0 TT).
+ * See the module comment for the method and its guarantees.
+ */
+export function findPasses(
+  traj: Trajectory,
+  station: Station,
+  gmstRadAt: GmstRadAt,
+  fromTtJ2000S: number,
+  toTtJ2000S: number,
+  opts: PassSearchOptions = {},
+): PassSearchResult {
+  return findPassesMany(traj, [station], gmstRadAt, fromTtJ2000S, toTtJ2000S, opts);
+}

@@ -1,0 +1,65 @@
+/**
+ * Use case `passes` (the main job): every pass of every satellite over every station in the window,
+ * with where the onboard clock stands at AOS and LOS, the conventional periodic term and the
+ * one-way signal terms at TCA (contract `tauplan passes`; physics.md §4).
+ */
+import { conventionalPeriodicS } from '../clock/rate.ts';
+import { oneWayTerms } from '../events/oneWay.ts';
+import { findPassesMany, type GmstRadAt, type Pass } from '../events/passes.ts';
+import { geodeticToEcefM, type Station } from '../events/station.ts';
+import type { SatelliteClockRun } from './satelliteClock.ts';
+
+/** One pass with the clock along it. Times in seconds since J2000.0 TT. */
+export interface PassClockRow extends Pass {
+  satelliteName: string;
+  clockOffsetAtAosNs: number;
+  clockOffsetAtLosNs: number;
+  driftDuringPassNs: number;
+  clockOffsetAtTcaNs: number;
+  relativisticPeriodicAtTcaNs: number;
+  lightTimeAtTcaNs: number;
+  sagnacAtTcaNs: number;
+  shapiroAtTcaNs: number;
+  /** keepInNs − |offset| at LOS, or null without a keep-in limit. */
+  keepInMarginNs: number | null;
+}
+
+export interface PassPlan {
+  rows: PassClockRow[];
+  statesEvaluated: number;
+}
+
+/** Passes with the clock along them, sorted by AOS then satellite then station. */
+export function planPasses(runs: readonly SatelliteClockRun[], stations: readonly Station[], gmstRadAt: GmstRadAt, fromTtJ2000S: number, toTtJ2000S: number): PassPlan {
+  const rows: PassClockRow[] = [];
+  let statesEvaluated = 0;
+  const stationEcef = new Map(stations.map((s) => [s.id, geodeticToEcefM(s.latDeg, s.lonDeg, s.heightM)]));
+  for (const run of runs) {
+    const found = findPassesMany(run.trajectory, stations, gmstRadAt, fromTtJ2000S, toTtJ2000S);
+    statesEvaluated += found.statesEvaluated;
+    for (const p of found.passes) {
+      const atAos = run.clock.offsetNs(p.aosTtJ2000S);
+      const atLos = run.clock.offsetNs(p.losTtJ2000S);
+      const s = run.trajectory.stateAt(p.tcaTtJ2000S);
+      const r = s.positionM;
+      const v = s.velocityMPerS;
+      const oneWay = oneWayTerms(run.trajectory, stationEcef.get(p.stationId)!, gmstRadAt, p.tcaTtJ2000S);
+      rows.push({
+        ...p,
+        satelliteId: run.id,
+        satelliteName: run.name,
+        clockOffsetAtAosNs: atAos,
+        clockOffsetAtLosNs: atLos,
+        driftDuringPassNs: atLos - atAos,
+        clockOffsetAtTcaNs: run.clock.offsetNs(p.tcaTtJ2000S),
+        relativisticPeriodicAtTcaNs: conventionalPeriodicS(r[0], r[1], r[2], v[0], v[1], v[2]) * 1e9,
+        lightTimeAtTcaNs: oneWay.lightTimeNs,
+        sagnacAtTcaNs: oneWay.sagnacNs,
+        shapiroAtTcaNs: oneWay.shapiroNs,
+        keepInMarginNs: run.keepInNs === null ? null : run.keepInNs - Math.abs(atLos),
+      });
+    }
+  }
+  rows.sort((a, b) => a.aosTtJ2000S - b.aosTtJ2000S || a.satelliteId.localeCompare(b.satelliteId) || a.stationId.localeCompare(b.stationId));
+  return { rows, statesEvaluated };
+}
