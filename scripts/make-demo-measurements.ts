@@ -6,11 +6,13 @@
  * unsigned 32-bit integer, and Box–Muller for Gaussian deviates. The same options always give
  * the same file, on every platform (only 32-bit integer arithmetic and IEEE doubles).
  *
- * Run: `node --import tsx scripts/make-demo-measurements.ts OUT.csv` writes the demo file with
- * the parameters of demoOptions() and prints its provenance on stderr.
+ * Run: `node --import tsx scripts/make-demo-measurements.ts [OUT.csv]` writes the demo file
+ * (data/demo/tsr1-offsets.csv by default) from the demo scenario's TSR-1 clock and prints its
+ * provenance on stderr. simulateMeasurements() with demoOptions() serves the fit tests.
  */
 import { writeFileSync } from 'node:fs';
-import { pathToFileURL } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { loadScenarioContext } from '../src/cli/scenarioContext.ts';
 import { defaultTimeSystem } from '../src/io/tables.ts';
 import { Instant } from '../src/time/instant.ts';
 import type { TimeSystem } from '../src/time/timeSystem.ts';
@@ -109,14 +111,28 @@ export const demoOptions = (timeSystem: TimeSystem): SimulationOptions => ({
   outlierNs: 15,
 });
 
-if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
-  const out = process.argv[2];
-  if (out === undefined) {
-    process.stderr.write('usage: node --import tsx scripts/make-demo-measurements.ts OUT.csv\n');
-    process.exit(2);
+/**
+ * The demo file: the invented scenario's TSR-1 clock (oscillator model plus relativity along its
+ * SGP4 orbit, as tauplan predicts it) sampled every 5 min for one day, plus seeded white noise of
+ * 0.8 ns (seed 20270104) and one 15 ns outlier at data row 137. Invented, not measured.
+ */
+export function demoMeasurementsFromScenario(timeSystem: TimeSystem, scenarioPath: string): string {
+  const ctx = loadScenarioContext(scenarioPath, timeSystem, { sat: 'TSR-1', from: '2027-01-04T00:00:00Z', to: '2027-01-05T00:00:00Z' });
+  const run = ctx.runs[0];
+  const normal = gaussian(mulberry32(20270104));
+  const lines = ['time,offsetNs'];
+  for (let k = 0; k < 288; k++) {
+    const t = ctx.fromTtJ2000S + 300 * k;
+    const x = run.clock.offsetNs(t) + 0.8 * normal() + (k === 137 ? 15 : 0);
+    lines.push(`${timeSystem.format(Instant.fromTtJ2000S(t))},${x.toPrecision(15)}`);
   }
+  return `${lines.join('\n')}\n`;
+}
+
+if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) {
   const timeSystem = defaultTimeSystem();
-  const options = demoOptions(timeSystem);
-  writeFileSync(out, simulateMeasurements(options, timeSystem));
-  process.stderr.write(`wrote ${out}: SIMULATED data (invented clock, seeded noise), options ${JSON.stringify(options)}\n`);
+  const scenario = fileURLToPath(new URL('../data/demo/tessera.yaml', import.meta.url));
+  const out = process.argv[2] ?? fileURLToPath(new URL('../data/demo/tsr1-offsets.csv', import.meta.url));
+  writeFileSync(out, demoMeasurementsFromScenario(timeSystem, scenario));
+  process.stderr.write(`wrote ${out}: SIMULATED offsets of the invented TSR-1 clock (scenario model + 0.8 ns white noise, seed 20270104, one 15 ns outlier)\n`);
 }

@@ -9,6 +9,12 @@ import { removePendingTemps } from '../io/output.ts';
 import { emit, OUTPUT_FORMATS, type OutputFormat } from './emit.ts';
 import { runTime } from './commands/time.ts';
 import { runSize, sizeOptions } from './commands/size.ts';
+import { runSizeAll } from './commands/sizeAll.ts';
+import { mergeOptions, runMerge } from './commands/merge.ts';
+import { passesOptions, runPasses } from './commands/passes.ts';
+import { resetsOptions, runResets } from './commands/resets.ts';
+import { demoOptions, runDemo } from './commands/demo.ts';
+import { compareOptions, fitOptions, runCompare, runFit, runSweep, runTrack, sweepOptions, trackOptions } from './commands/analysis.ts';
 
 export const EXIT_OK = 0;
 export const EXIT_INTERNAL = 1;
@@ -37,10 +43,70 @@ function parser(args: string[]) {
       'size',
       'Size the factory frequency offset for an orbit',
       (y) => sizeOptions(common(y)),
-      async (a) => emit(await runSize(a, ts), a.format, a.out, 'size'),
+      async (a) => {
+        if (a.all === true) await runSizeAll(a, ts);
+        else if ((a.format as string) === 'jsonl') throw new InputError('jsonl output is for catalogue runs', '--format', 'add --all (with --tle or --omm), or use text, json or csv');
+        else emit(await runSize(a, ts), a.format, a.out, 'size');
+      },
+    )
+    .command(
+      'merge <files..>',
+      'Join shard outputs of size --all (CSV or JSON Lines) back into file order',
+      (y) => mergeOptions(y),
+      (a) => runMerge(a.files as string[], a.out, a.quiet),
+    )
+    .command(
+      'passes <scenario>',
+      'Passes over the stations with each onboard clock offset at AOS and LOS',
+      (y) => passesOptions(common(y)),
+      (a) => emit(runPasses(a, ts), a.format, a.out, 'passes'),
+    )
+    .command(
+      'resets <scenario>',
+      'When each clock leaves its keep-in limit, and the pass to adjust it in',
+      (y) => resetsOptions(common(y)),
+      (a) => emit(runResets(a, ts), a.format, a.out, 'resets'),
+    )
+    .command(
+      'fit <measurements>',
+      'Fit offset, rate and drift to measured clock offsets, with stability',
+      (y) => fitOptions(common(y)),
+      (a) => emit(runFit(a, ts), a.format, a.out, 'fit'),
+    )
+    .command(
+      'compare <scenario>',
+      'Compare satellite and station clocks over one window',
+      (y) => compareOptions(common(y)),
+      (a) => emit(runCompare(a, ts), a.format, a.out, 'compare'),
+    )
+    .command(
+      'sweep',
+      'Mean clock rate and its split against altitude, with the break-even altitude',
+      (y) => sweepOptions(common(y)),
+      (a) => emit(runSweep(a, ts), a.format, a.out, 'sweep'),
+    )
+    .command(
+      'track [scenario]',
+      'Sampled states and the clock along them for one satellite',
+      (y) => trackOptions(common(y)),
+      (a) => emit(runTrack(a, ts), a.format, a.out, 'track'),
+    )
+    .command(
+      'demo',
+      'Run the whole job on the embedded invented scenario and write the report',
+      (y) => demoOptions(y),
+      (a) => runDemo(a, ts),
     )
     .example('tauplan time 2027-01-01T00:00:00Z', 'one instant in every scale')
     .example('tauplan size --a-km 26561.75 --i-deg 55 --gravity point --format json', 'GPS-like sizing')
+    .example('tauplan size --tle cat.tle --all --format csv --out all.csv', 'every satellite of a catalogue')
+    .example('tauplan merge s1.csv s2.csv --out all.csv', 'join --shard outputs in file order')
+    .example('tauplan passes data/demo/tessera.yaml --station BRINDLEMOOR', 'pass schedule with clock offsets')
+    .example('tauplan resets data/demo/tessera.yaml --horizon 28d', 'keep-in adjustment plan')
+    .example('tauplan fit offsets.csv --degree 2', 'clock parameters and stability from measurements')
+    .example('tauplan compare data/demo/tessera.yaml', 'satellite and station clocks side by side')
+    .example('tauplan sweep --from-km 300 --to-km 40000', 'rate against altitude, break-even')
+    .example('tauplan track data/demo/tessera.yaml --sat TSR-1 --frame ECEF', 'states and clock for other tools')
     .demandCommand(1, 'give a command: time, size, passes, resets, fit, compare, sweep, track, demo')
     .recommendCommands()
     .strict()

@@ -104,7 +104,7 @@ export function parseMeasurementsCsv(text: string, fileName: string, timeSystem:
     }
     const prev = rows[rows.length - 1];
     if (prev !== undefined && !(ttJ2000S > prev.ttJ2000S)) {
-      const what = ttJ2000S === prev.ttJ2000S ? `time ${timeText} repeats the time of line ${prev.line}` : `time ${timeText} is earlier than ${prev.timeText} on line ${prev.line}`;
+      const what = ttJ2000S === prev.ttJ2000S ? `time ${JSON.stringify(timeText)} repeats the time of line ${prev.line}` : `time ${JSON.stringify(timeText)} is earlier than ${JSON.stringify(prev.timeText)} on line ${prev.line}`;
       throw new InputError(what, where, 'sort the rows by time and keep one measurement per instant');
     }
     rows.push({ line, ttJ2000S, timeText, offsetNs, sigmaNs });

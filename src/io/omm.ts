@@ -100,7 +100,7 @@ function parseJson(text: string, fileName: string): OmmRecord[] {
   try {
     data = JSON.parse(text);
   } catch (e) {
-    throw new InputError(`OMM JSON cannot be read: ${(e as Error).message}`, fileName, 'check the JSON syntax (quotes, commas, brackets)');
+    throw new InputError(`OMM JSON cannot be read: ${oneLine((e as Error).message)}`, fileName, 'check the JSON syntax (quotes, commas, brackets)');
   }
   const list = Array.isArray(data) ? data : [data];
   if (list.length === 0) throw new InputError('OMM JSON array is empty', fileName, 'give at least one OMM object');
@@ -117,7 +117,7 @@ function parseKvn(text: string, fileName: string): OmmRecord[] {
     if (line === '' || line.startsWith('COMMENT')) continue;
     const m = /^([A-Z][A-Z0-9_]*)\s*=\s*(.*?)\s*(\[[^\]]*\])?\s*$/.exec(line);
     if (m === null) {
-      throw new OrbitFileError(`cannot read OMM line "${line.slice(0, 40)}"`, fileName, lineNo, 1, 'KVN lines are "KEYWORD = value" (an optional [unit] after the value), COMMENT lines or blank');
+      throw new OrbitFileError(`cannot read OMM line ${JSON.stringify(line.slice(0, 40))}`, fileName, lineNo, 1, 'KVN lines are "KEYWORD = value" (an optional [unit] after the value), COMMENT lines or blank');
     }
     const key = m[1];
     const value = m[2];
@@ -138,13 +138,22 @@ function parseKvn(text: string, fileName: string): OmmRecord[] {
 }
 
 function parseXml(text: string, fileName: string): OmmRecord[] {
-  const valid = XMLValidator.validate(text);
-  if (valid !== true) {
-    throw new OrbitFileError(`OMM XML cannot be read: ${valid.err.msg}`, fileName, valid.err.line, valid.err.col, 'check the XML syntax (matching tags, quotes)');
+  const xmlFix = 'check the XML syntax (matching tags, quotes)';
+  let tree: unknown;
+  try {
+    const valid = XMLValidator.validate(text);
+    if (valid !== true) {
+      throw new OrbitFileError(`OMM XML cannot be read: ${oneLine(valid.err.msg)}`, fileName, valid.err.line ?? 1, valid.err.col ?? null, xmlFix);
+    }
+    // Keep every value as text so that digits are read exactly once, by us.
+    const parser = new XMLParser({ ignoreAttributes: true, parseTagValue: false, removeNSPrefix: true, trimValues: true });
+    tree = parser.parse(text) as unknown;
+  } catch (e) {
+    // The parser throws plain Errors for what the validator let through (unclosed <?...?>,
+    // reserved names such as __proto__, nesting or entity limits): all are faults of the file.
+    if (e instanceof InputError) throw e;
+    throw new InputError(`OMM XML cannot be read: ${oneLine(e instanceof Error ? e.message : String(e))}`, fileName, xmlFix);
   }
-  // Keep every value as text so that digits are read exactly once, by us.
-  const parser = new XMLParser({ ignoreAttributes: true, parseTagValue: false, removeNSPrefix: true, trimValues: true });
-  const tree = parser.parse(text) as unknown;
   const omms: unknown[] = [];
   findElements(tree, 'omm', omms);
   if (omms.length === 0) throw new InputError('no <omm> element in the XML file', fileName, 'give an NDM/XML OMM: <omm><body><segment><data><meanElements>...');
@@ -198,7 +207,7 @@ function ommFromKeywords(kw: Record<string, string>, at: Locate): OmmRecord {
   }
   const expectText = (key: string, allowed: string[], fix: string): void => {
     const v = kw[key];
-    if (v !== undefined && !allowed.includes(v.toUpperCase())) throw new InputError(`${key} is "${v}"`, at(key), fix);
+    if (v !== undefined && !allowed.includes(v.toUpperCase())) throw new InputError(`${key} is ${JSON.stringify(v)}`, at(key), fix);
   };
   expectText('MEAN_ELEMENT_THEORY', ['SGP4', 'SGP/SGP4'], 'only SGP4 mean elements can be propagated; use an OMM with MEAN_ELEMENT_THEORY = SGP4');
   expectText('REF_FRAME', ['TEME'], 'SGP4 mean elements are referred to TEME; use REF_FRAME = TEME');
@@ -213,7 +222,7 @@ function ommFromKeywords(kw: Record<string, string>, at: Locate): OmmRecord {
     }
     const x = Number(v);
     if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(v) || !Number.isFinite(x)) {
-      throw new InputError(`${key} "${v}" is not a number`, at(key), `write ${key} as a decimal number, e.g. ${keywordExample(key)}`);
+      throw new InputError(`${key} ${JSON.stringify(v)} is not a number`, at(key), `write ${key} as a decimal number, e.g. ${keywordExample(key)}`);
     }
     return x;
   };
@@ -265,7 +274,7 @@ function ommFromKeywords(kw: Record<string, string>, at: Locate): OmmRecord {
 export function parseOmmEpoch(text: string, where: string): CivilTime {
   const fix = 'write EPOCH in UTC as 2000-06-27T18:50:19.733568 (or day of year, 2000-179T18:50:19.733568)';
   const m = /^(\d{4})-(?:(\d{2})-(\d{2})|(\d{3}))T(\d{2}):(\d{2}):(\d{2}(?:\.\d+)?)Z?$/.exec(text.trim());
-  if (m === null) throw new InputError(`EPOCH "${text}" is not an ISO date and time`, where, fix);
+  if (m === null) throw new InputError(`EPOCH ${JSON.stringify(text)} is not an ISO date and time`, where, fix);
   const year = Number(m[1]);
   let month: number;
   let day: number;
@@ -282,9 +291,14 @@ export function parseOmmEpoch(text: string, where: string): CivilTime {
   const minute = Number(m[6]);
   const second = Number(m[7]);
   if (month < 1 || month > 12 || day < 1 || day > daysInMonth(year, month) || hour > 23 || minute > 59 || second >= 61) {
-    throw new InputError(`EPOCH "${text}" is not a valid date`, where, fix);
+    throw new InputError(`EPOCH ${JSON.stringify(text)} is not a valid date`, where, fix);
   }
   return { year, month, day, hour, minute, second };
+}
+
+/** A library message on one line (V8's JSON errors quote the text around the fault, newlines and all). */
+function oneLine(message: string): string {
+  return message.replace(/\s*[\r\n]+\s*/g, ' ');
 }
 
 function keywordHelp(key: string): string {

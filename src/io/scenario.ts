@@ -367,7 +367,16 @@ function readDocument(body: string, fileName: string): { data: unknown; lineOf: 
       first.code === 'DUPLICATE_KEY' ? 'give each key once in its mapping' : 'check indentation, colons, quotes and brackets on that line or the one before',
     );
   }
-  return { data: doc.toJS({ maxAliasCount: 1000 }), lineOf: lineOfDocument(doc, lineCounter) };
+  let data: unknown;
+  try {
+    data = doc.toJS({ maxAliasCount: 1000 });
+  } catch (err) {
+    // The yaml library throws a ReferenceError for an alias with no anchor before it and for an
+    // alias bomb (more than maxAliasCount expansions); both are faults of the file.
+    const message = (err as Error).message.split('\n')[0];
+    throw new ScenarioError(`YAML aliases cannot be expanded: ${message}`, fileName, 'define each anchor (&name) before its alias (*name), and do not nest aliases many levels deep');
+  }
+  return { data, lineOf: lineOfDocument(doc, lineCounter) };
 }
 
 function yamlLineOf(body: string): LineOf {
@@ -575,7 +584,7 @@ function issueError(issue: Issue, data: unknown, ctx: Context): ScenarioError {
       const near = nearest(key, known);
       return ctx.error(
         [...path, key],
-        `unknown key "${key}"`,
+        `unknown key ${JSON.stringify(key)}`,
         near !== null ? `did you mean "${near}"?` : `remove it; the keys allowed here are ${known.join(', ')}`,
       );
     }
@@ -717,7 +726,7 @@ function buildSpec(raw: RawScenario, ctx: Context): ScenarioSpec {
   const claimId = (id: string, path: PathSeg[]): void => {
     const previous = seenIds.get(id);
     if (previous !== undefined) {
-      throw ctx.error(path, `id "${id}" is already used by ${previous}`, 'give every satellite and station its own id (ids name clocks in compare and resets)');
+      throw ctx.error(path, `id ${JSON.stringify(id)} is already used by ${previous}`, 'give every satellite and station its own id (ids name clocks in compare and resets)');
     }
     seenIds.set(id, formatPath(path.slice(0, -1)));
   };

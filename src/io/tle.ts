@@ -156,7 +156,14 @@ export function parseTleFile(text: string, fileName: string): TleRecord[] {
     if (tab >= 0) {
       throw new OrbitFileError('tab character in an element set file', fileName, i + 1, tab + 1, 'replace tabs by spaces; TLE fields are fixed columns');
     }
-    lines.push(raw.replace(/\s+$/, ''));
+    const kept = raw.replace(/\s+$/, '');
+    // A stray CR or other control character would otherwise be echoed into a one-line message.
+    const ctrl = kept.search(/[\u0000-\u001f\u007f]/);
+    if (ctrl >= 0) {
+      const code = kept.charCodeAt(ctrl).toString(16).toUpperCase().padStart(4, '0');
+      throw new OrbitFileError(`control character U+${code} in an element set file`, fileName, i + 1, ctrl + 1, 'remove it; element set files are plain text lines ending in LF or CR LF');
+    }
+    lines.push(kept);
   }
   const records: TleRecord[] = [];
   let pendingName: { text: string; line: number } | null = null;

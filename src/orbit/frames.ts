@@ -11,7 +11,7 @@
  *   for earth-fixed positions) are neglected: fine for passes and look angles, documented in reports.
  * - SP3 files are earth-fixed: their velocities become inertial by `ecefToTeme`, which adds ω × r.
  */
-import { MakeTime, Rotation_EQJ_EQD } from 'astronomy-engine';
+import { e_tilt, MakeTime, Rotation_EQJ_EQD } from 'astronomy-engine';
 import { WGS84_OMEGA_RAD_PER_S } from '../constants.ts';
 import { vec3, type Vec3 } from './vec.ts';
 
@@ -81,4 +81,39 @@ export function applyMatrix<A extends 'GCRF' | 'TOD', B extends 'GCRF' | 'TOD'>(
     m[1][0] * v[0] + m[1][1] * v[1] + m[1][2] * v[2],
     m[2][0] * v[0] + m[2][1] * v[1] + m[2][2] * v[2],
   );
+}
+
+/**
+ * Equation of the equinoxes [rad] (GAST − GMST) at a UTC Julian date, from astronomy-engine's
+ * nutation (IAU 2000B). TEME's x axis is the mean equinox projected on the true equator, so
+ * r_TEME = Rz(EqEq)·r_TOD.
+ */
+export function equationOfEquinoxesRad(jdUtc: number): number {
+  const eeSecondsOfTime = e_tilt(MakeTime(jdUtc - JD_J2000)).ee;
+  return (eeSecondsOfTime * 15 * Math.PI) / (180 * 3600);
+}
+
+function rotZ<A extends 'TOD' | 'TEME', B extends 'TOD' | 'TEME'>(v: readonly number[], angleRad: number): Vec3<B> {
+  const c = Math.cos(angleRad);
+  const s = Math.sin(angleRad);
+  return vec3<B>(c * v[0] + s * v[1], -s * v[0] + c * v[1], v[2]) as Vec3<B> & { __from?: A };
+}
+
+/** True-of-date to TEME (same pole; rotation by the equation of the equinoxes). */
+export function todToTeme(r: Vec3<'TOD'>, eqEqRad: number): Vec3<'TEME'> {
+  return rotZ<'TOD', 'TEME'>(r, eqEqRad);
+}
+
+/** TEME to true-of-date. */
+export function temeToTod(r: Vec3<'TEME'>, eqEqRad: number): Vec3<'TOD'> {
+  return rotZ<'TEME', 'TOD'>(r, -eqEqRad);
+}
+
+/** Transpose of a rotation (its inverse). */
+export function transpose(m: Matrix3): Matrix3 {
+  return [
+    [m[0][0], m[1][0], m[2][0]],
+    [m[0][1], m[1][1], m[2][1]],
+    [m[0][2], m[1][2], m[2][2]],
+  ];
 }

@@ -98,14 +98,25 @@ interface Step {
   fractional: number;
 }
 
+/** Effect [ns] at t of phase and frequency steps applied at their instants. */
+function stepsEffectNs(steps: readonly Step[], t: number): number {
+  let x = 0;
+  for (const s of steps) if (t >= s.atTtJ2000S) x += s.phaseNs + 1e9 * s.fractional * (t - s.atTtJ2000S);
+  return x;
+}
+
+/** The offset [ns] of `clock` at t with a plan's adjustments applied (for plots and checks). */
+export function offsetWithAdjustmentsNs(clock: OnboardClock, adjustments: readonly Adjustment[], t: number): number {
+  const steps = adjustments.map((a) => ({ atTtJ2000S: a.atTtJ2000S, phaseNs: a.kind === 'phase' ? a.phaseStepNs : 0, fractional: a.kind === 'frequency' ? a.frequencyStep : 0 }));
+  return clock.offsetNs(t) + stepsEffectNs(steps, t);
+}
+
 /** The clock with the plan's steps applied. */
 class PlannedClock {
   readonly steps: Step[] = [];
   constructor(private readonly clock: OnboardClock) {}
   offsetNs(t: number): number {
-    let x = this.clock.offsetNs(t);
-    for (const s of this.steps) if (t >= s.atTtJ2000S) x += s.phaseNs + 1e9 * s.fractional * (t - s.atTtJ2000S);
-    return x;
+    return this.clock.offsetNs(t) + stepsEffectNs(this.steps, t);
   }
   /** Offset averaged over one orbit centred on t (Simpson, 64 intervals): the trend without the periodic swing. */
   meanOffsetNs(t: number, periodS: number, from: number, to: number): number {

@@ -141,7 +141,10 @@ export function fitToText(result: FitResult, timeSystem: TimeSystem): string {
     out.push(`  sigmas                 no sigmaNs column: unit weights, covariance scaled by the reduced χ²`);
     out.push(`                         (= residual variance ${chi} ns²)`);
   }
-  if (j.periodicRemoved) out.push('  periodic term          the relativistic periodic term was removed before fitting');
+  if (j.periodicRemoved) {
+    out.push('  periodic term          the relativistic periodic term along the orbit was removed before fitting,');
+    out.push('                         so y is the hardware offset plus the mean relativistic offset');
+  }
   out.push(`  clipping               ${j.clipSigma === null ? 'off' : `${j.clipSigma}σ, ${j.iterations} pass(es)`}`);
   out.push('');
   if (j.rejected.length === 0) {

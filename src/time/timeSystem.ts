@@ -20,6 +20,10 @@ export interface CivilTime {
 /** Seconds in a GPS week. IS-GPS-200. */
 export const GPS_WEEK_S = 604_800;
 const GPS_EPOCH_DAY = daysFromCivil(1980, 1, 6);
+/** Last year read: ISO 8601 four-digit years, which also keeps Instant's whole seconds exact (< 2^53 s). */
+const MAX_YEAR = 9999;
+/** Last GPS week that starts before MAX_YEAR ends. */
+const MAX_GPS_WEEK = Math.floor((daysFromCivil(MAX_YEAR + 1, 1, 1) - GPS_EPOCH_DAY) / 7) - 1;
 
 export class TimeSystem {
   constructor(readonly leap: LeapSecondTable) {}
@@ -90,6 +94,7 @@ export class TimeSystem {
   /** Instant from GPS week and seconds of week. */
   fromGpsWeek(week: number, secondsOfWeek: number, where = 'time'): Instant {
     if (!Number.isInteger(week) || week < 0) throw new TimeError(`GPS week ${week} is not a whole number ≥ 0`, where, 'give the full week count since 1980-01-06, e.g. 2451');
+    if (week > MAX_GPS_WEEK) throw new TimeError(`GPS week ${week} is after the year ${MAX_YEAR}`, where, `give a week up to ${MAX_GPS_WEEK} (the full week count since 1980-01-06, e.g. 2451)`);
     if (!(secondsOfWeek >= 0 && secondsOfWeek < GPS_WEEK_S)) throw new TimeError(`seconds of week ${secondsOfWeek} out of range`, where, 'use 0 ≤ seconds < 604800');
     const whole = Math.floor(secondsOfWeek);
     const t = instantFromLabel('GPS', GPS_EPOCH_DAY * 86400 + week * GPS_WEEK_S + whole, secondsOfWeek - whole);
@@ -130,15 +135,17 @@ export class TimeSystem {
    * - ISO 8601 `2027-03-01T00:00:00Z` (UTC) or `2027-03-01T00:00:00 GPS|TAI|TT|GST|BDT|UTC`;
    * - `GPSW 2451 345600.5` (GPS week and seconds of week);
    * - `MJD 61406.25` (UTC) or `MJD 61406.25 TT`.
-   * A time with neither `Z` nor a scale name is refused rather than guessed.
+   * A time with neither `Z` nor a scale name is refused rather than guessed. Parts are separated by
+   * spaces or tabs only: a time is one line, and a line break inside one is a mistake (and would
+   * break the one-line messages that quote it).
    */
   parse(text: string, where = 'time'): Instant {
     const s = text.trim();
-    let m = /^GPSW\s+(\d+)\s+(\d+(?:\.\d+)?)$/i.exec(s);
+    let m = /^GPSW[ \t]+(\d+)[ \t]+(\d+(?:\.\d+)?)$/i.exec(s);
     if (m !== null) return this.fromGpsWeek(Number(m[1]), Number(m[2]), where);
-    m = /^MJD\s+(-?\d+(?:\.\d+)?)(?:\s+([A-Za-z]+))?$/i.exec(s);
+    m = /^MJD[ \t]+(-?\d+(?:\.\d+)?)(?:[ \t]+([A-Za-z]+))?$/i.exec(s);
     if (m !== null) return this.fromMjd(Number(m[1]), scaleOf(m[2] ?? 'UTC', where), where);
-    m = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2}(?:\.\d{1,12})?))?)?(Z|\s+[A-Za-z]+)?$/.exec(s);
+    m = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2}(?:\.\d{1,12})?))?)?(Z|[ \t]+[A-Za-z]+)?$/.exec(s);
     if (m === null) {
       throw new TimeError(`cannot read time ${JSON.stringify(text)}`, where, 'write ISO 8601 like 2027-03-01T00:00:00Z, or "2027-03-01T00:00:00 GPS", "GPSW 2451 345600", "MJD 61406.5"');
     }
@@ -167,6 +174,8 @@ function scaleOf(name: string, where: string): TimeScale {
 }
 
 function checkCivil(c: CivilTime, where: string, allowLeap: boolean): void {
+  // An MJD can name any year; one past 9999 has no ISO 8601 form and no exact Instant.
+  if (c.year > MAX_YEAR) throw new TimeError(`year ${c.year} is after ${MAX_YEAR}`, where, `give a time before ${MAX_YEAR + 1}-01-01`);
   const ok =
     Number.isInteger(c.year) &&
     c.month >= 1 &&

@@ -5,6 +5,7 @@ import { passesToCsv, passesToJson, passesToText } from '../../report/passesRepo
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
 import { loadScenarioContext } from '../scenarioContext.ts';
+import { page, passesSections, windowMeta } from '../../report/htmlReport.ts';
 
 export function passesOptions<T>(y: Argv<T>) {
   return y
@@ -23,7 +24,7 @@ export interface PassesArgs {
   station?: string;
 }
 
-export function runPasses(a: PassesArgs, ts: TimeSystem, html?: (ctx: unknown) => string): Rendered {
+export function runPasses(a: PassesArgs, ts: TimeSystem): Rendered {
   const ctx = loadScenarioContext(a.scenario, ts, a);
   const plan = planPasses(ctx.runs, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
   const meta = { scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, gravity: ctx.gravity.name };
@@ -31,6 +32,7 @@ export function runPasses(a: PassesArgs, ts: TimeSystem, html?: (ctx: unknown) =
     json: () => passesToJson(plan.rows, meta, ts),
     csv: () => passesToCsv(plan.rows, ts),
     text: () => passesToText(plan.rows, meta, ts),
-    ...(html === undefined ? {} : { html: () => html({ ctx, plan }) }),
+    html: () =>
+      page('tauplan — passes and onboard clock offsets', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), passesSections(ts, ctx.runs, plan.rows, ctx.stations.map((s) => s.id), ctx.fromTtJ2000S, ctx.toTtJ2000S)),
   };
 }

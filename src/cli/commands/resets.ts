@@ -8,6 +8,8 @@ import { parsePositiveDurationS } from '../../time/duration.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
 import { loadScenarioContext, type ScenarioContext } from '../scenarioContext.ts';
+import { page, resetsSection, windowMeta } from '../../report/htmlReport.ts';
+import { PREDICTION_RULE_TEXT } from '../../clock/noise.ts';
 
 export function resetsOptions<T>(y: Argv<T>) {
   return y
@@ -63,8 +65,9 @@ export function computeResets(a: ResetsArgs, ts: TimeSystem): ResetsOutcome {
 }
 
 export function runResets(a: ResetsArgs, ts: TimeSystem): Rendered {
-  const { plans, meta } = computeResets(a, ts);
+  const { ctx, plans, meta } = computeResets(a, ts);
   return {
+    html: () => page('tauplan — keep-in adjustment plan', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), [resetsSection(ts, ctx.runs, plans, ctx.fromTtJ2000S, ctx.toTtJ2000S, PREDICTION_RULE_TEXT)]),
     json: () => resetsToJson(plans, meta, ts),
     csv: () => resetsToCsv(plans, ts),
     text: () => resetsToText(plans, meta, ts),

@@ -9,6 +9,7 @@ import { parsePositiveDurationS } from '../../time/duration.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
 import { Instant } from '../../time/instant.ts';
+import { page, sizeSection } from '../../report/htmlReport.ts';
 import { orbitFromFlags, orbitOptions, type OrbitFlags } from '../orbitArgs.ts';
 
 export function sizeOptions<T>(y: Argv<T>) {
@@ -16,7 +17,13 @@ export function sizeOptions<T>(y: Argv<T>) {
     .option('gravity', { type: 'string', default: 'zonal', describe: 'point | j2 | zonal' })
     .option('from', { type: 'string', describe: 'start of the span (default: the orbit epoch)' })
     .option('span', { type: 'string', default: '1d', describe: 'length of the span, e.g. 1d, 36h, P2D' })
-    .option('nominal-hz', { type: 'number', default: GNSS_NOMINAL_HZ, describe: 'nominal oscillator frequency [Hz]' });
+    .option('nominal-hz', { type: 'number', default: GNSS_NOMINAL_HZ, describe: 'nominal oscillator frequency [Hz]' })
+    // Catalogue runs (src/cli/commands/sizeAll.ts).
+    .option('all', { type: 'boolean', describe: 'size every satellite of the --tle/--omm file, one row each (csv, jsonl, json, text)' })
+    .option('jobs', { type: 'number', describe: 'with --all: worker threads (default: available cores; 1 = no worker)' })
+    .option('shard', { type: 'string', describe: 'with --all: K/N sizes element sets whose 0-based index i has i mod N = K-1' })
+    .option('strict', { type: 'boolean', describe: 'with --all: any satellite that cannot be sized fails the run (exit 2)' })
+    .option('format', { choices: ['jsonl'] });
 }
 
 export interface SizeArgs extends OrbitFlags {
@@ -51,5 +58,6 @@ export async function runSize(a: SizeArgs, ts: TimeSystem): Promise<Rendered> {
     json: () => sizeToJson(result, ts),
     text: () => sizeToText(result, ts),
     csv: () => sizeToCsv([result], ts),
+    html: () => page('tauplan — frequency-offset sizing', result.satellite, [{ label: 'span', value: `${result.spanS} s from ${ts.format(Instant.fromTtJ2000S(result.fromTtJ2000S))}` }], [sizeSection(result)]),
   };
 }

@@ -1,0 +1,228 @@
+/** `tauplan compare`, `tauplan sweep`, `tauplan track`, `tauplan fit`. */
+import type { Argv } from 'yargs';
+import { gravityModel } from '../../clock/gravity.ts';
+import { InputError } from '../../errors.ts';
+import { loadScenario, scenarioSatellite } from '../../io/loadScenario.ts';
+import { parseMeasurementsCsv } from '../../io/measurements.ts';
+import { readTextFile, trajectoryForSatellite } from '../../io/orbitSources.ts';
+import { NumericalTrajectory } from '../../orbit/numerical.ts';
+import { gmstRadAtTt } from '../../orbit/sp3.ts';
+import { compareClocks, type CompareSatellite } from '../../plan/compare.ts';
+import { fitClock } from '../../plan/fit.ts';
+import { prepareSatelliteClock } from '../../plan/satelliteClock.ts';
+import { lineFit } from '../../plan/size.ts';
+import { allocStateBlock } from '../../orbit/trajectory.ts';
+import { conventionalPeriodicS } from '../../clock/rate.ts';
+import { sweepAltitude } from '../../plan/sweep.ts';
+import { trackSatellite, TRACK_FRAMES, type TrackFrame } from '../../plan/track.ts';
+import { compareToCsv, compareToJson, compareToText, sweepToCsv, sweepToJson, sweepToText, trackToCsv, trackToJson, trackToText } from '../../report/analysisReports.ts';
+import { fitToCsv, fitToJson, fitToText } from '../../report/fitReport.ts';
+import { parsePositiveDurationS } from '../../time/duration.ts';
+import type { TimeSystem } from '../../time/timeSystem.ts';
+import type { Rendered } from '../emit.ts';
+import { compareSection, fitSection, page, sweepSection, windowMeta } from '../../report/htmlReport.ts';
+import { orbitFromFlags } from '../orbitArgs.ts';
+import { oscillatorParams } from '../scenarioContext.ts';
+
+// ---- compare ----------------------------------------------------------------------------------
+
+export function compareOptions<T>(y: Argv<T>) {
+  return y
+    .positional('scenario', { type: 'string', demandOption: true, describe: 'scenario file (JSON or YAML)' })
+    .option('from', { type: 'string', describe: 'window start (default: scenario window)' })
+    .option('to', { type: 'string', describe: 'window end (default: scenario window)' });
+}
+
+export function computeCompare(a: { scenario: string; from?: string; to?: string }, ts: TimeSystem) {
+  const scenario = loadScenario(a.scenario, ts);
+  const gravity = gravityModel(scenario.gravity, `${a.scenario} gravity`);
+  const from = a.from === undefined ? scenario.window.start.ttJ2000S : ts.parse(a.from, '--from').ttJ2000S;
+  const to = a.to === undefined ? scenario.window.end.ttJ2000S : ts.parse(a.to, '--to').ttJ2000S;
+  if (!(to > from)) throw new InputError('the window ends before it starts', a.to !== undefined ? '--to' : `${a.scenario} window`, 'give an end after the start');
+  const sats: CompareSatellite[] = scenario.satellites.map((sat) => {
+    const { trajectory } = trajectoryForSatellite(sat, scenario, ts, gravity, { fromTtJ2000S: from, toTtJ2000S: to });
+    const flightEnd = trajectory instanceof NumericalTrajectory ? trajectory.flightEndTtJ2000S : null;
+    return { id: sat.id, trajectory, flight: flightEnd === null ? null : { startTtJ2000S: trajectory.validFromTtJ2000S, endTtJ2000S: flightEnd } };
+  });
+  const stations = scenario.stations.map((s) => ({ ...s }));
+  const result = compareClocks(sats, stations, gravity, from, to);
+  return { result, meta: { scenario: scenario.name, gravity: gravity.name, fromTtJ2000S: from, toTtJ2000S: to } };
+}
+
+export function runCompare(a: { scenario: string; from?: string; to?: string }, ts: TimeSystem): Rendered {
+  const { result, meta } = computeCompare(a, ts);
+  return {
+    json: () => compareToJson(result, ts, meta),
+    csv: () => compareToCsv(result, ts),
+    text: () => compareToText(result, ts, meta),
+    html: () => page('tauplan — clock comparison', meta.scenario, windowMeta(ts, meta.fromTtJ2000S, meta.toTtJ2000S, 'TT'), [compareSection(result)]),
+  };
+}
+
+// ---- sweep ------------------------------------------------------------------------------------
+
+export function sweepOptions<T>(y: Argv<T>) {
+  return y
+    .option('from-km', { type: 'number', default: 300, describe: 'lowest altitude [km]' })
+    .option('to-km', { type: 'number', default: 40000, describe: 'highest altitude [km]' })
+    .option('points', { type: 'number', default: 200, describe: 'number of altitudes' })
+    .option('e', { type: 'number', default: 0, describe: 'eccentricity' })
+    .option('i-deg', { type: 'number', default: 0, describe: 'inclination [deg]' })
+    .option('gravity', { type: 'string', default: 'zonal', describe: 'point | j2 | zonal' })
+    .option('epoch', { type: 'string', default: '2027-01-01T00:00:00Z', describe: 'epoch of the orbits' });
+}
+
+export interface SweepArgs {
+  fromKm: number;
+  toKm: number;
+  points: number;
+  e: number;
+  iDeg: number;
+  gravity: string;
+  epoch: string;
+}
+
+export function computeSweep(a: SweepArgs, ts: TimeSystem) {
+  const gravity = gravityModel(a.gravity, '--gravity');
+  if (!(a.e >= 0 && a.e < 1)) throw new InputError(`eccentricity ${a.e} is not in [0, 1)`, '--e', 'give 0 ≤ e < 1');
+  if (!(a.iDeg >= 0 && a.iDeg <= 180)) throw new InputError(`inclination ${a.iDeg}° is not in [0, 180]`, '--i-deg', 'give 0–180');
+  const result = sweepAltitude({ fromKm: a.fromKm, toKm: a.toKm, points: a.points, e: a.e, iDeg: a.iDeg, gravity, epochTtJ2000S: ts.parse(a.epoch, '--epoch').ttJ2000S });
+  return { result, meta: { gravity: gravity.name, e: a.e, iDeg: a.iDeg } };
+}
+
+export function runSweep(a: SweepArgs, ts: TimeSystem): Rendered {
+  const { result, meta } = computeSweep(a, ts);
+  return {
+    json: () => sweepToJson(result, meta),
+    csv: () => sweepToCsv(result),
+    text: () => sweepToText(result, meta),
+    html: () => page('tauplan — clock rate against altitude', `gravity ${meta.gravity}, e = ${meta.e}, i = ${meta.iDeg}°`, [], [sweepSection(result, meta.gravity)]),
+  };
+}
+
+// ---- track ------------------------------------------------------------------------------------
+
+export function trackOptions<T>(y: Argv<T>) {
+  return y
+    .positional('scenario', { type: 'string', describe: 'scenario file (or give --tle FILE instead)' })
+    .option('tle', { type: 'string', describe: 'TLE/3LE file instead of a scenario' })
+    .option('sat', { type: 'string', describe: 'satellite id, name or catalogue number' })
+    .option('from', { type: 'string', describe: 'start (default: scenario window start, or the element-set epoch)' })
+    .option('to', { type: 'string', describe: 'end (default: scenario window end, or start + 1 d)' })
+    .option('step', { type: 'string', default: '60s', describe: 'sampling step' })
+    .option('frame', { type: 'string', default: 'GCRF', describe: 'GCRF | TEME | ECEF' })
+    .option('gravity', { type: 'string', describe: 'point | j2 | zonal (default: the scenario’s, else zonal)' });
+}
+
+export interface TrackArgs {
+  scenario?: string;
+  tle?: string;
+  sat?: string;
+  from?: string;
+  to?: string;
+  step: string;
+  frame: string;
+  gravity?: string;
+}
+
+export function runTrack(a: TrackArgs, ts: TimeSystem): Rendered {
+  const frame = a.frame.toUpperCase() as TrackFrame;
+  if (!TRACK_FRAMES.includes(frame)) throw new InputError(`unknown frame ${JSON.stringify(a.frame)}`, '--frame', 'use GCRF, TEME or ECEF');
+  const stepS = parsePositiveDurationS(a.step, '--step');
+  if ((a.scenario === undefined) === (a.tle === undefined)) throw new InputError('give a scenario file or --tle FILE (one of them)', 'command line', 'e.g. tauplan track scenario.yaml --sat S1');
+  let run;
+  let from: number;
+  let to: number;
+  if (a.scenario !== undefined) {
+    const scenario = loadScenario(a.scenario, ts);
+    const gravity = gravityModel(a.gravity ?? scenario.gravity, '--gravity');
+    const sat = scenarioSatellite(scenario, a.sat);
+    from = a.from === undefined ? scenario.window.start.ttJ2000S : ts.parse(a.from, '--from').ttJ2000S;
+    to = a.to === undefined ? scenario.window.end.ttJ2000S : ts.parse(a.to, '--to').ttJ2000S;
+    if (!(to > from)) throw new InputError('the span ends before it starts', '--to', 'give an end after the start');
+    const resolved = trajectoryForSatellite(sat, scenario, ts, gravity, { fromTtJ2000S: from, toTtJ2000S: to });
+    const params = oscillatorParams(sat.clock);
+    run = prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, params, from, to);
+  } else {
+    const gravity = gravityModel(a.gravity ?? 'zonal', '--gravity');
+    const fromGiven = a.from === undefined ? null : ts.parse(a.from, '--from').ttJ2000S;
+    const toGiven = a.to === undefined ? null : ts.parse(a.to, '--to').ttJ2000S;
+    const resolved = orbitFromFlags({ tle: a.tle, sat: a.sat, e: 0, iDeg: 0, raanDeg: 0, argpDeg: 0, mDeg: 0, epoch: '2027-01-01T00:00:00Z' }, ts, gravity, (epoch) => {
+      const f = fromGiven ?? epoch ?? 0;
+      return { fromTtJ2000S: f, toTtJ2000S: toGiven ?? f + 86400 };
+    });
+    from = fromGiven ?? resolved.trajectory.epochTtJ2000S ?? resolved.trajectory.validFromTtJ2000S;
+    to = toGiven ?? from + 86400;
+    if (!(to > from)) throw new InputError('the span ends before it starts', '--to', 'give an end after the start');
+    run = prepareSatelliteClock(resolved.trajectory.id, resolved.name, resolved.trajectory, gravity, null, from, to);
+  }
+  const rows = trackSatellite(run, from, to, stepS, frame, { gmstRadAt: (t) => gmstRadAtTt(ts, t), jdUtcAt: (t) => ts.jdUtcFromTtJ2000S(t) });
+  return { json: () => trackToJson(rows, ts, run.id, frame), csv: () => trackToCsv(rows, ts), text: () => trackToText(rows, ts, run.id, frame) };
+}
+
+// ---- fit --------------------------------------------------------------------------------------
+
+export function fitOptions<T>(y: Argv<T>) {
+  return y
+    .positional('measurements', { type: 'string', demandOption: true, describe: 'CSV with header time,offsetNs[,sigmaNs]' })
+    .option('degree', { type: 'number', default: 2, describe: '0 offset, 1 + frequency, 2 + drift' })
+    .option('scenario', { type: 'string', describe: 'scenario whose satellite orbit gives the relativistic periodic term to remove' })
+    .option('sat', { type: 'string', describe: 'satellite id in the scenario' })
+    .option('clip', { type: 'number', default: 4, describe: 'sigma-clipping threshold (0 disables)' })
+    .option('epoch', { type: 'string', describe: 'epoch the parameters refer to (default: first sample)' });
+}
+
+export interface FitArgs {
+  measurements: string;
+  degree: number;
+  scenario?: string;
+  sat?: string;
+  clip: number;
+  epoch?: string;
+}
+
+export function computeFit(a: FitArgs, ts: TimeSystem) {
+  if (a.degree !== 0 && a.degree !== 1 && a.degree !== 2) throw new InputError(`degree ${a.degree} is not 0, 1 or 2`, '--degree', 'use 0, 1 or 2');
+  if (!(a.clip >= 0)) throw new InputError(`--clip ${a.clip} is negative`, '--clip', 'give a threshold ≥ 0 (0 disables clipping)');
+  if (a.sat !== undefined && a.scenario === undefined) throw new InputError('--sat without --scenario', '--sat', 'give --scenario FILE too');
+  const data = parseMeasurementsCsv(readTextFile(a.measurements, 'measurements'), a.measurements, ts);
+  let periodicNs: ((t: number) => number) | undefined;
+  if (a.scenario !== undefined) {
+    const scenario = loadScenario(a.scenario, ts, '--scenario');
+    const gravity = gravityModel(scenario.gravity, `${a.scenario} gravity`);
+    const sat = scenarioSatellite(scenario, a.sat);
+    const first = data.rows[0].ttJ2000S;
+    const last = data.rows[data.rows.length - 1].ttJ2000S;
+    const to = Math.max(last, first + 60);
+    const resolved = trajectoryForSatellite(sat, scenario, ts, gravity, { fromTtJ2000S: first, toTtJ2000S: to });
+    const run = prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, null, first, to);
+    // Periodic part: the relativistic offset minus its trend, the trend being the straight line
+    // through it with −2r·v/c² removed (the `size` mean rate). A plain line through the offset
+    // would be biased by the eccentricity term whenever the span is not a whole number of orbits.
+    const t = Float64Array.from(data.rows.map((r) => r.ttJ2000S));
+    const block = allocStateBlock(t.length);
+    resolved.trajectory.sampleInto(t, block);
+    const p = block.positionM;
+    const v = block.velocityMPerS;
+    const xc = Float64Array.from(data.rows, (r, i) => run.clock.relativisticNs(r.ttJ2000S) - 1e9 * conventionalPeriodicS(p[3 * i], p[3 * i + 1], p[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]));
+    const line = t.length >= 2 && t[t.length - 1] > t[0] ? lineFit(t, xc) : { slope: 0, intercept: xc[0], tMean: t[0] };
+    periodicNs = (tt) => run.clock.relativisticNs(tt) - (line.intercept + line.slope * (tt - line.tMean));
+  }
+  return fitClock(data.rows, {
+    degree: a.degree,
+    timeSystem: ts,
+    clipSigma: a.clip,
+    ...(a.epoch === undefined ? {} : { epochTtJ2000S: ts.parse(a.epoch, '--epoch').ttJ2000S }),
+    ...(periodicNs === undefined ? {} : { periodicNs }),
+  });
+}
+
+export function runFit(a: FitArgs, ts: TimeSystem): Rendered {
+  const result = computeFit(a, ts);
+  return {
+    json: () => fitToJson(result),
+    csv: () => fitToCsv(result),
+    text: () => fitToText(result, ts),
+    html: () => page('tauplan — clock fit', a.measurements, [{ label: 'epoch', value: result.epoch }], [fitSection(result)]),
+  };
+}

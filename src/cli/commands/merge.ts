@@ -1,0 +1,97 @@
+/**
+ * `tauplan merge FILES... [--out PATH]`: joins the outputs of `size --all --shard K/N` runs back
+ * into file order, by their `index` column (CSV) or field (JSON Lines). The inputs must all be CSV
+ * with the same header, or all JSON Lines; the output has the same format. Every index from 0 to
+ * the largest must be present exactly once (a missing shard is refused, not skipped).
+ * Reads the shard files whole (a row is a few hundred bytes, so 100 000 rows are tens of MB).
+ */
+import type { Argv } from 'yargs';
+import { parse } from 'csv-parse/sync';
+import { stringify } from 'csv-stringify/sync';
+import { InputError } from '../../errors.ts';
+import { readTextFile } from '../../io/orbitSources.ts';
+import { writeFileAtomic } from '../../io/output.ts';
+
+export function mergeOptions<T>(y: Argv<T>) {
+  return y
+    .positional('files', { type: 'string', array: true, demandOption: true, describe: 'shard outputs of size --all (CSV or JSON Lines)' })
+    .option('out', { type: 'string', describe: 'write to this file (atomically) instead of stdout' })
+    .option('quiet', { type: 'boolean', default: false, describe: 'no summary on stderr' });
+}
+
+interface Row {
+  index: number;
+  /** The row as it will be written (CSV cells or one JSON line). */
+  cells: string[] | string;
+  where: string;
+}
+
+function indexOf(value: unknown, where: string): number {
+  const n = typeof value === 'number' ? value : typeof value === 'string' && value.trim() !== '' ? Number(value) : NaN;
+  if (!(Number.isSafeInteger(n) && n >= 0)) {
+    throw new InputError(`index ${JSON.stringify(value)} is not a whole number ≥ 0`, where, 'merge the unedited outputs of tauplan size --all');
+  }
+  return n;
+}
+
+/** Merge shard outputs; returns the merged text (also written to `out` or stdout). */
+export function mergeShardTexts(inputs: readonly { name: string; text: string }[]): string {
+  if (inputs.length === 0) throw new InputError('no files to merge', 'merge', 'give the shard outputs of size --all');
+  const rows: Row[] = [];
+  let kind: 'csv' | 'jsonl' | null = null;
+  let header: string[] | null = null;
+  for (const { name, text } of inputs) {
+    const trimmed = text.trimStart();
+    if (trimmed === '') continue;
+    const k = trimmed.startsWith('{') ? 'jsonl' : 'csv';
+    if (kind !== null && k !== kind) throw new InputError(`${name} is ${k} but an earlier file is ${kind}`, name, 'merge files of one format');
+    kind = k;
+    if (k === 'jsonl') {
+      text.split('\n').forEach((line, i) => {
+        if (line.trim() === '') return;
+        const where = `${name}:${i + 1}`;
+        let obj: unknown;
+        try {
+          obj = JSON.parse(line);
+        } catch {
+          throw new InputError('line is not JSON', where, 'merge the unedited JSON Lines outputs of tauplan size --all --format jsonl');
+        }
+        const index = indexOf((obj as { index?: unknown } | null)?.index, `${where} index`);
+        rows.push({ index, cells: line.trim(), where });
+      });
+    } else {
+      let records: string[][];
+      try {
+        records = parse(text, { relax_column_count: false }) as string[][];
+      } catch (e) {
+        throw new InputError(`not a readable CSV file (${e instanceof Error ? e.message.replace(/\s+/g, ' ') : String(e)})`, name, 'merge the unedited CSV outputs of tauplan size --all');
+      }
+      const [head, ...body] = records;
+      const col = head.indexOf('index');
+      if (col < 0) throw new InputError('CSV header has no index column', `${name}:1`, 'merge outputs of tauplan size --all (they carry an index column)');
+      if (header !== null && head.join(',') !== header.join(',')) throw new InputError('CSV header differs from the first file', `${name}:1`, 'merge outputs of the same tauplan version');
+      header = head;
+      body.forEach((cells, i) => rows.push({ index: indexOf(cells[col], `${name} row ${i + 1} index`), cells, where: `${name} row ${i + 1}` }));
+    }
+  }
+  if (kind === null) throw new InputError('every file is empty', inputs.map((f) => f.name).join(', '), 'give the shard outputs of size --all');
+  rows.sort((p, q) => p.index - q.index);
+  for (let i = 0; i < rows.length; i++) {
+    if (rows[i].index === i) continue;
+    if (i > 0 && rows[i].index === rows[i - 1].index) {
+      throw new InputError(`index ${rows[i].index} appears twice (${rows[i - 1].where} and ${rows[i].where})`, 'merge', 'give each shard file once');
+    }
+    throw new InputError(`index ${i} is missing (rows jump to ${rows[i].index})`, 'merge', 'give the outputs of every shard K/N, K = 1..N');
+  }
+  if (kind === 'jsonl') return rows.map((r) => `${r.cells as string}\n`).join('');
+  return stringify([header as string[], ...rows.map((r) => r.cells as string[])]);
+}
+
+/** `tauplan merge`: read, merge, write (atomically with --out). */
+export function runMerge(files: string[], out: string | undefined, quiet = false): void {
+  const inputs = files.map((name) => ({ name, text: readTextFile(name, 'merge') }));
+  const merged = mergeShardTexts(inputs);
+  if (out === undefined) process.stdout.write(merged);
+  else writeFileAtomic(out, merged);
+  if (!quiet) process.stderr.write(`tauplan: merged ${files.length} files\n`);
+}

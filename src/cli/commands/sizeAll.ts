@@ -1,0 +1,346 @@
+/**
+ * `tauplan size --tle FILE --all` (or `--omm FILE --all`): every element set of a catalogue, one row
+ * each, in file order whatever the number of worker threads.
+ *
+ * - `--jobs N` caps the worker threads (default os.availableParallelism()); `--jobs 1` sizes in-process.
+ * - `--shard K/N` sizes only the element sets whose 0-based file index i has i mod N = K − 1.
+ *   Rows carry `index`, so `tauplan merge` can put shard outputs back into file order.
+ * - csv and jsonl stream: a row is written as soon as every row before it is done; only the rows
+ *   waiting behind a slower batch are held. json and text are buffered.
+ * - A satellite that cannot be sized is a row with its reason (and a line on stderr); the run
+ *   goes on and exits 0. `--strict` makes any such failure a failed run (exit 2, no --out file).
+ *   A fault in the file itself (bad checksum, ...) still fails the whole run at once.
+ */
+import { closeSync, fsyncSync, openSync, writeSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { Worker } from 'node:worker_threads';
+import cliProgress from 'cli-progress';
+import { gravityModel } from '../../clock/gravity.ts';
+import { InputError, InternalError } from '../../errors.ts';
+import { idOf, labelOf, readElementSets } from '../../io/orbitSources.ts';
+import { commitTemp, reserveTemp, toJsonText } from '../../io/output.ts';
+import {
+  inShard,
+  InOrderBuffer,
+  parseShard,
+  sizeCatalogueItem,
+  type CatalogueItem,
+  type CatalogueOutcome,
+  type CatalogueSizeOptions,
+  type ShardSpec,
+} from '../../plan/catalogue.ts';
+import { SIZE_CSV_COLUMNS, sizeCsvRow, sizeToJson } from '../../report/sizeReport.ts';
+import { toCsv, type CsvCell } from '../../report/csv.ts';
+import { fixed, signed } from '../../report/format.ts';
+import { PLANNING_CAUTION } from '../../report/caution.ts';
+import { parsePositiveDurationS } from '../../time/duration.ts';
+import type { TimeSystem } from '../../time/timeSystem.ts';
+import type { SizeArgs } from './size.ts';
+import type { WorkerBatch, WorkerInit, WorkerReply } from '../sizeWorker.ts';
+
+/** Output formats of `size --all`. */
+export const SIZE_ALL_FORMATS = ['csv', 'jsonl', 'json', 'text'] as const;
+
+/** CSV columns of `size --all`: the single-size columns, then the file index (0-based) and the name. */
+export const CATALOGUE_CSV_COLUMNS: readonly string[] = [...SIZE_CSV_COLUMNS, 'index', 'name'];
+
+/** Arguments of `size --all` (the single `size` flags plus these). */
+export interface SizeAllArgs extends SizeArgs {
+  all?: boolean;
+  jobs?: number;
+  shard?: string;
+  strict?: boolean;
+  format: string;
+  out?: string;
+  quiet?: boolean;
+}
+
+/** Counts of a finished run. */
+export interface SizeAllSummary {
+  /** Element sets in the file. */
+  inFile: number;
+  /** Element sets in this shard (all of them without --shard). */
+  attempted: number;
+  sized: number;
+  failed: number;
+}
+
+/** Where rows go: stdout, or a temporary file renamed into place at the end. */
+interface Sink {
+  write(text: string): void;
+  finish(): void;
+}
+
+function openSink(out: string | undefined): Sink {
+  if (out === undefined) return { write: (t) => void process.stdout.write(t), finish: () => undefined };
+  const tmp = reserveTemp(out);
+  let fd: number;
+  try {
+    fd = openSync(tmp, 'w');
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code ?? 'error';
+    throw new InputError(`cannot write ${out} (${code})`, '--out', 'give a path in an existing folder you can write to');
+  }
+  let open = true;
+  return {
+    write: (t) => void writeSync(fd, t),
+    finish: () => {
+      if (!open) return;
+      open = false;
+      fsyncSync(fd);
+      closeSync(fd);
+      commitTemp(tmp, out);
+    },
+  };
+}
+
+/** JSON text of one value on one line; refuses non-finite numbers like toJsonText does. */
+function jsonLine(value: unknown): string {
+  // toJsonText checks every number; its indentation is then dropped for one line per object.
+  return `${JSON.stringify(JSON.parse(toJsonText(value)))}\n`;
+}
+
+/** CSV cells of one outcome (CATALOGUE_CSV_COLUMNS). */
+function csvCells(o: CatalogueOutcome, sourceLabel: string, gravityName: string, ts: TimeSystem): CsvCell[] {
+  if (o.ok) {
+    const cells = sizeCsvRow(o.result, ts);
+    return [...cells, o.index, o.name];
+  }
+  const cells: CsvCell[] = SIZE_CSV_COLUMNS.map(() => null);
+  cells[SIZE_CSV_COLUMNS.indexOf('satellite')] = o.id;
+  cells[SIZE_CSV_COLUMNS.indexOf('source')] = sourceLabel;
+  cells[SIZE_CSV_COLUMNS.indexOf('gravity')] = gravityName;
+  cells[SIZE_CSV_COLUMNS.indexOf('error')] = o.error;
+  return [...cells, o.index, o.name];
+}
+
+/** JSON object of one outcome (sizeToJson fields plus index and name; failures carry `error`). */
+function jsonObject(o: CatalogueOutcome, sourceLabel: string, gravityName: string, ts: TimeSystem): Record<string, unknown> {
+  if (o.ok) return { index: o.index, name: o.name, ...sizeToJson(o.result, ts) };
+  return { index: o.index, name: o.name, satellite: o.id, source: sourceLabel, gravity: gravityName, error: o.error };
+}
+
+/**
+ * Start a size worker. The worker registers the tsx loader itself (resolved from this package, so
+ * the working folder does not matter) and then imports the TypeScript worker module: a loader given
+ * to the parent (bin/tauplan.mjs registers tsx) or `--import` in execArgv does not reach a worker on Node 20.
+ */
+function startWorker(init: WorkerInit): Worker {
+  const tsxApi = import.meta.resolve('tsx/esm/api');
+  const workerModule = new URL('../sizeWorker.ts', import.meta.url).href;
+  const boot = `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(workerModule)}); });`;
+  return new Worker(boot, { eval: true, workerData: init });
+}
+
+/**
+ * Size `items` and call `onOutcomes` with outcomes in item order, as soon as an in-order prefix is complete.
+ * `jobs` = 1 runs in-process; more starts up to that many worker threads.
+ */
+export async function sizeItems(
+  items: readonly CatalogueItem[],
+  options: CatalogueSizeOptions,
+  jobs: number,
+  ts: TimeSystem,
+  onOutcomes: (outcomes: CatalogueOutcome[]) => void,
+): Promise<void> {
+  if (items.length === 0) return;
+  if (jobs <= 1) {
+    const gravity = gravityModel(options.gravityName, '--gravity');
+    const batch = 16;
+    for (let i = 0; i < items.length; i += batch) {
+      onOutcomes(items.slice(i, i + batch).map((it) => sizeCatalogueItem(it, options, ts, gravity)));
+      // Let timers (progress bar) and signals in between batches.
+      await new Promise<void>((resolve) => setImmediate(resolve));
+    }
+    return;
+  }
+  const batchSize = Math.max(1, Math.min(32, Math.ceil(items.length / (jobs * 8))));
+  const batchCount = Math.ceil(items.length / batchSize);
+  const workerCount = Math.min(jobs, batchCount);
+  // Never dispatch further ahead of the oldest unfinished batch than this: bounds what waits in `order`.
+  const window = workerCount * 4;
+  const order = new InOrderBuffer<CatalogueOutcome[]>();
+  const init: WorkerInit = { options };
+  const workers: Worker[] = [];
+  try {
+    await new Promise<void>((resolve, reject) => {
+      let nextBatch = 0;
+      let done = 0;
+      let failed = false;
+      const inFlight = new Map<Worker, number>();
+      const fail = (e: unknown): void => {
+        if (failed) return;
+        failed = true;
+        reject(e instanceof Error ? e : new InternalError(String(e), 'worker'));
+      };
+      const feed = (w: Worker): void => {
+        while (!failed && (inFlight.get(w) ?? 0) < 2 && nextBatch < batchCount && nextBatch < order.next + window) {
+          const b = nextBatch++;
+          const msg: WorkerBatch = { batch: b, items: items.slice(b * batchSize, (b + 1) * batchSize) };
+          inFlight.set(w, (inFlight.get(w) ?? 0) + 1);
+          w.postMessage(msg);
+        }
+      };
+      for (let i = 0; i < workerCount; i++) {
+        const w = startWorker(init);
+        workers.push(w);
+        inFlight.set(w, 0);
+        w.on('message', (reply: WorkerReply) => {
+          if (failed) return;
+          inFlight.set(w, (inFlight.get(w) ?? 1) - 1);
+          if (reply.usedPastExpiry) ts.leap.usedPastExpiry = true;
+          try {
+            for (const outcomes of order.put(reply.batch, reply.outcomes)) {
+              done++;
+              onOutcomes(outcomes);
+            }
+          } catch (e) {
+            fail(e);
+            return;
+          }
+          if (done === batchCount) {
+            resolve();
+            return;
+          }
+          // A released prefix may unblock the window for every worker, not only this one.
+          for (const other of workers) feed(other);
+        });
+        w.on('error', (e) => fail(new InternalError(`size worker failed: ${e instanceof Error ? e.message : String(e)}`, 'worker')));
+        w.on('exit', (code) => {
+          if (done < batchCount) fail(new InternalError(`size worker exited early with code ${code}`, 'worker'));
+        });
+      }
+      for (const w of workers) feed(w);
+    });
+  } finally {
+    await Promise.all(workers.map((w) => w.terminate()));
+  }
+}
+
+/** Progress on stderr for runs longer than about 2 s, only on a terminal and without --quiet. */
+function progress(total: number, enabled: boolean): { tick(n: number, failed: number): void; note(line: string): void; stop(): void } {
+  const started = Date.now();
+  let bar: cliProgress.SingleBar | null = null;
+  let value = 0;
+  return {
+    tick(n, failed) {
+      value += n;
+      if (!enabled) return;
+      if (bar === null && Date.now() - started > 2000 && value < total) {
+        bar = new cliProgress.SingleBar(
+          { stream: process.stderr, format: 'size --all |{bar}| {value}/{total} satellites, {failed} failed, eta {eta_formatted}', hideCursor: true, clearOnComplete: true },
+          cliProgress.Presets.shades_classic,
+        );
+        bar.start(total, value, { failed });
+      } else bar?.update(value, { failed });
+    },
+    note(line) {
+      process.stderr.write(bar === null ? line : `\r\x1b[K${line}`);
+    },
+    stop() {
+      bar?.stop();
+    },
+  };
+}
+
+function positiveJobs(jobs: number | undefined): number {
+  if (jobs === undefined) return availableParallelism();
+  if (!(Number.isInteger(jobs) && jobs >= 1)) throw new InputError(`--jobs ${jobs} is not a whole number ≥ 1`, '--jobs', 'give e.g. --jobs 4, or --jobs 1 to run without worker threads');
+  return jobs;
+}
+
+/** Run `size --all`; writes the rows and returns the counts. Throws InputError for --strict failures. */
+export async function runSizeAll(a: SizeAllArgs, ts: TimeSystem): Promise<SizeAllSummary> {
+  if (a.tle === undefined && a.omm === undefined) throw new InputError('--all needs an element-set file', '--all', 'give --tle FILE or --omm FILE');
+  if (a.tle !== undefined && a.omm !== undefined) throw new InputError('both --tle and --omm given', '--tle/--omm', 'give one element-set file');
+  if (a.sat !== undefined) throw new InputError('--sat and --all both given', '--sat/--all', 'drop --sat to size every satellite, or drop --all to size one');
+  if (a.scenario !== undefined || a.aKm !== undefined || a.altitudeKm !== undefined) {
+    throw new InputError('--all works on a TLE or OMM file only', '--all', 'drop --scenario / --a-km / --altitude-km');
+  }
+  const format = a.format;
+  if (!(SIZE_ALL_FORMATS as readonly string[]).includes(format)) {
+    throw new InputError(`size --all has no ${format} output`, '--format', 'use csv, jsonl, json or text');
+  }
+  const gravity = gravityModel(a.gravity, '--gravity');
+  const spanS = parsePositiveDurationS(a.span, '--span');
+  if (!(a.nominalHz > 0)) throw new InputError(`nominal frequency ${a.nominalHz} Hz is not positive`, '--nominal-hz', 'give e.g. 10.23e6');
+  const fromTtJ2000S = a.from === undefined ? null : ts.parse(a.from, '--from').ttJ2000S;
+  const jobs = positiveJobs(a.jobs);
+  const shard: ShardSpec | null = a.shard === undefined ? null : parseShard(a.shard, '--shard');
+  const kind = a.tle !== undefined ? 'tle' : 'omm';
+  const file = (a.tle ?? a.omm) as string;
+  // A fault in the file fails the whole run here, before anything is written.
+  const records = readElementSets(file, kind, `--${kind}`);
+  const items: CatalogueItem[] = [];
+  records.forEach((record, index) => {
+    if (inShard(index, shard)) items.push({ index, id: idOf(record), name: labelOf(record), record });
+  });
+  const options: CatalogueSizeOptions = { gravityName: a.gravity, spanS, fromTtJ2000S, nominalHz: a.nominalHz };
+  const sourceLabel = kind === 'tle' ? 'SGP4 (TLE)' : 'SGP4 (OMM)';
+  const streaming = format === 'csv' || format === 'jsonl';
+  const sink = streaming ? openSink(a.out) : null;
+  const kept: CatalogueOutcome[] = [];
+  const bar = progress(items.length, process.stderr.isTTY === true && a.quiet !== true);
+  let sized = 0;
+  let failed = 0;
+  const header = toCsv(CATALOGUE_CSV_COLUMNS, []);
+  if (sink !== null && format === 'csv') sink.write(header);
+  try {
+    await sizeItems(items, options, jobs, ts, (outcomes) => {
+      for (const o of outcomes) {
+        if (o.ok) sized++;
+        else {
+          failed++;
+          bar.note(`tauplan: satellite ${o.id} (${o.name}, element set ${o.index + 1} of ${file}) not sized: ${o.error}\n`);
+        }
+      }
+      if (sink === null) kept.push(...outcomes);
+      else if (format === 'csv') sink.write(toCsv(CATALOGUE_CSV_COLUMNS, outcomes.map((o) => csvCells(o, sourceLabel, gravity.name, ts))).slice(header.length));
+      else sink.write(outcomes.map((o) => jsonLine(jsonObject(o, sourceLabel, gravity.name, ts))).join(''));
+      bar.tick(outcomes.length, failed);
+    });
+  } finally {
+    bar.stop();
+  }
+  const summary: SizeAllSummary = { inFile: records.length, attempted: items.length, sized, failed };
+  const shardNote = shard === null ? '' : ` (shard ${shard.k}/${shard.n} of ${records.length})`;
+  const countLine = `tauplan: sized ${sized} of ${items.length}${shardNote}; ${failed} failed\n`;
+  if (a.strict === true && failed > 0) {
+    process.stderr.write(countLine);
+    throw new InputError(`${failed} of ${items.length} satellites could not be sized`, `--strict, ${file}`, 'see the lines above; drop --strict to keep the rows of the others');
+  }
+  if (sink !== null) sink.finish();
+  else writeBuffered(kept, format, a.out, sourceLabel, gravity.name, ts, summary);
+  if (a.quiet !== true || failed > 0) process.stderr.write(countLine);
+  return summary;
+}
+
+function writeBuffered(kept: CatalogueOutcome[], format: string, out: string | undefined, sourceLabel: string, gravityName: string, ts: TimeSystem, s: SizeAllSummary): void {
+  let body: string;
+  if (format === 'json') {
+    const results = kept.filter((o) => o.ok).map((o) => jsonObject(o, sourceLabel, gravityName, ts));
+    const failures = kept.filter((o) => !o.ok).map((o) => jsonObject(o, sourceLabel, gravityName, ts));
+    body = toJsonText({ results, failures });
+  } else body = catalogueText(kept, s);
+  const sink = openSink(out);
+  sink.write(body);
+  sink.finish();
+}
+
+/** The text table of a catalogue run. */
+function catalogueText(kept: CatalogueOutcome[], s: SizeAllSummary): string {
+  const lines = [
+    `Frequency-offset sizing, ${s.attempted} satellites (${s.sized} sized, ${s.failed} failed)`,
+    '',
+    `${'index'.padStart(6)}  ${'satellite'.padEnd(10)} ${'name'.padEnd(24)} ${'drift ns/day'.padStart(14)} ${'offset mHz'.padStart(12)} ${'ecc. ampl. ns'.padStart(14)}`,
+  ];
+  for (const o of kept) {
+    const head = `${String(o.index).padStart(6)}  ${o.id.padEnd(10)} ${o.name.slice(0, 24).padEnd(24)}`;
+    if (o.ok) {
+      const r = o.result;
+      lines.push(`${head} ${signed(r.driftNsPerDay, 3).padStart(14)} ${signed(r.recommendedOffsetHz * 1e3, 6).padStart(12)} ${fixed(r.eccentricityAmplitudeNs, 3).padStart(14)}`);
+    } else lines.push(`${head} not sized: ${o.error}`);
+  }
+  lines.push('', 'Drift: positive means the clock runs fast against TT. Offset: set on the ground as nominal + offset.', '', PLANNING_CAUTION, '');
+  return lines.join('\n');
+}

@@ -1,0 +1,151 @@
+/**
+ * Use case `compare`: satellites and stations as clocks in one field, over one window
+ * (contract `tauplan compare`; physics.md §4 and §11). Relativity only: no oscillator model.
+ *
+ * A sub-orbital trajectory (a flight that returns to its starting radius) is compared over its
+ * flight [epoch, flightEnd] only; so is every pair that includes it.
+ */
+import { groundClockFractionalOffset } from '../clock/groundClock.ts';
+import type { GravityModel } from '../clock/gravity.ts';
+import { clockStepS, integrateAlong, type IntegratedTrack } from '../clock/integrate.ts';
+import { conventionalPeriodicS, fractionalOffset } from '../clock/rate.ts';
+import { SECONDS_PER_DAY } from '../constants.ts';
+import { geodeticToEcefM, type Station } from '../events/station.ts';
+import { allocStateBlock, type Trajectory } from '../orbit/trajectory.ts';
+import { lineFit, orbitSummaryAt } from './size.ts';
+
+export interface CompareSatellite {
+  id: string;
+  trajectory: Trajectory;
+  /** For a sub-orbital flight: [start, end] of the flight; null for an orbit. */
+  flight: { startTtJ2000S: number; endTtJ2000S: number } | null;
+}
+
+export interface ClockComparison {
+  id: string;
+  kind: 'satellite' | 'station';
+  /** Satellites: slope of the offset with −2r·v/c² removed (as in `size`); stations: their constant rate. */
+  meanFractionalOffset: number;
+  driftNsPerDay: number;
+  /** Half peak-to-peak of the proper-time offset about its trend [ns] (0 for a station). */
+  periodicAmplitudeNs: number;
+  /** Proper time elapsed minus TT elapsed over the clock's interval [ns]. */
+  elapsedOffsetNs: number;
+  /** Interval the figures cover, seconds since J2000.0 TT. */
+  fromTtJ2000S: number;
+  toTtJ2000S: number;
+  flightEndTtJ2000S: number | null;
+}
+
+export interface PairComparison {
+  a: string;
+  b: string;
+  /** Elapsed proper time of a minus that of b over their common interval [ns]. */
+  elapsedDifferenceNs: number;
+  fromTtJ2000S: number;
+  toTtJ2000S: number;
+}
+
+export interface CompareResult {
+  clocks: ClockComparison[];
+  pairs: PairComparison[];
+}
+
+/** ∫ y dt between two instants for a clock. */
+type Elapsed = (from: number, to: number) => number;
+
+export function compareClocks(sats: CompareSatellite[], stations: Station[], gravity: GravityModel, fromTtJ2000S: number, toTtJ2000S: number): CompareResult {
+  const clocks: ClockComparison[] = [];
+  const elapsed = new Map<string, Elapsed>();
+  // Orbits are integrated over the window, widened to cover every flight so pairs can be formed.
+  let lo = fromTtJ2000S;
+  let hi = toTtJ2000S;
+  for (const s of sats) {
+    if (s.flight !== null) {
+      lo = Math.min(lo, s.flight.startTtJ2000S);
+      hi = Math.max(hi, s.flight.endTtJ2000S);
+    }
+  }
+  for (const s of sats) {
+    const from = s.flight?.startTtJ2000S ?? lo;
+    const to = s.flight?.endTtJ2000S ?? hi;
+    const orbit = orbitSummaryAt(s.trajectory, from, gravity.gmM3PerS2);
+    const periodS = Number.isFinite(orbit.periodS) && orbit.periodS > 0 ? orbit.periodS : 6000;
+    const maxStep = s.flight === null ? clockStepS(periodS, Math.min(orbit.e, 0.95)) : Math.min(10, (to - from) / 20);
+    const [track] = integrateAlong(s.trajectory, from, to, maxStep, [(x, y, z, vx, vy, vz) => fractionalOffset(gravity, x, y, z, vx, vy, vz)]);
+    const reportFrom = s.flight === null ? fromTtJ2000S : from;
+    const reportTo = s.flight === null ? toTtJ2000S : to;
+    const fig = trackFigures(s.trajectory, track, reportFrom, reportTo);
+    elapsed.set(s.id, (a, b) => track.integralAt(b) - track.integralAt(a));
+    clocks.push({
+      id: s.id,
+      kind: 'satellite',
+      meanFractionalOffset: fig.slope,
+      driftNsPerDay: fig.slope * SECONDS_PER_DAY * 1e9,
+      periodicAmplitudeNs: fig.periodicNs,
+      elapsedOffsetNs: (track.integralAt(reportTo) - track.integralAt(reportFrom)) * 1e9,
+      fromTtJ2000S: reportFrom,
+      toTtJ2000S: reportTo,
+      flightEndTtJ2000S: s.flight?.endTtJ2000S ?? null,
+    });
+  }
+  for (const st of stations) {
+    const r = geodeticToEcefM(st.latDeg, st.lonDeg, st.heightM);
+    const y = groundClockFractionalOffset(gravity, r[0], r[1], r[2], st.geoidHeightM);
+    elapsed.set(st.id, (a, b) => y * (b - a));
+    clocks.push({
+      id: st.id,
+      kind: 'station',
+      meanFractionalOffset: y,
+      driftNsPerDay: y * SECONDS_PER_DAY * 1e9,
+      periodicAmplitudeNs: 0,
+      elapsedOffsetNs: y * (toTtJ2000S - fromTtJ2000S) * 1e9,
+      fromTtJ2000S,
+      toTtJ2000S,
+      flightEndTtJ2000S: null,
+    });
+  }
+  const pairs: PairComparison[] = [];
+  for (let i = 0; i < clocks.length; i++) {
+    for (let j = i + 1; j < clocks.length; j++) {
+      const a = clocks[i];
+      const b = clocks[j];
+      // Common interval: a flight's own interval when either is a flight, else the window.
+      const flight = a.flightEndTtJ2000S !== null ? a : b.flightEndTtJ2000S !== null ? b : null;
+      const from = flight === null ? fromTtJ2000S : flight.fromTtJ2000S;
+      const to = flight === null ? toTtJ2000S : flight.toTtJ2000S;
+      if (a.flightEndTtJ2000S !== null && b.flightEndTtJ2000S !== null && (a.fromTtJ2000S !== b.fromTtJ2000S || a.toTtJ2000S !== b.toTtJ2000S)) continue; // two different flights: no common interval
+      const ea = elapsed.get(a.id)!(from, to);
+      const eb = elapsed.get(b.id)!(from, to);
+      pairs.push({ a: a.id, b: b.id, elapsedDifferenceNs: (ea - eb) * 1e9, fromTtJ2000S: from, toTtJ2000S: to });
+    }
+  }
+  return { clocks, pairs };
+}
+
+function trackFigures(traj: Trajectory, track: IntegratedTrack, from: number, to: number): { slope: number; periodicNs: number } {
+  const m = Math.max(64, Math.min(20001, Math.ceil((to - from) / 30) + 1));
+  const t = new Float64Array(m);
+  for (let i = 0; i < m; i++) t[i] = from + ((to - from) * i) / (m - 1);
+  const x = new Float64Array(m);
+  const xc = new Float64Array(m);
+  const block = allocStateBlock(m);
+  traj.sampleInto(t, block);
+  const r = block.positionM;
+  const v = block.velocityMPerS;
+  for (let i = 0; i < m; i++) {
+    x[i] = track.integralAt(t[i]);
+    xc[i] = x[i] - conventionalPeriodicS(r[3 * i], r[3 * i + 1], r[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]);
+  }
+  // Trend: the line through the offset with −2r·v/c² removed (the `size` definition of the mean);
+  // the periodic amplitude is what swings about that trend.
+  const line = lineFit(t, xc);
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = 0; i < m; i++) {
+    const d = x[i] - (line.intercept + line.slope * (t[i] - line.tMean));
+    lo = Math.min(lo, d);
+    hi = Math.max(hi, d);
+  }
+  return { slope: line.slope, periodicNs: ((hi - lo) / 2) * 1e9 };
+}

@@ -1,0 +1,105 @@
+/**
+ * Use case `track`: sampled states and the clock along them for one satellite, in GCRF, TEME or
+ * ECEF, for analysts' own tools (contract `tauplan track`).
+ */
+import { conventionalPeriodicS } from '../clock/rate.ts';
+import { applyMatrix, equationOfEquinoxesRad, gcrfToTodMatrix, temeToEcef, temeToTod, todToTeme, transpose } from '../orbit/frames.ts';
+import { allocStateBlock } from '../orbit/trajectory.ts';
+import { vec3, type Vec3 } from '../orbit/vec.ts';
+import { InputError } from '../errors.ts';
+import type { SatelliteClockRun } from './satelliteClock.ts';
+
+export type TrackFrame = 'GCRF' | 'TEME' | 'ECEF';
+export const TRACK_FRAMES: readonly TrackFrame[] = ['GCRF', 'TEME', 'ECEF'];
+
+export interface TrackRow {
+  ttJ2000S: number;
+  xKm: number;
+  yKm: number;
+  zKm: number;
+  vxKmPerS: number;
+  vyKmPerS: number;
+  vzKmPerS: number;
+  /** y_rel at this instant (dimensionless). */
+  fractionalOffset: number;
+  /** Clock offset [ns]: oscillator model plus relativity, or relativity alone. */
+  offsetNs: number;
+  /** −2 r·v/c² [ns]. */
+  periodicNs: number;
+}
+
+/** Earth orientation needed for frame changes, supplied by the edge. */
+export interface EarthOrientation {
+  gmstRadAt: (ttJ2000S: number) => number;
+  jdUtcAt: (ttJ2000S: number) => number;
+}
+
+/** Most rows one track may hold (memory bound); the fix is a larger --step or a shorter span. */
+export const MAX_TRACK_ROWS = 2_000_000;
+
+export function trackSatellite(run: SatelliteClockRun, fromTtJ2000S: number, toTtJ2000S: number, stepS: number, frame: TrackFrame, earth: EarthOrientation): TrackRow[] {
+  if (!(stepS > 0)) throw new InputError(`step ${stepS} s is not positive`, '--step', 'give e.g. 60s');
+  const n = Math.floor((toTtJ2000S - fromTtJ2000S) / stepS + 1e-9) + 1;
+  if (n > MAX_TRACK_ROWS) throw new InputError(`${n} rows exceed the limit of ${MAX_TRACK_ROWS}`, '--step', 'use a larger --step or a shorter --from/--to span');
+  const t = new Float64Array(n);
+  for (let i = 0; i < n; i++) t[i] = fromTtJ2000S + i * stepS;
+  const block = allocStateBlock(n);
+  run.trajectory.sampleInto(t, block);
+  const src = run.trajectory.frame;
+  const rows: TrackRow[] = [];
+  for (let i = 0; i < n; i++) {
+    const p = block.positionM;
+    const v = block.velocityMPerS;
+    const r0 = [p[3 * i], p[3 * i + 1], p[3 * i + 2]];
+    const v0 = [v[3 * i], v[3 * i + 1], v[3 * i + 2]];
+    const periodicNs = conventionalPeriodicS(r0[0], r0[1], r0[2], v0[0], v0[1], v0[2]) * 1e9;
+    // Bring the state to TEME first (the hub here), then to the wanted frame.
+    let rTeme: Vec3<'TEME'>;
+    let vTeme: Vec3<'TEME'>;
+    const jd = earth.jdUtcAt(t[i]);
+    if (src === 'TEME') {
+      rTeme = vec3<'TEME'>(r0[0], r0[1], r0[2]);
+      vTeme = vec3<'TEME'>(v0[0], v0[1], v0[2]);
+    } else {
+      let rTod = vec3<'TOD'>(r0[0], r0[1], r0[2]);
+      let vTod = vec3<'TOD'>(v0[0], v0[1], v0[2]);
+      if (src === 'GCRF') {
+        const m = gcrfToTodMatrix(jd);
+        rTod = applyMatrix<'GCRF', 'TOD'>(m, vec3<'GCRF'>(r0[0], r0[1], r0[2]));
+        vTod = applyMatrix<'GCRF', 'TOD'>(m, vec3<'GCRF'>(v0[0], v0[1], v0[2]));
+      }
+      const ee = equationOfEquinoxesRad(jd);
+      rTeme = todToTeme(rTod, ee);
+      vTeme = todToTeme(vTod, ee);
+    }
+    let rOut: readonly number[];
+    let vOut: readonly number[];
+    if (frame === 'TEME') {
+      rOut = rTeme;
+      vOut = vTeme;
+    } else if (frame === 'ECEF') {
+      const e = temeToEcef(rTeme, vTeme, earth.gmstRadAt(t[i]));
+      rOut = e.r;
+      vOut = e.v;
+    } else {
+      const ee = equationOfEquinoxesRad(jd);
+      const back = transpose(gcrfToTodMatrix(jd));
+      rOut = applyMatrix<'TOD', 'GCRF'>(back, temeToTod(rTeme, ee));
+      vOut = applyMatrix<'TOD', 'GCRF'>(back, temeToTod(vTeme, ee));
+    }
+    rows.push({
+      ttJ2000S: t[i],
+      xKm: rOut[0] / 1000,
+      yKm: rOut[1] / 1000,
+      zKm: rOut[2] / 1000,
+      vxKmPerS: vOut[0] / 1000,
+      vyKmPerS: vOut[1] / 1000,
+      vzKmPerS: vOut[2] / 1000,
+      fractionalOffset: run.clock.relativistic.valueAt(t[i]),
+      offsetNs: run.clock.offsetNs(t[i]),
+      periodicNs,
+    });
+  }
+  return rows;
+}
+

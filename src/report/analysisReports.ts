@@ -1,0 +1,145 @@
+/** Writers for `compare`, `sweep` and `track`: JSON (contract fields), CSV and text. */
+import type { CompareResult } from '../plan/compare.ts';
+import type { SweepResult } from '../plan/sweep.ts';
+import type { TrackRow } from '../plan/track.ts';
+import { Instant } from '../time/instant.ts';
+import type { TimeSystem } from '../time/timeSystem.ts';
+import { PLANNING_CAUTION } from './caution.ts';
+import { toCsv } from './csv.ts';
+import { fixed, sci, signed, textTable } from './format.ts';
+
+const utc = (ts: TimeSystem, t: number): string => ts.format(Instant.fromTtJ2000S(t));
+
+// ---- compare ----------------------------------------------------------------------------------
+
+export function compareToJson(r: CompareResult, ts: TimeSystem, meta: { scenario: string; gravity: string; fromTtJ2000S: number; toTtJ2000S: number }): Record<string, unknown> {
+  return {
+    scenario: meta.scenario,
+    gravity: meta.gravity,
+    from: utc(ts, meta.fromTtJ2000S),
+    to: utc(ts, meta.toTtJ2000S),
+    clocks: r.clocks.map((c) => ({
+      id: c.id,
+      kind: c.kind,
+      meanFractionalOffset: c.meanFractionalOffset,
+      driftNsPerDay: c.driftNsPerDay,
+      periodicAmplitudeNs: c.periodicAmplitudeNs,
+      elapsedOffsetNs: c.elapsedOffsetNs,
+      ...(c.flightEndTtJ2000S === null ? {} : { flightStart: utc(ts, c.fromTtJ2000S), flightEnd: utc(ts, c.flightEndTtJ2000S) }),
+    })),
+    pairs: r.pairs.map((p) => ({ a: p.a, b: p.b, elapsedDifferenceNs: p.elapsedDifferenceNs, from: utc(ts, p.fromTtJ2000S), to: utc(ts, p.toTtJ2000S) })),
+    note: 'Relativity only (no oscillator model). Station rates use the scenario gravity model plus the given geoid undulation; tauplan carries no geoid model.',
+  };
+}
+
+export function compareToCsv(r: CompareResult, ts: TimeSystem): string {
+  return toCsv(
+    ['id', 'kind', 'meanFractionalOffset', 'driftNsPerDay', 'periodicAmplitudeNs', 'elapsedOffsetNs', 'from', 'to', 'flightEnd'],
+    r.clocks.map((c) => [c.id, c.kind, c.meanFractionalOffset, c.driftNsPerDay, c.periodicAmplitudeNs, c.elapsedOffsetNs, utc(ts, c.fromTtJ2000S), utc(ts, c.toTtJ2000S), c.flightEndTtJ2000S === null ? null : utc(ts, c.flightEndTtJ2000S)]),
+  );
+}
+
+export function compareToText(r: CompareResult, ts: TimeSystem, meta: { scenario: string; gravity: string; fromTtJ2000S: number; toTtJ2000S: number }): string {
+  const out = [
+    `Clock comparison — ${meta.scenario}`,
+    `Window ${utc(ts, meta.fromTtJ2000S)} to ${utc(ts, meta.toTtJ2000S)}; gravity ${meta.gravity}; relativity only, against TT (a geoid clock).`,
+    '',
+    textTable(
+      ['clock', 'kind', 'mean fractional offset', 'ns/day', 'periodic ns', 'elapsed − TT ns', 'interval'],
+      r.clocks.map((c) => [
+        c.id,
+        c.kind,
+        sci(c.meanFractionalOffset, 5),
+        signed(c.driftNsPerDay, 3),
+        fixed(c.periodicAmplitudeNs, 3),
+        signed(c.elapsedOffsetNs, 3),
+        c.flightEndTtJ2000S === null ? 'window' : `flight ${utc(ts, c.fromTtJ2000S).slice(11, 23)} → ${utc(ts, c.flightEndTtJ2000S).slice(11, 23)}`,
+      ]),
+      [false, false, true, true, true, true, false],
+    ),
+    '',
+    'Pairs (a − b, elapsed proper time over the common interval):',
+    textTable(
+      ['a', 'b', 'a − b ns', 'interval'],
+      r.pairs.map((p) => [p.a, p.b, signed(p.elapsedDifferenceNs, 4), `${utc(ts, p.fromTtJ2000S)} → ${utc(ts, p.toTtJ2000S)}`]),
+      [false, false, true, false],
+    ),
+    '',
+    'Station clocks: W = U + ω²ρ²/2 in the scenario gravity model, lowered by g·N/c² for the given geoid undulation N.',
+    PLANNING_CAUTION,
+    '',
+  ];
+  return out.join('\n');
+}
+
+// ---- sweep ------------------------------------------------------------------------------------
+
+export function sweepToJson(r: SweepResult, meta: { gravity: string; e: number; iDeg: number }): Record<string, unknown> {
+  return {
+    gravity: meta.gravity,
+    e: meta.e,
+    iDeg: meta.iDeg,
+    rows: r.rows.map((x) => ({ altitudeKm: x.altitudeKm, meanFractionalOffset: x.meanFractionalOffset, gravitational: x.gravitational, velocity: x.velocity })),
+    breakEvenAltitudeKm: r.breakEvenAltitudeKm,
+    note: 'Altitude above the WGS-84 equatorial radius 6378.137 km; elements osculating; each row integrated over two periods (at most one day).',
+  };
+}
+
+export function sweepToCsv(r: SweepResult): string {
+  return toCsv(['altitudeKm', 'meanFractionalOffset', 'gravitational', 'velocity'], r.rows.map((x) => [x.altitudeKm, x.meanFractionalOffset, x.gravitational, x.velocity]));
+}
+
+export function sweepToText(r: SweepResult, meta: { gravity: string; e: number; iDeg: number }): string {
+  const every = Math.max(1, Math.ceil(r.rows.length / 40));
+  const shown = r.rows.filter((_, k) => k % every === 0 || k === r.rows.length - 1);
+  return [
+    `Mean clock rate against altitude (gravity ${meta.gravity}, e = ${meta.e}, i = ${meta.iDeg}°)`,
+    r.breakEvenAltitudeKm === null ? 'No break-even altitude in this range.' : `Break-even altitude: ${fixed(r.breakEvenAltitudeKm, 2)} km — below it an orbiting clock runs slow against the geoid, above it fast.`,
+    '',
+    textTable(
+      ['altitude km', 'mean fractional offset', 'µs/day', 'gravitational', 'velocity'],
+      shown.map((x) => [fixed(x.altitudeKm, 1), sci(x.meanFractionalOffset, 5), signed(x.meanFractionalOffset * 86400e6, 3), sci(x.gravitational, 5), sci(x.velocity, 5)]),
+    ),
+    shown.length < r.rows.length ? `(${shown.length} of ${r.rows.length} rows shown; use --format csv or json for all)` : '',
+    PLANNING_CAUTION,
+    '',
+  ].join('\n');
+}
+
+// ---- track ------------------------------------------------------------------------------------
+
+export function trackToJson(rows: TrackRow[], ts: TimeSystem, satellite: string, frame: string): Record<string, unknown> {
+  return {
+    satellite,
+    frame,
+    rows: rows.map((r) => ({
+      time: utc(ts, r.ttJ2000S),
+      xKm: r.xKm,
+      yKm: r.yKm,
+      zKm: r.zKm,
+      vxKmPerS: r.vxKmPerS,
+      vyKmPerS: r.vyKmPerS,
+      vzKmPerS: r.vzKmPerS,
+      fractionalOffset: r.fractionalOffset,
+      offsetNs: r.offsetNs,
+      periodicNs: r.periodicNs,
+    })),
+  };
+}
+
+const TRACK_COLUMNS = ['time', 'xKm', 'yKm', 'zKm', 'vxKmPerS', 'vyKmPerS', 'vzKmPerS', 'fractionalOffset', 'offsetNs', 'periodicNs'];
+
+export function trackToCsv(rows: TrackRow[], ts: TimeSystem): string {
+  return toCsv(TRACK_COLUMNS, rows.map((r) => [utc(ts, r.ttJ2000S), r.xKm, r.yKm, r.zKm, r.vxKmPerS, r.vyKmPerS, r.vzKmPerS, r.fractionalOffset, r.offsetNs, r.periodicNs]));
+}
+
+export function trackToText(rows: TrackRow[], ts: TimeSystem, satellite: string, frame: string): string {
+  return [
+    `Track of ${satellite}, frame ${frame}; offsets in ns against the reference scale`,
+    textTable(
+      ['time (UTC)', 'x km', 'y km', 'z km', 'vx km/s', 'vy km/s', 'vz km/s', 'y_rel', 'offset ns', '−2r·v/c² ns'],
+      rows.map((r) => [utc(ts, r.ttJ2000S), fixed(r.xKm, 3), fixed(r.yKm, 3), fixed(r.zKm, 3), fixed(r.vxKmPerS, 6), fixed(r.vyKmPerS, 6), fixed(r.vzKmPerS, 6), sci(r.fractionalOffset, 6), signed(r.offsetNs, 3), signed(r.periodicNs, 3)]),
+    ),
+    '',
+  ].join('\n');
+}
