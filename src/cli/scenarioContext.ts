@@ -12,7 +12,7 @@ import { trajectoryForSatellite } from '../io/orbitSources.ts';
 import type { ClockSpec, SatelliteSpec, ScenarioSpec } from '../io/scenario.ts';
 import { gmstRadAtTt } from '../orbit/sp3.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
-import { prepareSatelliteClock, type SatelliteClockRun } from '../plan/satelliteClock.ts';
+import { prepareSatelliteClock, usableEnd, type SatelliteClockRun } from '../plan/satelliteClock.ts';
 import { Instant } from '../time/instant.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 
@@ -69,7 +69,7 @@ function pick<T>(items: T[], wanted: string | undefined, keyOf: (t: T) => string
 }
 
 /** Refuse a window outside the trajectory's span, naming the span. */
-export function checkWindowInSpan(traj: Trajectory, from: number, to: number, ts: TimeSystem, satPath: string): void {
+export function checkWindowInSpan(traj: Trajectory, from: number, to: number, ts: TimeSystem, satPath: string, fix = 'shorten the window (--from/--to or window:) to the source span'): void {
   const f = (t: number): string => ts.format(Instant.fromTtJ2000S(t));
   if (from < traj.validFromTtJ2000S - 1e-3 || to > traj.validToTtJ2000S + 1e-3) {
     throw new SpanError(
@@ -77,26 +77,48 @@ export function checkWindowInSpan(traj: Trajectory, from: number, to: number, ts
       satPath,
       f(traj.validFromTtJ2000S),
       f(traj.validToTtJ2000S),
-      'shorten the window (--from/--to or window:) to the source span',
+      fix,
     );
   }
 }
+
+/** The span an orbit must cover: the window, widened to hold the clock epoch (the clock is integrated from it). */
+export function spanWithClockEpoch(from: number, to: number, params: OscillatorParams | null): { fromTtJ2000S: number; toTtJ2000S: number } {
+  if (params === null) return { fromTtJ2000S: from, toTtJ2000S: to };
+  return { fromTtJ2000S: Math.min(from, params.epochTtJ2000S), toTtJ2000S: Math.max(to, params.epochTtJ2000S + 1) };
+}
+
+/** Longest window or horizon handled in one run [days]; memory grows linearly with it. */
+export const MAX_WINDOW_DAYS = 3660;
 
 export function loadScenarioContext(path: string, ts: TimeSystem, sel: ScenarioSelection): ScenarioContext {
   const scenario = loadScenario(path, ts);
   const gravity = gravityModel(scenario.gravity, `${path} gravity`);
   const from = sel.from === undefined ? scenario.window.start.ttJ2000S : ts.parse(sel.from, '--from').ttJ2000S;
   let to = sel.to === undefined ? scenario.window.end.ttJ2000S : ts.parse(sel.to, '--to').ttJ2000S;
-  if (sel.horizonS !== undefined) to = from + sel.horizonS;
+  if (sel.horizonS !== undefined) {
+    if (sel.horizonS / 86400 > MAX_WINDOW_DAYS) throw new InputError(`horizon of ${(sel.horizonS / 86400).toFixed(0)} days exceeds the ${MAX_WINDOW_DAYS}-day limit`, '--horizon', 'plan in pieces of at most 10 years');
+    to = from + sel.horizonS;
+  }
   if (!(to > from)) throw new InputError('the window ends before it starts', sel.to !== undefined ? '--to' : sel.from !== undefined ? '--from' : `${path} window`, 'give an end after the start');
+  if (sel.horizonS === undefined && (to - from) / 86400 > MAX_WINDOW_DAYS) {
+    throw new InputError(`window of ${((to - from) / 86400).toFixed(0)} days exceeds the ${MAX_WINDOW_DAYS}-day limit`, sel.to !== undefined ? '--to' : `${path} window`, 'plan in pieces of at most 10 years');
+  }
   const satellites = pick(scenario.satellites, sel.sat, (s) => [s.id, ...(s.name === null ? [] : [s.name])], '--sat', 'satellite');
   const stationSpecs = pick(scenario.stations, sel.station, (s) => [s.id], '--station', 'station');
   const runs = satellites.map((sat) => {
-    const resolved = trajectoryForSatellite(sat, scenario, ts, gravity, { fromTtJ2000S: from, toTtJ2000S: to });
-    checkWindowInSpan(resolved.trajectory, from, to, ts, `${path} ${sat.path}`);
     const params = oscillatorParams(sat.clock);
-    if (params !== null) checkWindowInSpan(resolved.trajectory, Math.min(from, params.epochTtJ2000S), Math.max(to, params.epochTtJ2000S), ts, `${path} ${sat.path}.clock.epoch`);
-    return prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, params, from, to);
+    const resolved = trajectoryForSatellite(sat, scenario, ts, gravity, spanWithClockEpoch(from, to, params));
+    checkWindowInSpan(resolved.trajectory, from, to, ts, `${path} ${sat.path}`);
+    if (params !== null) checkWindowInSpan(resolved.trajectory, Math.min(from, params.epochTtJ2000S), Math.max(to, params.epochTtJ2000S), ts, `${path} ${sat.path}.clock.epoch`, 'give a clock epoch inside the orbit source span (the clock is integrated from it)');
+    // An orbit that fails inside the window (an SGP4 decay) is reported up to the failure.
+    const { endTtJ2000S, failure } = usableEnd(resolved.trajectory, from, to);
+    if (failure !== null && endTtJ2000S - from < 60) throw failure;
+    const run = prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, params, from, endTtJ2000S);
+    if (failure === null) return run;
+    const at = ts.format(Instant.fromTtJ2000S(endTtJ2000S));
+    const reason = failure instanceof InputError ? failure.what : String(failure);
+    return { ...run, endTtJ2000S, note: `${sat.id}: ${reason} after ${at}; reported up to then` };
   });
   const stations: Station[] = stationSpecs.map((s) => ({ id: s.id, latDeg: s.latDeg, lonDeg: s.lonDeg, heightM: s.heightM, geoidHeightM: s.geoidHeightM, maskDeg: s.maskDeg, minPassS: s.minPassS }));
   return { scenario, ts, gravity, fromTtJ2000S: from, toTtJ2000S: to, runs, stations, gmstRadAt: (t) => gmstRadAtTt(ts, t), satellites };

@@ -54,6 +54,8 @@ export interface FitOptions {
   periodicNs?: (ttJ2000S: number) => number;
   /** Relative tolerance for "evenly spaced" in the stability table (default 1e-3). */
   spacingRelTol?: number;
+  /** Name of the measurement file, for the location in error messages (default `measurements`). */
+  sourceName?: string;
 }
 
 /** A row left out by sigma clipping. */
@@ -152,15 +154,17 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
   if (Number.isNaN(clip) || clip < 0) throw new InputError(`clip ${clip}`, '--clip', 'give a number of sigmas ≥ 0 (0 disables clipping)');
   const clipOn = clip > 0 && Number.isFinite(clip);
   const maxIterations = options.maxClipIterations ?? 20;
+  const source = options.sourceName ?? 'measurements';
   if (rows.length < p) {
-    throw new InputError(`${rows.length} measurement rows for a degree-${degree} fit`, 'measurements', `give at least ${p} rows, or lower --degree`);
+    const lastLine = rows.length > 0 ? rows[rows.length - 1].line : 1;
+    throw new InputError(`${rows.length} measurement rows for a degree-${degree} fit`, `${source}:${lastLine}, --degree`, `give at least ${p} rows, or lower --degree`);
   }
   const withSigma = rows[0].sigmaNs !== null;
   if (rows.some((r) => (r.sigmaNs !== null) !== withSigma)) {
-    throw new InputError('some rows have sigmaNs and some do not', 'measurements', 'give sigmaNs on every row or on none');
+    throw new InputError('some rows have sigmaNs and some do not', source, 'give sigmaNs on every row or on none');
   }
   for (let i = 1; i < rows.length; i++) {
-    if (!(rows[i].ttJ2000S > rows[i - 1].ttJ2000S)) throw new InputError(`row at line ${rows[i].line} is not later than line ${rows[i - 1].line}`, 'measurements', 'sort the rows by time, one per instant');
+    if (!(rows[i].ttJ2000S > rows[i - 1].ttJ2000S)) throw new InputError(`row at line ${rows[i].line} is not later than line ${rows[i - 1].line}`, source, 'sort the rows by time, one per instant');
   }
   const epochTt = options.epochTtJ2000S ?? rows[0].ttJ2000S;
   assertFinite(epochTt, 'fit epoch');
@@ -186,7 +190,7 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
     if (usedIdx.length < p) {
       throw new InputError(
         `clipping at ${clip}σ left ${usedIdx.length} rows for a degree-${degree} fit`,
-        'measurements',
+        source,
         `check the rejected rows, raise --clip, or use --clip 0 to keep every row`,
       );
     }

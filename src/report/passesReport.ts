@@ -8,6 +8,8 @@ import { fixed, signed, textTable } from './format.ts';
 
 export interface PassesMeta {
   scenario: string;
+  /** Satellites whose orbit source failed inside the window (reported up to the failure). */
+  notes: string[];
   fromTtJ2000S: number;
   toTtJ2000S: number;
   reference: string;
@@ -53,6 +55,7 @@ export function passesToJson(rows: PassClockRow[], meta: PassesMeta, ts: TimeSys
     reference: meta.reference,
     gravity: meta.gravity,
     caution: PLANNING_CAUTION,
+    notes: meta.notes,
     passes: rows.map((r) => passToJson(r, ts)),
   };
 }
@@ -79,6 +82,7 @@ export function passesToText(rows: PassClockRow[], meta: PassesMeta, ts: TimeSys
   out.push(`Pass schedule with onboard clock offsets — ${meta.scenario}`);
   out.push(`Window ${utc(ts, meta.fromTtJ2000S)} to ${utc(ts, meta.toTtJ2000S)}; offsets are onboard reading minus ${meta.reference} time [ns], free running; gravity model ${meta.gravity}.`);
   out.push(`${rows.length} passes. Times UTC; GPS week/seconds of week at AOS. * = cut by the window.`);
+  for (const n of meta.notes) out.push(`NOTE: ${n}`);
   out.push('');
   const stations = [...new Set(rows.map((r) => r.stationId))].sort();
   for (const st of stations) {

@@ -9,6 +9,8 @@ import { sci, signed } from './format.ts';
 
 export interface ResetsMeta {
   scenario: string;
+  /** Satellites whose orbit source failed inside the horizon (reported up to the failure). */
+  notes: string[];
   fromTtJ2000S: number;
   toTtJ2000S: number;
   reference: string;
@@ -34,6 +36,7 @@ export function resetsToJson(plans: SatelliteResetPlan[], meta: ResetsMeta, ts: 
     reference: meta.reference,
     policy: { marginNs: meta.marginNs, leadTimeS: meta.leadTimeS, prefer: meta.prefer },
     predictionRule: PREDICTION_RULE_TEXT,
+    notes: meta.notes,
     caution: PLANNING_CAUTION,
     satellites: plans.map((p) => ({
       satellite: p.satellite,
@@ -81,6 +84,7 @@ export function resetsToText(plans: SatelliteResetPlan[], meta: ResetsMeta, ts: 
   out.push(`Horizon ${utc(ts, meta.fromTtJ2000S)} to ${utc(ts, meta.toTtJ2000S)}; offsets against ${meta.reference} [ns].`);
   out.push(`Policy: adjust in the last pass ending ${meta.marginNs} ns before the limit (earliest edge of the 95 % band) and ${(meta.leadTimeS / 3600).toFixed(1)} h ahead; preferred action: ${meta.prefer}.`);
   out.push(`Band rule: ${PREDICTION_RULE_TEXT}.`);
+  for (const n of meta.notes) out.push(`NOTE: ${n}`);
   out.push('');
   for (const p of plans) {
     out.push(`${p.satellite} — keep-in ±${p.limitNs} ns`);

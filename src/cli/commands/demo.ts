@@ -34,7 +34,7 @@ export function runDemo(a: { out: string; quiet: boolean }, ts: TimeSystem): voi
   const scenarioPath = dataPath('demo/tessera.yaml');
   const ctx = loadScenarioContext(scenarioPath, ts, {});
   const passes = planPasses(ctx.runs, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
-  const passMeta = { scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, gravity: ctx.gravity.name };
+  const passMeta = { notes: ctx.runs.flatMap((r) => (r.note === null ? [] : [r.note])), scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, gravity: ctx.gravity.name };
   const resets = computeResets({ scenario: scenarioPath }, ts);
   const sizes = ctx.runs.map((run) => sizeClock({ trajectory: run.trajectory, gravity: ctx.gravity, fromTtJ2000S: ctx.fromTtJ2000S, spanS: 86400, nominalHz: 10.23e6 }));
   const fit = computeFit({ measurements: dataPath('demo/tsr1-offsets.csv'), degree: 1, scenario: scenarioPath, sat: 'TSR-1', clip: 4 }, ts);

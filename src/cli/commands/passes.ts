@@ -27,7 +27,7 @@ export interface PassesArgs {
 export function runPasses(a: PassesArgs, ts: TimeSystem): Rendered {
   const ctx = loadScenarioContext(a.scenario, ts, a);
   const plan = planPasses(ctx.runs, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
-  const meta = { scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, gravity: ctx.gravity.name };
+  const meta = { notes: ctx.runs.flatMap((r) => (r.note === null ? [] : [r.note])), scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, gravity: ctx.gravity.name };
   return {
     json: () => passesToJson(plan.rows, meta, ts),
     csv: () => passesToCsv(plan.rows, ts),

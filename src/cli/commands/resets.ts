@@ -53,14 +53,14 @@ export function computeResets(a: ResetsArgs, ts: TimeSystem): ResetsOutcome {
       noise: run.clock.params?.noise ?? null,
       policy: { marginNs: policy.marginNs, leadTimeS: policy.leadTimeS ?? 0, prefer: policy.prefer },
       fromTtJ2000S: ctx.fromTtJ2000S,
-      toTtJ2000S: ctx.toTtJ2000S,
+      toTtJ2000S: Math.min(ctx.toTtJ2000S, run.endTtJ2000S),
       periodS: Number.isFinite(run.orbit.periodS) ? run.orbit.periodS : 86400,
       contacts: passes.rows
         .filter((p) => p.satelliteId === run.id && p.durationS >= (minPass.get(p.stationId) ?? 0))
         .map((p) => ({ station: p.stationId, aosTtJ2000S: p.aosTtJ2000S, tcaTtJ2000S: p.tcaTtJ2000S, losTtJ2000S: p.losTtJ2000S })),
     }),
   );
-  const meta: ResetsMeta = { scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, marginNs: policy.marginNs, leadTimeS: policy.leadTimeS ?? 0, prefer: policy.prefer };
+  const meta: ResetsMeta = { notes: ctx.runs.flatMap((r) => (r.note === null ? [] : [r.note])), scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, marginNs: policy.marginNs, leadTimeS: policy.leadTimeS ?? 0, prefer: policy.prefer };
   return { ctx, plans, meta };
 }
 
