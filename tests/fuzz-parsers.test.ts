@@ -111,7 +111,7 @@ const run = <T>(prop: fc.IProperty<T>, numRuns = RUNS): void => fc.assert(prop, 
 /** Characters a careless edit, an encoding mix-up or a hostile file may bring in. */
 const ODD_CHARS = ['0', '1', '5', '9', '-', '+', '.', ',', ' ', '\t', '\r', '\n', 'e', 'E', 'Z', 'T', ':', '"', "'", '#', '[', ']', '{', '}', '<', '>', '&', '*', '!', '|', '\\', '\u0000', '\u00a0', '\u00e9', '\u2028', '\ufeff', '\u{1F6F0}'];
 /** Whole tokens worth splicing in, mostly numbers a parser could mistake for valid ones. */
-const ODD_TOKENS = ['NaN', 'Infinity', '-Infinity', '-0', '0', '1e999', '-1e308', '9'.repeat(40), '0x10', '1_000', '.5', '5.', '1e-400', 'null', 'true', '~', '&a', '*a', '\r\n', '  ', '\t\t', '60', '99', '366', '23:59:60', '2016-12-31', '1969-12-31', '9999-12-31', 'GPS', 'UTC', 'TT', 'Q'];
+const ODD_TOKENS = ['NaN', 'Infinity', '-Infinity', '-0', '0', '1e999', '-1e308', '9'.repeat(40), '0x10', '1_000', '.5', '5.', '1e-400', 'null', 'true', '~', '&a', '*a', '\r\n', '  ', '\t\t', '60', '99', '366', '23:59:60', '2016-12-31', '1969-12-31', '9999-12-31', 'GPS', 'UTC', 'TT', 'Q', ' '.repeat(2000), '9'.repeat(2000)];
 
 type Op =
   | { kind: 'flip'; at: number; char: string }
@@ -385,6 +385,36 @@ describe('the invented seeds parse', () => {
 });
 
 // ---------------------------------------------------------------------------------------------
+// Long runs: a regex that backtracks polynomially shows up only on long inputs
+
+describe('long runs of one character finish quickly in every parser', () => {
+  /**
+   * Run lengths [characters], shortest first: at 50 000 quadratic backtracking takes seconds while
+   * linear code takes ~1 ms; the 1000 pass comes first so that cubic backtracking (which would
+   * never finish at 50 000, and a synchronous hang cannot be interrupted) already fails there.
+   */
+  const RUN_LENGTHS = [1000, 50_000];
+  const runs = RUN_LENGTHS.flatMap((n) => [' ', '9', '[', '\t', 'a', '.', '-', '"', '{', '<a>'].map((c) => c.repeat(n / c.length)));
+  const wrap = (r: string): string[] => [r, `${r}x`, `A${r}x`, `A = a${r}b`, `A = a${r}[${r}x`, `1 ${r}x`, `${r}\n${r}x`, `MJD 1.${r}x`, `GPSW 1${r}2${r}x`];
+  const parsers: [string, (t: string) => unknown][] = [
+    ['parseTleFile', (t) => parseTleFile(t, 'fuzz.tle')],
+    ['parseOmmFile', (t) => parseOmmFile(t, 'fuzz.omm')],
+    ['parseOmmFile XML', (t) => parseOmmFile(`<omm><EPOCH>${t}</EPOCH></omm>`, 'fuzz.xml')],
+    ['parseOmmFile JSON', (t) => parseOmmFile(JSON.stringify({ ...OMM_OBJECT, MEAN_MOTION: t }), 'fuzz.json')],
+    ['parseScenarioText YAML', (t) => parseScenarioText(`window: ${JSON.stringify(t)}\nx${t}: 1`, 'fuzz.yaml', ts)],
+    ['parseScenarioText JSON', (t) => parseScenarioText(JSON.stringify({ ...SCENARIO_OBJECT, name: t, policy: { horizon: t } }), 'fuzz.json', ts)],
+    ['parseMeasurementsCsv', (t) => parseMeasurementsCsv(`time,offsetNs\n2027-03-01T00:00:00Z,${t}\n${t},1`, 'fuzz.csv', ts)],
+    ['TimeSystem.parse', (t) => ts.parse(t, 'fuzz')],
+    ['parseDurationS', (t) => parseDurationS(t, 'fuzz')],
+  ];
+  for (const [name, parse] of parsers) {
+    it(name, () => {
+      for (const r of runs) for (const text of wrap(r)) returnsOrInputError(`${name}(${JSON.stringify(text.slice(0, 30))}… ${text.length} chars)`, () => parse(text), () => undefined);
+    });
+  }
+});
+
+// ---------------------------------------------------------------------------------------------
 // TLE
 
 /** Re-compute column 69 of every 69-character element line, so mutations get past the checksum. */
@@ -654,6 +684,9 @@ describe('parseSp3 (src/io/sp3.ts)', () => {
   });
   it('random text', () => run(fc.property(randomText, (t) => call(`#dP${t}`))));
   it('mutated valid files', () => run(fc.property(mutationsOf(SP3_SEEDS), call), 500));
+  it('long runs of one character', () => {
+    for (const c of [' ', '9', '.', '-', 'P']) call(SP3_SEEDS[0].replace('PX01', `PX01${c.repeat(50_000)}`));
+  });
   it('one data or header field replaced by an odd token', () =>
     run(
       fc.property(fc.constantFrom(...SP3_SEEDS), fc.nat(), fc.integer({ min: 0, max: 79 }), fc.integer({ min: 1, max: 14 }), fc.constantFrom(...ODD_TOKENS, '999999.999999', '0.000000', '-0.000000', '99999999999999', '   ', 'E', 'M', 'P', 'GLO', 'UTC', 'X99', '  1'), (seed, lineAt, col, len, token) => {

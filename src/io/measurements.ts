@@ -35,7 +35,7 @@ export interface Measurements {
 const HEADER_2 = 'time,offsetNs';
 const HEADER_3 = 'time,offsetNs,sigmaNs';
 /** A plain decimal or exponent number; refuses `''`, `0x10`, `Infinity` that `Number()` would take. */
-const NUMBER_RE = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+const NUMBER_RE = /^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?$/; // no `\d+\.?\d*`: quadratic on long digit runs
 
 interface CsvRecord {
   record: string[];

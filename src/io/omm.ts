@@ -115,12 +115,11 @@ function parseKvn(text: string, fileName: string): OmmRecord[] {
     const line = lines[i].replace(/\r$/, '').trim();
     const lineNo = i + 1;
     if (line === '' || line.startsWith('COMMENT')) continue;
-    const m = /^([A-Z][A-Z0-9_]*)\s*=\s*(.*?)\s*(\[[^\]]*\])?\s*$/.exec(line);
+    const m = splitKvnLine(line);
     if (m === null) {
       throw new OrbitFileError(`cannot read OMM line ${JSON.stringify(line.slice(0, 40))}`, fileName, lineNo, 1, 'KVN lines are "KEYWORD = value" (an optional [unit] after the value), COMMENT lines or blank');
     }
-    const key = m[1];
-    const value = m[2];
+    const { key, value } = m;
     if (key === 'CCSDS_OMM_VERS' || current === null) {
       current = { keywords: {}, lineOf: {}, startLine: lineNo };
       messages.push(current);
@@ -135,6 +134,25 @@ function parseKvn(text: string, fileName: string): OmmRecord[] {
   return messages.map((msg) =>
     ommFromKeywords(msg.keywords, (key) => `${fileName}:${key !== null && key in msg.lineOf ? msg.lineOf[key] : msg.startLine}`),
   );
+}
+
+/**
+ * `KEYWORD = value [unit]` → keyword and value (trimmed, unit dropped); null when not of that form.
+ * Done by hand: the one-regex form `(.*?)\s*(\[[^\]]*\])?\s*$` backtracks in cubic time on a long
+ * run of spaces inside a value (800 spaces took over a second).
+ */
+function splitKvnLine(line: string): { key: string; value: string } | null {
+  const m = /^([A-Z][A-Z0-9_]*)\s*=/.exec(line);
+  if (m === null) return null;
+  let value = line.slice(m[0].length).trim();
+  if (value.endsWith(']')) {
+    // The unit is the earliest "[" after the last "]" before the closing one.
+    const close = value.length - 1;
+    const open = value.indexOf('[', value.lastIndexOf(']', close - 1) + 1);
+    if (open >= 0 && open < close) value = value.slice(0, open).trimEnd();
+  }
+  if (/[\r\n\u2028\u2029]/.test(value)) return null; // a value is one line
+  return { key: m[1], value };
 }
 
 function parseXml(text: string, fileName: string): OmmRecord[] {
@@ -221,7 +239,7 @@ function ommFromKeywords(kw: Record<string, string>, at: Locate): OmmRecord {
       return fallback;
     }
     const x = Number(v);
-    if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(v) || !Number.isFinite(x)) {
+    if (!/^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/.test(v) || !Number.isFinite(x)) {
       throw new InputError(`${key} ${JSON.stringify(v)} is not a number`, at(key), `write ${key} as a decimal number, e.g. ${keywordExample(key)}`);
     }
     return x;

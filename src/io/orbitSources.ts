@@ -154,6 +154,10 @@ export function trajectoryForSatellite(sat: SatelliteSpec, scenario: ScenarioSpe
     }
     case 'sp3': {
       const file = readSp3(o.resolvedFile, `${scenario.fileName} ${sat.path}.orbit.sp3.file`);
+      if (!file.satelliteIds.includes(o.id)) {
+        const ids = file.satelliteIds.slice(0, 12).join(', ');
+        throw new InputError(`satellite ${JSON.stringify(o.id)} is not in ${o.file}`, `${scenario.fileName} ${sat.path}.orbit.sp3.id`, `use an id from the file's "+" list: ${ids}`);
+      }
       return { trajectory: new Sp3Trajectory(file, o.id, ts), name };
     }
   }

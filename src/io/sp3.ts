@@ -278,7 +278,11 @@ export function parseSp3(text: string, fileName: string): Sp3File {
       eofLine = i;
       break;
     }
-    if (line.trim() === '') fail('blank line in the data section', i, 1, 'remove blank lines before "EOF"');
+    if (line.trim() === '') {
+      // Only blank lines left: the file ends without EOF (truncated), reported below.
+      if (lines.slice(i).every((l) => l.trim() === '')) break;
+      fail('blank line in the data section', i, 1, 'remove blank lines before "EOF"');
+    }
     if (line.startsWith('*')) {
       const civil = civilAt(lines, i, 4, fail, intAt, floatAt, line[1] === ' ' ? null : 2);
       if (civil.second >= 60 && ts.scale !== 'UTC') fail(`second ${civil.second} in a uniform time scale`, i, 21, 'seconds run 0–59.99999999');

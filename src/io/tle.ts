@@ -156,7 +156,7 @@ export function parseTleFile(text: string, fileName: string): TleRecord[] {
     if (tab >= 0) {
       throw new OrbitFileError('tab character in an element set file', fileName, i + 1, tab + 1, 'replace tabs by spaces; TLE fields are fixed columns');
     }
-    const kept = raw.replace(/\s+$/, '');
+    const kept = raw.trimEnd(); // same as replace(/\s+$/, ''), without its quadratic backtracking
     // A stray CR or other control character would otherwise be echoed into a one-line message.
     const ctrl = kept.search(/[\u0000-\u001f\u007f]/);
     if (ctrl >= 0) {

@@ -5,6 +5,7 @@ import { InputError } from '../../errors.ts';
 import { loadScenario, scenarioSatellite } from '../../io/loadScenario.ts';
 import { parseMeasurementsCsv } from '../../io/measurements.ts';
 import { readTextFile, trajectoryForSatellite } from '../../io/orbitSources.ts';
+import { updateScenarioClock } from '../../io/updateScenario.ts';
 import { NumericalTrajectory } from '../../orbit/numerical.ts';
 import { gmstRadAtTt } from '../../orbit/sp3.ts';
 import { compareClocks, type CompareSatellite } from '../../plan/compare.ts';
@@ -22,7 +23,7 @@ import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
 import { compareSection, fitSection, page, sweepSection, windowMeta } from '../../report/htmlReport.ts';
 import { orbitFromFlags } from '../orbitArgs.ts';
-import { oscillatorParams } from '../scenarioContext.ts';
+import { checkWindowInSpan, oscillatorParams, spanWithClockEpoch } from '../scenarioContext.ts';
 
 // ---- compare ----------------------------------------------------------------------------------
 
@@ -140,8 +141,11 @@ export function runTrack(a: TrackArgs, ts: TimeSystem): Rendered {
     from = a.from === undefined ? scenario.window.start.ttJ2000S : ts.parse(a.from, '--from').ttJ2000S;
     to = a.to === undefined ? scenario.window.end.ttJ2000S : ts.parse(a.to, '--to').ttJ2000S;
     if (!(to > from)) throw new InputError('the span ends before it starts', '--to', 'give an end after the start');
-    const resolved = trajectoryForSatellite(sat, scenario, ts, gravity, { fromTtJ2000S: from, toTtJ2000S: to });
     const params = oscillatorParams(sat.clock);
+    const resolved = trajectoryForSatellite(sat, scenario, ts, gravity, spanWithClockEpoch(from, to, params));
+    const satPath = `${a.scenario} ${sat.path}`;
+    checkWindowInSpan(resolved.trajectory, from, to, ts, satPath);
+    if (params !== null) checkWindowInSpan(resolved.trajectory, Math.min(from, params.epochTtJ2000S), Math.max(to, params.epochTtJ2000S), ts, `${satPath}.clock.epoch`, 'give a clock epoch inside the orbit source span (the clock is integrated from it)');
     run = prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, params, from, to);
   } else {
     const gravity = gravityModel(a.gravity ?? 'zonal', '--gravity');
@@ -169,7 +173,8 @@ export function fitOptions<T>(y: Argv<T>) {
     .option('scenario', { type: 'string', describe: 'scenario whose satellite orbit gives the relativistic periodic term to remove' })
     .option('sat', { type: 'string', describe: 'satellite id in the scenario' })
     .option('clip', { type: 'number', default: 4, describe: 'sigma-clipping threshold (0 disables)' })
-    .option('epoch', { type: 'string', describe: 'epoch the parameters refer to (default: first sample)' });
+    .option('epoch', { type: 'string', describe: 'epoch the parameters refer to (default: first sample)' })
+    .option('update-scenario', { type: 'string', describe: 'write the fitted clock block of --sat into this scenario file (atomically)' });
 }
 
 export interface FitArgs {
@@ -179,6 +184,7 @@ export interface FitArgs {
   sat?: string;
   clip: number;
   epoch?: string;
+  updateScenario?: string;
 }
 
 export function computeFit(a: FitArgs, ts: TimeSystem) {
@@ -186,7 +192,11 @@ export function computeFit(a: FitArgs, ts: TimeSystem) {
   if (!(a.clip >= 0)) throw new InputError(`--clip ${a.clip} is negative`, '--clip', 'give a threshold ≥ 0 (0 disables clipping)');
   if (a.sat !== undefined && a.scenario === undefined) throw new InputError('--sat without --scenario', '--sat', 'give --scenario FILE too');
   const data = parseMeasurementsCsv(readTextFile(a.measurements, 'measurements'), a.measurements, ts);
+  if (a.updateScenario !== undefined && (a.scenario === undefined || a.sat === undefined)) {
+    throw new InputError('--update-scenario needs --scenario and --sat', '--update-scenario', 'give the scenario and satellite whose orbit the measurements belong to');
+  }
   let periodicNs: ((t: number) => number) | undefined;
+  let meanRelativistic = 0;
   if (a.scenario !== undefined) {
     const scenario = loadScenario(a.scenario, ts, '--scenario');
     const gravity = gravityModel(scenario.gravity, `${a.scenario} gravity`);
@@ -207,18 +217,31 @@ export function computeFit(a: FitArgs, ts: TimeSystem) {
     const xc = Float64Array.from(data.rows, (r, i) => run.clock.relativisticNs(r.ttJ2000S) - 1e9 * conventionalPeriodicS(p[3 * i], p[3 * i + 1], p[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]));
     const line = t.length >= 2 && t[t.length - 1] > t[0] ? lineFit(t, xc) : { slope: 0, intercept: xc[0], tMean: t[0] };
     periodicNs = (tt) => run.clock.relativisticNs(tt) - (line.intercept + line.slope * (tt - line.tMean));
+    meanRelativistic = line.slope * 1e-9;
   }
-  return fitClock(data.rows, {
+  const result = fitClock(data.rows, {
     degree: a.degree,
     timeSystem: ts,
     clipSigma: a.clip,
+    sourceName: a.measurements,
     ...(a.epoch === undefined ? {} : { epochTtJ2000S: ts.parse(a.epoch, '--epoch').ttJ2000S }),
     ...(periodicNs === undefined ? {} : { periodicNs }),
   });
+  return { result, meanRelativistic };
 }
 
 export function runFit(a: FitArgs, ts: TimeSystem): Rendered {
-  const result = computeFit(a, ts);
+  const { result, meanRelativistic } = computeFit(a, ts);
+  if (a.updateScenario !== undefined) {
+    if (result.fractionalFrequency === null) throw new InputError('a degree-0 fit has no frequency to write', '--degree', 'use --degree 1 or 2 with --update-scenario');
+    // The scenario's model adds relativity itself, so the hardware offset is the fit minus its mean.
+    updateScenarioClock(a.updateScenario, a.sat as string, {
+      epoch: result.epoch,
+      offsetNs: result.offsetNs,
+      hardwareFractionalOffset: result.fractionalFrequency - meanRelativistic,
+      ...(result.driftPerDay === null ? {} : { agingPerDay: result.driftPerDay }),
+    }, ts);
+  }
   return {
     json: () => fitToJson(result),
     csv: () => fitToCsv(result),

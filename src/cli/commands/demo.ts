@@ -37,7 +37,7 @@ export function runDemo(a: { out: string; quiet: boolean }, ts: TimeSystem): voi
   const passMeta = { notes: ctx.runs.flatMap((r) => (r.note === null ? [] : [r.note])), scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, gravity: ctx.gravity.name };
   const resets = computeResets({ scenario: scenarioPath }, ts);
   const sizes = ctx.runs.map((run) => sizeClock({ trajectory: run.trajectory, gravity: ctx.gravity, fromTtJ2000S: ctx.fromTtJ2000S, spanS: 86400, nominalHz: 10.23e6 }));
-  const fit = computeFit({ measurements: dataPath('demo/tsr1-offsets.csv'), degree: 1, scenario: scenarioPath, sat: 'TSR-1', clip: 4 }, ts);
+  const { result: fit } = computeFit({ measurements: dataPath('demo/tsr1-offsets.csv'), degree: 1, scenario: scenarioPath, sat: 'TSR-1', clip: 4 }, ts);
   const compare = computeCompare({ scenario: scenarioPath }, ts);
   const sweep = computeSweep({ fromKm: 300, toKm: 40000, points: 120, e: 0, iDeg: 55, gravity: ctx.gravity.name, epoch: '2027-01-04T00:00:00Z' }, ts);
 

@@ -71,8 +71,20 @@ interface Sink {
   finish(): void;
 }
 
+let epipeHooked = false;
+
 function openSink(out: string | undefined): Sink {
-  if (out === undefined) return { write: (t) => void process.stdout.write(t), finish: () => undefined };
+  if (out === undefined) {
+    // A reader that stops early (`| head`) ends the run quietly, as other streaming tools do.
+    if (!epipeHooked) {
+      epipeHooked = true;
+      process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+        if (e.code === 'EPIPE') process.exit(0);
+        throw e;
+      });
+    }
+    return { write: (t) => void process.stdout.write(t), finish: () => undefined };
+  }
   const tmp = reserveTemp(out);
   let fd: number;
   try {
