@@ -4,12 +4,12 @@
  * sensitivity to the orbit. Contract: `tauplan size`.
  */
 import { InternalError } from '../errors.ts';
-import { integrateAlong, clockStepS } from '../clock/integrate.ts';
+import { clockStepS, GAUSS_POINTS_PER_STEP, integrateAlong } from '../clock/integrate.ts';
 import { potentialM2PerS2, type GravityModel } from '../clock/gravity.ts';
-import { conventionalPeriodicS, fractionalOffset, SPEED_OF_LIGHT_SQUARED_M2_PER_S2 as C2 } from '../clock/rate.ts';
+import { conventionalPeriodicS, SPEED_OF_LIGHT_SQUARED_M2_PER_S2 as C2 } from '../clock/rate.ts';
 import { IERS2010_L_G, SECONDS_PER_DAY } from '../constants.ts';
 import { elementsFromState } from '../orbit/keplerian.ts';
-import { allocStateBlock, type Trajectory } from '../orbit/trajectory.ts';
+import type { Trajectory } from '../orbit/trajectory.ts';
 
 export interface SizeRequest {
   trajectory: Trajectory;
@@ -73,34 +73,43 @@ interface Core {
 function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS: number, orbit: OrbitSummary): Core {
   const stepS = clockStepS(orbit.periodS, orbit.e);
   const gm = gravity.gmM3PerS2;
-  const [total, grav, vel] = integrateAlong(traj, fromTt, fromTt + spanS, stepS, [
-    (x, y, z, vx, vy, vz) => fractionalOffset(gravity, x, y, z, vx, vy, vz),
-    (x, y, z) => IERS2010_L_G - potentialM2PerS2(gravity, x, y, z) / C2,
-    (_x, _y, _z, vx, vy, vz) => (-0.5 * (vx * vx + vy * vy + vz * vz)) / C2,
-  ]);
-  // Uniform grid for the line fit and the periodic amplitudes: 4 points per integration step.
-  const m = total.stepCount * 4 + 1;
-  const t = new Float64Array(m);
-  for (let i = 0; i < m; i++) t[i] = fromTt + (spanS * i) / (m - 1);
-  const block = allocStateBlock(m);
-  traj.sampleInto(t, block);
-  const p = new Float64Array(m);
+  // The conventional term is taken at the integration nodes themselves: no second sampling.
+  const nodeCount = Math.max(1, Math.ceil(spanS / stepS - 1e-9)) * GAUSS_POINTS_PER_STEP;
+  const t = new Float64Array(nodeCount);
+  const p = new Float64Array(nodeCount);
+  let filled = 0;
+  const [grav, vel] = integrateAlong(
+    traj,
+    fromTt,
+    fromTt + spanS,
+    stepS,
+    [(x, y, z) => IERS2010_L_G - potentialM2PerS2(gravity, x, y, z) / C2, (_x, _y, _z, vx, vy, vz) => (-0.5 * (vx * vx + vy * vy + vz * vz)) / C2],
+    (times, block, count) => {
+      const r = block.positionM;
+      const v = block.velocityMPerS;
+      for (let i = 0; i < count; i++, filled++) {
+        t[filled] = times[i];
+        p[filled] = conventionalPeriodicS(r[3 * i], r[3 * i + 1], r[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]);
+      }
+    },
+  );
+  const total = grav.plus(vel);
+  const m = filled;
   const xt = new Float64Array(m);
   const xg = new Float64Array(m);
   const xv = new Float64Array(m);
   let pMin = Infinity;
   let pMax = -Infinity;
   for (let i = 0; i < m; i++) {
-    const r = block.positionM;
-    const v = block.velocityMPerS;
-    p[i] = conventionalPeriodicS(r[3 * i], r[3 * i + 1], r[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]);
     pMin = Math.min(pMin, p[i]);
     pMax = Math.max(pMax, p[i]);
-    xt[i] = total.integralAt(t[i]) - p[i];
+    const g = grav.integralAt(t[i]);
+    const v = vel.integralAt(t[i]);
+    xt[i] = g + v - p[i];
     // Each part carries half of the conventional term (exact for two-body motion, where both parts
     // share the periodic −GM/(rc²)), so the parts' slopes add up to the total's slope.
-    xg[i] = grav.integralAt(t[i]) - 0.5 * p[i];
-    xv[i] = vel.integralAt(t[i]) - 0.5 * p[i];
+    xg[i] = g - 0.5 * p[i];
+    xv[i] = v - 0.5 * p[i];
   }
   const lt = lineFit(t, xt);
   const lg = lineFit(t, xg);
@@ -122,7 +131,7 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
     residualAmplitudeS: (rMax - rMin) / 2,
     spanMean: total.total / spanS,
     stepS: total.stepS,
-    states: total.stepCount * 8 + m,
+    states: m,
   };
 }
 
