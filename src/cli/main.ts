@@ -4,7 +4,7 @@
  */
 import yargs, { type Argv } from 'yargs';
 import { InputError, InternalError } from '../errors.ts';
-import { defaultTimeSystem } from '../io/tables.ts';
+import { defaultTimeSystem, LEAP_SECONDS_ENV } from '../io/tables.ts';
 import { removePendingTemps } from '../io/output.ts';
 import { emit, OUTPUT_FORMATS, type OutputFormat } from './emit.ts';
 import { runTime } from './commands/time.ts';
@@ -25,7 +25,8 @@ function common<T>(y: Argv<T>) {
   return y
     .option('format', { type: 'string', choices: OUTPUT_FORMATS as OutputFormat[], default: 'text' as OutputFormat, describe: 'output format' })
     .option('out', { type: 'string', describe: 'write to this file (atomically) instead of stdout' })
-    .option('quiet', { type: 'boolean', default: false, describe: 'no progress or warnings on stderr' });
+    .option('quiet', { type: 'boolean', default: false, describe: 'no progress or warnings on stderr' })
+    .option('leap-seconds', { type: 'string', describe: 'leap-second table to use instead of the packaged one (IERS Leap_Second.dat)' });
 }
 
 function parser(args: string[]) {
@@ -123,11 +124,18 @@ function parser(args: string[]) {
 /** Run the CLI; returns the exit code. */
 export async function main(args: string[]): Promise<number> {
   try {
+    // The leap-second table is needed before the commands are parsed: take --leap-seconds first.
+    const leapIdx = args.findIndex((x) => x === '--leap-seconds' || x.startsWith('--leap-seconds='));
+    if (leapIdx >= 0) {
+      const value = args[leapIdx].includes('=') ? args[leapIdx].slice(args[leapIdx].indexOf('=') + 1) : args[leapIdx + 1];
+      if (value === undefined || value === '') throw new InputError('--leap-seconds needs a file', '--leap-seconds', 'give the path of an IERS Leap_Second.dat');
+      process.env[LEAP_SECONDS_ENV] = value;
+    }
     await parser(args).parseAsync();
     const leap = defaultTimeSystem().leap;
     if (leap.usedPastExpiry && !args.includes('--quiet')) {
       process.stderr.write(
-        `tauplan: warning: times past the leap-second table's expiry (${leap.expiresUtc}) assume no new leap second (data/leap-seconds.json) — update it from the latest IERS Bulletin C\n`,
+        `tauplan: warning: times past the leap-second table's expiry (${leap.expiresUtc}) assume no new leap second (${leap.source.startsWith('user file') ? leap.source.slice(10) : 'data/leap-seconds.json'}) — give a newer IERS Leap_Second.dat with --leap-seconds FILE\n`,
       );
     }
     return EXIT_OK;

@@ -1,6 +1,13 @@
-/** Loads the tables the core needs from `data/`. This is the only place they are read. */
+/**
+ * Loads the tables the core needs. This is the only place they are read.
+ * The leap-second table comes from `data/leap-seconds.json`, or from the file named by
+ * `--leap-seconds FILE` (the CLI puts it in TAUPLAN_LEAP_SECONDS so worker threads see it too):
+ * either our JSON form or the IERS `Leap_Second.dat` text as published with Bulletin C.
+ */
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
+import { InputError } from '../errors.ts';
+import { civilFromDays, MJD_OF_UNIX_EPOCH } from '../time/calendar.ts';
 import { LeapSecondTable, type LeapTableData } from '../time/leapSeconds.ts';
 import { TimeSystem } from '../time/timeSystem.ts';
 
@@ -9,13 +16,74 @@ export function dataPath(name: string): string {
   return fileURLToPath(new URL(`../../data/${name}`, import.meta.url));
 }
 
+/** Environment variable naming a leap-second file that replaces the packaged one. */
+export const LEAP_SECONDS_ENV = 'TAUPLAN_LEAP_SECONDS';
+
 let cached: TimeSystem | undefined;
 
-/** The time system built from `data/leap-seconds.json` (read once per process). */
+/** The time system (read once per process). */
 export function defaultTimeSystem(): TimeSystem {
   if (cached === undefined) {
-    const data = JSON.parse(readFileSync(dataPath('leap-seconds.json'), 'utf8')) as LeapTableData;
-    cached = new TimeSystem(new LeapSecondTable(data));
+    const path = process.env[LEAP_SECONDS_ENV];
+    cached = new TimeSystem(new LeapSecondTable(path === undefined || path === '' ? packagedTable() : readLeapFile(path)));
   }
   return cached;
+}
+
+function packagedTable(): LeapTableData {
+  return JSON.parse(readFileSync(dataPath('leap-seconds.json'), 'utf8')) as LeapTableData;
+}
+
+const MONTHS = ['january', 'february', 'march', 'april', 'may', 'june', 'july', 'august', 'september', 'october', 'november', 'december'];
+const pad2 = (n: number): string => String(n).padStart(2, '0');
+
+/** Read a user leap-second file: our JSON form, or IERS Leap_Second.dat. */
+export function readLeapFile(path: string): LeapTableData {
+  let text: string;
+  try {
+    text = readFileSync(path, 'utf8');
+  } catch (e) {
+    throw new InputError(`cannot read leap-second file ${path} (${(e as NodeJS.ErrnoException).code ?? 'error'})`, '--leap-seconds', 'give the path of an IERS Leap_Second.dat or a tauplan leap-seconds.json');
+  }
+  if (/^\s*\{/.test(text)) {
+    try {
+      const data = JSON.parse(text) as LeapTableData;
+      if (!Array.isArray(data.rows) || typeof data.expiresUtc !== 'string') throw new Error('shape');
+      return data;
+    } catch {
+      throw new InputError(`${path} is not a tauplan leap-second table`, '--leap-seconds', 'give JSON with "expiresUtc" and "rows", or an IERS Leap_Second.dat');
+    }
+  }
+  return parseIersLeapSecondDat(text, path);
+}
+
+/** IERS Leap_Second.dat: `#  File expires on 28 June 2027` and rows `MJD day month year TAI-UTC`. */
+export function parseIersLeapSecondDat(text: string, path: string): LeapTableData {
+  let expiresUtc: string | null = null;
+  const rows: [string, number][] = [];
+  const lines = text.split(/\r?\n/);
+  for (let i = 0; i < lines.length; i++) {
+    const line = lines[i].trim();
+    if (line === '') continue;
+    if (line.startsWith('#')) {
+      const m = /expires on\s+(\d{1,2})\s+([A-Za-z]+)\s+(\d{4})/i.exec(line);
+      if (m !== null) {
+        const month = MONTHS.indexOf(m[2].toLowerCase()) + 1;
+        if (month === 0) throw new InputError(`unknown month ${JSON.stringify(m[2])} in the expiry line`, `${path}:${i + 1}`, 'write the month in English, e.g. "28 June 2027"');
+        expiresUtc = `${m[3]}-${pad2(month)}-${pad2(Number(m[1]))}`;
+      }
+      continue;
+    }
+    const f = line.split(/\s+/);
+    const mjd = Number(f[0]);
+    const value = Number(f[4]);
+    if (f.length < 5 || !Number.isFinite(mjd) || !Number.isInteger(value)) {
+      throw new InputError(`cannot read leap-second row ${JSON.stringify(line)}`, `${path}:${i + 1}`, 'rows are "MJD day month year TAI-UTC", as in IERS Leap_Second.dat');
+    }
+    const { year, month, day } = civilFromDays(Math.round(mjd) - MJD_OF_UNIX_EPOCH);
+    rows.push([`${year}-${pad2(month)}-${pad2(day)}`, value]);
+  }
+  if (rows.length === 0) throw new InputError('no leap-second rows found', path, 'give an IERS Leap_Second.dat');
+  if (expiresUtc === null) throw new InputError('no "File expires on" line found', path, 'give the IERS Leap_Second.dat as published (it states its expiry)');
+  return { source: `user file ${path}`, expiresUtc, rows };
 }
