@@ -13,7 +13,9 @@ import { TimeSystem } from '../time/timeSystem.ts';
 
 /** Absolute path of a file in the package's `data/` folder. */
 export function dataPath(name: string): string {
-  return fileURLToPath(new URL(`../../data/${name}`, import.meta.url));
+  // From src/io/ the package root is two levels up; from the bundle in dist/ it is one.
+  const up = /\/dist\/[^/]*$/.test(import.meta.url) ? '../' : '../../';
+  return fileURLToPath(new URL(`${up}data/${name}`, import.meta.url));
 }
 
 /** Environment variable naming a leap-second file that replaces the packaged one. */

@@ -138,6 +138,8 @@ function jsonObject(o: CatalogueOutcome, sourceLabel: string, gravityName: strin
  * to the parent (bin/tauplan.mjs registers tsx) or `--import` in execArgv does not reach a worker on Node 20.
  */
 function startWorker(init: WorkerInit): Worker {
+  // Bundled (dist/): the worker has its own bundle and needs no loader.
+  if (/\/dist\/[^/]*$/.test(import.meta.url)) return new Worker(new URL('./sizeWorker.mjs', import.meta.url), { workerData: init });
   const tsxApi = import.meta.resolve('tsx/esm/api');
   const workerModule = new URL('../sizeWorker.ts', import.meta.url).href;
   const boot = `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(workerModule)}); });`;
