@@ -11,7 +11,8 @@
  */
 import { writeFileSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
-import { formatTleLine } from '../src/io/tle.ts';
+import { buildTleLines } from '../src/io/tleBuild.ts';
+import { mulberry32 as rng } from './prng.ts';
 
 /** Options of {@link makeCatalogue}. */
 export interface CatalogueOptions {
@@ -21,39 +22,6 @@ export interface CatalogueOptions {
   seed?: number;
   /** How many objects to make decay within the first day (default 0). */
   decaying?: number;
-}
-
-/** mulberry32: a small, fixed, well-mixed 32-bit generator; returns numbers in [0, 1). */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-const fix = (v: number, width: number, decimals: number): string => v.toFixed(decimals).padStart(width, ' ');
-
-/** TLE assumed-decimal exponent field, e.g. 2.8098e-5 → " 28098-4" (8 characters). */
-function expField(v: number): string {
-  if (v === 0) return ' 00000-0';
-  const sign = v < 0 ? '-' : ' ';
-  let e = Math.floor(Math.log10(Math.abs(v))) + 1;
-  let digits = Math.round((Math.abs(v) / 10 ** e) * 1e5);
-  if (digits >= 100000) {
-    digits = 10000;
-    e += 1;
-  }
-  if (Math.abs(e) > 9) throw new RangeError(`exponent of ${v} does not fit one digit`);
-  return `${sign}${String(digits).padStart(5, '0')}${e < 0 ? '-' : '+'}${Math.abs(e)}`;
-}
-
-/** First derivative of mean motion field, e.g. " .00000023" (10 characters). */
-function ndotField(v: number): string {
-  return `${v < 0 ? '-' : ' '}${Math.abs(v).toFixed(8).slice(1)}`;
 }
 
 interface Elements {
@@ -110,12 +78,23 @@ export function makeCatalogue(opts: CatalogueOptions): string {
     const cat = String(num).padStart(5, '0');
     const el = drawElements(r, decayAt.has(idx));
     const epochDay = 1 + r() * 29; // 2027 day 1 to 30, UTC
-    const launch = `27${String(1 + (idx % 999)).padStart(3, '0')}A  `.slice(0, 8);
-    const body1 =
-      `1 ${cat}U ${launch} 27${fix(epochDay, 12, 8).replace(/ /g, '0')} ${ndotField(el.ndot)}  00000-0 ${expField(el.bstar)} 0 ${String(num % 10000).padStart(4, ' ')}`;
-    const ecc = String(Math.round(el.e * 1e7)).padStart(7, '0');
-    const body2 = `2 ${cat} ${fix(el.i, 8, 4)} ${fix(el.raan % 360, 8, 4)} ${ecc} ${fix(el.argp % 360, 8, 4)} ${fix(el.m % 360, 8, 4)} ${fix(el.n, 11, 8)}${String(num % 100000).padStart(5, ' ')}`;
-    out.push(`INVENTED-${cat}`, formatTleLine(body1), formatTleLine(body2));
+    const [line1, line2] = buildTleLines({
+      catalogNumber: num,
+      designator: `27${String(1 + (idx % 999)).padStart(3, '0')}A`,
+      epochYear: 2027,
+      epochDayOfYear: epochDay,
+      inclinationDeg: el.i,
+      raanDeg: el.raan % 360,
+      eccentricity: el.e,
+      argpDeg: el.argp % 360,
+      meanAnomalyDeg: el.m % 360,
+      meanMotionRevPerDay: el.n,
+      meanMotionDotRevPerDay2: el.ndot,
+      bstar: el.bstar,
+      elementSetNumber: num % 10000,
+      revolutionNumber: num % 100000,
+    });
+    out.push(`INVENTED-${cat}`, line1, line2);
   }
   return `${out.join('\n')}\n`;
 }

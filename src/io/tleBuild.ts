@@ -21,6 +21,8 @@ export interface TleElements {
   meanMotionRevPerDay: number;
   /** B* drag term [1/earth radii]; 0 for none. */
   bstar?: number;
+  /** First derivative of mean motion / 2 [rev/day²], as line 1 carries it; 0 for none. */
+  meanMotionDotRevPerDay2?: number;
   elementSetNumber?: number;
   revolutionNumber?: number;
 }
@@ -51,7 +53,10 @@ export function buildTleLines(el: TleElements): [string, string] {
   const yy = String(el.epochYear % 100).padStart(2, '0');
   const day = el.epochDayOfYear.toFixed(8).padStart(12, '0');
   const set = String(el.elementSetNumber ?? 1).padStart(4, ' ');
-  const line1 = `1 ${sat}U ${el.designator.padEnd(8, ' ')} ${yy}${day}  .00000000  00000-0 ${expField(el.bstar ?? 0)} 0 ${set}`;
+  const ndot = el.meanMotionDotRevPerDay2 ?? 0;
+  if (!(Math.abs(ndot) < 1)) throw new InputError(`mean-motion derivative ${ndot} cannot be written in a TLE`, 'TLE writer', 'use |ṅ/2| < 1 rev/day²');
+  const ndotField = `${ndot < 0 ? '-' : ' '}${Math.abs(ndot).toFixed(8).slice(1)}`;
+  const line1 = `1 ${sat}U ${el.designator.padEnd(8, ' ')} ${yy}${day} ${ndotField}  00000-0 ${expField(el.bstar ?? 0)} 0 ${set}`;
   const ecc = Math.round(el.eccentricity * 1e7);
   if (ecc < 0 || ecc > 9999999) throw new InputError(`eccentricity ${el.eccentricity} cannot be written in a TLE`, 'TLE writer', 'use 0 ≤ e < 1');
   const rev = String(el.revolutionNumber ?? 0).padStart(5, ' ');

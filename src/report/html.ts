@@ -4,16 +4,10 @@
  * Every user string goes through {@link escapeHtml}; figures must come from ./svg.ts.
  */
 import { InternalError } from '../errors.ts';
+import { escapeXml } from './svg.ts';
 
-/** Escape text for HTML content and attribute values (`& < > " '`). */
-export function escapeHtml(text: string): string {
-  return String(text)
-    .replace(/&/g, '&amp;')
-    .replace(/</g, '&lt;')
-    .replace(/>/g, '&gt;')
-    .replace(/"/g, '&quot;')
-    .replace(/'/g, '&#39;');
-}
+/** Escape text for HTML content and attribute values (`& < > " '`): the same five as for SVG. */
+export const escapeHtml = escapeXml;
 
 /** A table column: its title, optional unit (shown in brackets), and how to print numbers. */
 export interface TableColumn {
