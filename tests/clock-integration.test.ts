@@ -45,3 +45,16 @@ describe('clock integration vs a 1-s reference', () => {
     });
   }
 });
+
+describe('node integrals', () => {
+  it('the per-node integrals equal the dense output at the nodes (same polynomial)', () => {
+    const el = elementsFromDegKm({ epochTtJ2000S: EPOCH, aKm: 7000, e: 0.05, iDeg: 40, raanDeg: 0, argpDeg: 0, meanAnomalyDeg: 0 }, { a: 'a', e: 'e' });
+    const traj = new KeplerianTrajectory('t', el, G.gmM3PerS2);
+    const times: number[] = [];
+    const nodes = [new Float64Array(8 * 20)];
+    const [track] = integrateAlong(traj, EPOCH, EPOCH + 6000, 300, [(x, y, z, vx, vy, vz) => fractionalOffset(G, x, y, z, vx, vy, vz)], (t, _b, n) => times.push(...t.subarray(0, n)), nodes);
+    let worst = 0;
+    times.forEach((t, i) => (worst = Math.max(worst, Math.abs(nodes[0][i] - track.integralAt(t)))));
+    expect(worst).toBeLessThan(1e-18); // rounding of two evaluations of one polynomial
+  });
+});

@@ -17,6 +17,29 @@ import { gaussLegendre, inverseVandermonde } from './quadrature.ts';
 export const GAUSS_POINTS_PER_STEP = 8;
 const RULE = gaussLegendre(GAUSS_POINTS_PER_STEP);
 const VINV = inverseVandermonde(RULE.nodes);
+/**
+ * NODE_INT[j·n + i]: weight of node value y_i in ∫ from the step start to node j, in units of h/2
+ * (the interpolating polynomial integrated analytically), so node integrals need no polynomial.
+ */
+const NODE_INT = (() => {
+  const n = RULE.nodes.length;
+  const w = new Float64Array(n * n);
+  for (let j = 0; j < n; j++) {
+    const u = RULE.nodes[j];
+    for (let i = 0; i < n; i++) {
+      let acc = 0;
+      let up = u;
+      let lowp = -1;
+      for (let r = 0; r < n; r++) {
+        acc += (VINV[r * n + i] * (up - lowp)) / (r + 1);
+        up *= u;
+        lowp = -lowp;
+      }
+      w[j * n + i] = acc;
+    }
+  }
+  return w;
+})();
 
 /** A function of one state: position [m] and inertial velocity [m/s], in true-of-date axes. */
 export type StateFunction = (x: number, y: number, z: number, vx: number, vy: number, vz: number) => number;
@@ -112,7 +135,16 @@ export function clockStepS(periodS: number, e: number): number {
  * whole number of steps of at most `maxStepS` (the last step ends exactly at `to`).
  * One bulk sampling of the trajectory feeds all functions.
  */
-export function integrateAlong(traj: Trajectory, fromTtJ2000S: number, toTtJ2000S: number, maxStepS: number, fns: readonly StateFunction[], visit?: NodeVisitor): IntegratedTrack[] {
+export function integrateAlong(
+  traj: Trajectory,
+  fromTtJ2000S: number,
+  toTtJ2000S: number,
+  maxStepS: number,
+  fns: readonly StateFunction[],
+  visit?: NodeVisitor,
+  /** When given, receives ∫ f from the span start to every node, per function (stepCount·8 values each). */
+  nodeIntegrals?: Float64Array[],
+): IntegratedTrack[] {
   const spanS = toTtJ2000S - fromTtJ2000S;
   if (!(spanS > 0)) throw new InternalError(`integration span ${spanS} s is not positive`, 'clock span');
   const stepCount = Math.max(1, Math.ceil(spanS / maxStepS - 1e-9));
@@ -155,6 +187,14 @@ export function integrateAlong(traj: Trajectory, fromTtJ2000S: number, toTtJ2000
           let cr = 0;
           for (let j = 0; j < n; j++) cr += VINV[r * n + j] * values[j];
           c[s * n + r] = cr;
+        }
+        if (nodeIntegrals !== undefined) {
+          const out = nodeIntegrals[f];
+          for (let j = 0; j < n; j++) {
+            let acc = 0;
+            for (let i = 0; i < n; i++) acc += NODE_INT[j * n + i] * values[i];
+            out[s * n + j] = x[s] + 0.5 * stepS * acc;
+          }
         }
         x[s + 1] = x[s] + 0.5 * stepS * integral;
       }

@@ -158,17 +158,39 @@ export class Sgp4Trajectory implements Trajectory {
 
   /** States at many instants, by a plain `sgp4()` loop (exact minutes since epoch, no allocation of states). */
   sampleInto(ttJ2000S: Float64Array, out: StateBlock): void {
-    const fmt = (t: number): string => this.formatUtc(t);
-    for (let i = 0; i < ttJ2000S.length; i++) {
+    const n = ttJ2000S.length;
+    if (n === 0) return;
+    // One span check for the whole batch (its extremes), one record lookup: the loop is SGP4 only.
+    let lo = ttJ2000S[0];
+    let hi = ttJ2000S[0];
+    for (let i = 1; i < n; i++) {
       const t = ttJ2000S[i];
-      checkSpan(this, t, fmt);
-      const pv = this.propagateKm((t - this.epochTtJ2000S) / 60, t);
-      out.positionM[3 * i] = pv.position.x * 1000;
-      out.positionM[3 * i + 1] = pv.position.y * 1000;
-      out.positionM[3 * i + 2] = pv.position.z * 1000;
-      out.velocityMPerS[3 * i] = pv.velocity.x * 1000;
-      out.velocityMPerS[3 * i + 1] = pv.velocity.y * 1000;
-      out.velocityMPerS[3 * i + 2] = pv.velocity.z * 1000;
+      if (t < lo) lo = t;
+      else if (t > hi) hi = t;
+    }
+    const fmt = (t: number): string => this.formatUtc(t);
+    checkSpan(this, lo, fmt);
+    checkSpan(this, hi, fmt);
+    const satrec = satrecOf.get(this) as SatRec;
+    const epoch = this.epochTtJ2000S;
+    const pOut = out.positionM;
+    const vOut = out.velocityMPerS;
+    for (let i = 0; i < n; i++) {
+      const t = ttJ2000S[i];
+      const pv = sgp4(satrec, (t - epoch) / 60);
+      if (pv === null || satrec.error !== SatRecError.None) throw this.propagationError(satrec.error, t);
+      const p = pv.position;
+      const v = pv.velocity;
+      const x = p.x * 1000;
+      const y = p.y * 1000;
+      const z = p.z * 1000;
+      if (!(Math.abs(x) + Math.abs(y) + Math.abs(z) < Infinity)) throw this.propagationError(-1, t);
+      pOut[3 * i] = x;
+      pOut[3 * i + 1] = y;
+      pOut[3 * i + 2] = z;
+      vOut[3 * i] = v.x * 1000;
+      vOut[3 * i + 1] = v.y * 1000;
+      vOut[3 * i + 2] = v.z * 1000;
     }
   }
 

@@ -78,6 +78,8 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
   const t = new Float64Array(nodeCount);
   const p = new Float64Array(nodeCount);
   let filled = 0;
+  const nodeGrav = new Float64Array(nodeCount);
+  const nodeVel = new Float64Array(nodeCount);
   const [grav, vel] = integrateAlong(
     traj,
     fromTt,
@@ -92,6 +94,7 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
         p[filled] = conventionalPeriodicS(r[3 * i], r[3 * i + 1], r[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]);
       }
     },
+    [nodeGrav, nodeVel],
   );
   const total = grav.plus(vel);
   const m = filled;
@@ -101,15 +104,16 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
   let pMin = Infinity;
   let pMax = -Infinity;
   for (let i = 0; i < m; i++) {
-    pMin = Math.min(pMin, p[i]);
-    pMax = Math.max(pMax, p[i]);
-    const g = grav.integralAt(t[i]);
-    const v = vel.integralAt(t[i]);
-    xt[i] = g + v - p[i];
+    const pi = p[i];
+    if (pi < pMin) pMin = pi;
+    if (pi > pMax) pMax = pi;
+    const g = nodeGrav[i];
+    const v = nodeVel[i];
+    xt[i] = g + v - pi;
     // Each part carries half of the conventional term (exact for two-body motion, where both parts
     // share the periodic −GM/(rc²)), so the parts' slopes add up to the total's slope.
-    xg[i] = g - 0.5 * p[i];
-    xv[i] = v - 0.5 * p[i];
+    xg[i] = g - 0.5 * pi;
+    xv[i] = v - 0.5 * pi;
   }
   const lt = lineFit(t, xt);
   const lg = lineFit(t, xg);
