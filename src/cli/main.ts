@@ -2,6 +2,8 @@
  * The command line. Every command: `--format text|json|csv|html`, `--out PATH` (atomic).
  * Input faults print `tauplan: <what> (<where>) — <fix>` on one line and exit 2; internal faults exit 1.
  */
+import { statSync } from 'node:fs';
+import { dirname, join, resolve } from 'node:path';
 import yargs, { type Argv } from 'yargs';
 import { InputError, InternalError } from '../errors.ts';
 import { defaultTimeSystem, LEAP_SECONDS_ENV } from '../io/tables.ts';
@@ -113,12 +115,80 @@ function parser(args: string[]) {
     .strict()
     .exitProcess(false)
     .wrap(Math.min(110, process.stdout.columns ?? 100))
+    .middleware((argv) => {
+      // yargs turns a non-numeric value of a number option into NaN silently.
+      for (const [key, value] of Object.entries(argv)) {
+        if (typeof value === 'number' && Number.isNaN(value) && !/[A-Z]/.test(key)) {
+          const raw = rawFlagValue(args, key);
+          throw new InputError(`--${key} ${raw === undefined ? 'has no value' : `${JSON.stringify(raw)} is not a number`}`, `--${key}`, 'give a plain number, e.g. 550 or -4.5e-10');
+        }
+      }
+    })
+    .middleware((argv) => {
+      // Refuse an unusable --out before any work (the demo's --out is a folder it creates).
+      if (typeof argv.out === 'string' && argv._[0] !== 'demo') checkOutPath(argv.out);
+    })
     .fail((msg, err) => {
       if (err !== undefined && err !== null) throw err;
-      throw new InputError(msg.replace(/\s+/g, ' ').trim(), 'command line', 'see tauplan --help');
+      throw usageError(msg, args);
     })
     .help()
     .version('0.1.0');
+}
+
+/** Usage line per command with a required positional, for "missing argument" messages. */
+const POSITIONAL_USAGE: Record<string, string> = {
+  time: 'tauplan time 2027-01-01T00:00:00Z',
+  passes: 'tauplan passes scenario.yaml',
+  resets: 'tauplan resets scenario.yaml',
+  fit: 'tauplan fit offsets.csv',
+  compare: 'tauplan compare scenario.yaml',
+  merge: 'tauplan merge s1.csv s2.csv --out all.csv',
+};
+
+/** A yargs validation message as a one-line input error; a missing positional names the usage. */
+function usageError(msg: string, args: string[]): InputError {
+  const text = msg.replace(/\s+/g, ' ').trim();
+  const command = args.find((x) => !x.startsWith('-'));
+  if (/^Not enough non-option arguments/.test(text) && command !== undefined && command in POSITIONAL_USAGE) {
+    return new InputError(`tauplan ${command} needs its ${command === 'time' ? 'time' : command === 'fit' ? 'measurement file' : command === 'merge' ? 'files' : 'scenario file'}`, 'command line', `e.g. ${POSITIONAL_USAGE[command]}`);
+  }
+  return new InputError(text, 'command line', 'see tauplan --help');
+}
+
+/** An output file path must name a file (not a folder) in an existing folder. */
+function checkOutPath(out: string): void {
+  if (out.trim() === '') throw new InputError('--out is empty', '--out', 'give a file path, e.g. --out result.json');
+  const st = statSync(out, { throwIfNoEntry: false });
+  if (st?.isDirectory() === true) throw new InputError(`${out} is a folder`, '--out', 'give a file path inside it, e.g. --out ' + join(out, 'result.json'));
+  const folder = statSync(dirname(resolve(out)), { throwIfNoEntry: false });
+  if (folder === undefined || !folder.isDirectory()) throw new InputError(`folder ${dirname(out)} does not exist`, '--out', 'create the folder first, or give a path in an existing folder');
+}
+
+/** The text given after `--key` (or in `--key=...`) on the command line. */
+function rawFlagValue(args: string[], key: string): string | undefined {
+  for (let i = 0; i < args.length; i++) {
+    if (args[i] === `--${key}`) return args[i + 1];
+    if (args[i].startsWith(`--${key}=`)) return args[i].slice(key.length + 3);
+  }
+  return undefined;
+}
+
+/**
+ * `--span -1d` would otherwise read as the short flags -1 and -d: a value that starts with a minus
+ * and a digit is joined to its option (`--span=-1d`), so the option's own check reports it.
+ */
+export function joinNegativeValues(args: string[]): string[] {
+  const out: string[] = [];
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i];
+    const next = args[i + 1];
+    if (/^--[a-z][a-z0-9-]*$/.test(a) && next !== undefined && /^-\.?\d/.test(next)) {
+      out.push(`${a}=${next}`);
+      i++;
+    } else out.push(a);
+  }
+  return out;
 }
 
 /** Run the CLI; returns the exit code. */
@@ -131,7 +201,7 @@ export async function main(args: string[]): Promise<number> {
       if (value === undefined || value === '') throw new InputError('--leap-seconds needs a file', '--leap-seconds', 'give the path of an IERS Leap_Second.dat');
       process.env[LEAP_SECONDS_ENV] = value;
     }
-    await parser(args).parseAsync();
+    await parser(joinNegativeValues(args)).parseAsync();
     const leap = defaultTimeSystem().leap;
     if (leap.usedPastExpiry && !args.includes('--quiet')) {
       process.stderr.write(

@@ -9,6 +9,7 @@
  * fixes the units (degrees, rev/day, rev/day², rev/day³, 1/earth radii).
  */
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
+import { jsonSyntaxError } from './jsonText.ts';
 import { InputError, OrbitFileError } from '../errors.ts';
 import { civilFromDays, daysFromCivil, daysInMonth } from '../time/calendar.ts';
 import type { CivilTime } from '../time/timeSystem.ts';
@@ -100,7 +101,7 @@ function parseJson(text: string, fileName: string): OmmRecord[] {
   try {
     data = JSON.parse(text);
   } catch (e) {
-    throw new InputError(`OMM JSON cannot be read: ${oneLine((e as Error).message)}`, fileName, 'check the JSON syntax (quotes, commas, brackets)');
+    throw jsonSyntaxError(text, e, fileName, 'OMM JSON cannot be read', 'check the JSON syntax (quotes, commas, brackets)');
   }
   const list = Array.isArray(data) ? data : [data];
   if (list.length === 0) throw new InputError('OMM JSON array is empty', fileName, 'give at least one OMM object');

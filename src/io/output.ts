@@ -2,8 +2,8 @@
  * Writing results: stdout, or a file written atomically (temporary file in the same folder, then
  * rename). A run that fails, or is interrupted by SIGINT/SIGTERM, leaves no output file behind.
  */
-import { closeSync, fsyncSync, mkdirSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
+import { accessSync, closeSync, constants as fsConstants, fsyncSync, mkdirSync, openSync, renameSync, rmSync, statSync, writeSync } from 'node:fs';
+import { basename, dirname, join, resolve } from 'node:path';
 import { InputError, InternalError } from '../errors.ts';
 
 const pendingTemps = new Set<string>();
@@ -63,11 +63,36 @@ export function writeFileAtomic(path: string, text: string, flag = '--out'): voi
 
 /** Create a folder for outputs (the demo's). */
 export function ensureDir(path: string, flag = '--out'): void {
+  // Walk up to the nearest existing folder and create each level in turn: mkdirSync's own
+  // recursive mode can loop forever on special file systems such as /proc on Node 20.
+  const missing: string[] = [];
+  let p = resolve(path);
+  for (let guard = 0; guard < 256; guard++) {
+    let st;
+    try {
+      st = statSync(p);
+    } catch {
+      missing.push(p);
+      const up = dirname(p);
+      if (up === p) break;
+      p = up;
+      continue;
+    }
+    if (!st.isDirectory()) throw new InputError(`${p} exists and is not a folder`, flag, 'give a folder path for the output');
+    break;
+  }
+  for (const dir of missing.reverse()) {
+    try {
+      mkdirSync(dir);
+    } catch (e) {
+      const code = (e as NodeJS.ErrnoException).code ?? 'error';
+      throw new InputError(`cannot create folder ${dir} (${code})`, flag, 'give a folder path you can write to');
+    }
+  }
   try {
-    mkdirSync(path, { recursive: true });
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code ?? 'error';
-    throw new InputError(`cannot create folder ${path} (${code})`, flag, 'give a folder path you can write to');
+    accessSync(resolve(path), fsConstants.W_OK);
+  } catch {
+    throw new InputError(`folder ${path} is not writable`, flag, 'give a folder path you can write to');
   }
 }
 

@@ -205,6 +205,7 @@ export function computeFit(a: FitArgs, ts: TimeSystem) {
     const last = data.rows[data.rows.length - 1].ttJ2000S;
     const to = Math.max(last, first + 60);
     const resolved = trajectoryForSatellite(sat, scenario, ts, gravity, { fromTtJ2000S: first, toTtJ2000S: to });
+    checkWindowInSpan(resolved.trajectory, first, last, ts, `${a.scenario} ${sat.path}`, `use measurements inside the orbit source span, or a scenario whose orbit covers ${a.measurements}`);
     const run = prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, null, first, to);
     // Periodic part: the relativistic offset minus its trend, the trend being the straight line
     // through it with −2r·v/c² removed (the `size` mean rate). A plain line through the offset

@@ -31,6 +31,9 @@ export function demoOptions<T>(y: Argv<T>) {
 }
 
 export function runDemo(a: { out: string; quiet: boolean }, ts: TimeSystem): void {
+  // The output folder is checked (and made) before any work, so a bad --out fails at once.
+  const dir = resolve(a.out);
+  ensureDir(dir);
   const scenarioPath = dataPath('demo/tessera.yaml');
   const ctx = loadScenarioContext(scenarioPath, ts, {});
   const passes = planPasses(ctx.runs, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
@@ -67,8 +70,6 @@ export function runDemo(a: { out: string; quiet: boolean }, ts: TimeSystem): voi
     ['compare.json', toJsonText(compareToJson(compare.result, ts, compare.meta))],
     ['sweep.csv', sweepToCsv(sweep.result)],
   ];
-  const dir = resolve(a.out);
-  ensureDir(dir);
   for (const [name, body] of files) writeFileAtomic(join(dir, name), body);
   const adjustments = resets.plans.reduce((n, p) => n + p.adjustments.length, 0);
   if (!a.quiet) {
