@@ -3,7 +3,8 @@ import type { Argv } from 'yargs';
 import type { GravityModel } from '../clock/gravity.ts';
 import { InputError } from '../errors.ts';
 import { loadScenario, scenarioSatellite } from '../io/loadScenario.ts';
-import { idOf, labelOf, pickElementSet, readElementSets, sgp4Trajectory, trajectoryForSatellite, type ResolvedOrbit } from '../io/orbitSources.ts';
+import { idOf, labelOf, pickElementSet, readElementSets, sgp4Span, trajectoryForSatellite, type ResolvedOrbit } from '../io/orbitSources.ts';
+import { Sgp4Trajectory } from '../orbit/sgp4.ts';
 import { elementsFromDegKm } from '../orbit/keplerian.ts';
 import { trajectoryFromKeplerian } from '../orbit/stateVector.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
@@ -59,8 +60,8 @@ export function orbitFromFlags(a: OrbitFlags, ts: TimeSystem, gravity: GravityMo
     const kind = a.tle !== undefined ? 'tle' : 'omm';
     const file = (a.tle ?? a.omm) as string;
     const rec = pickElementSet(readElementSets(file, kind, `--${kind}`), a.sat, file);
-    const probe = sgp4Trajectory(rec, ts, null);
-    return { trajectory: sgp4Trajectory(rec, ts, spanFor(probe.epochTtJ2000S), idOf(rec)), name: labelOf(rec) };
+    const trajectory = new Sgp4Trajectory(rec, ts, { id: idOf(rec), spanFor: (epoch) => sgp4Span(epoch, spanFor(epoch)) });
+    return { trajectory, name: labelOf(rec) };
   }
   if (a.scenario !== undefined) {
     const scenario = loadScenario(a.scenario, ts, '--scenario');

@@ -51,21 +51,34 @@ function legendre(s: number, n: number, p: Float64Array, dp: Float64Array): void
 const P = new Float64Array(16);
 const DP = new Float64Array(16);
 
-/** Potential U [m²/s²] (positive) at position (x, y, z) [m], true-of-date axes. */
+/** Recurrence factors of the Legendre polynomials: P_k = A_k·s·P_{k−1} − B_k·P_{k−2}. */
+const LEGENDRE_A = Float64Array.from({ length: 16 }, (_, k) => (k < 2 ? 0 : (2 * k - 1) / k));
+const LEGENDRE_B = Float64Array.from({ length: 16 }, (_, k) => (k < 2 ? 0 : (k - 1) / k));
+
+/**
+ * Potential U [m²/s²] (positive) at position (x, y, z) [m], true-of-date axes. The hot path of the
+ * clock rate: Legendre values by recurrence with precomputed factors, no derivatives, no allocation.
+ */
 export function potentialM2PerS2(model: GravityModel, x: number, y: number, z: number): number {
   const r = Math.sqrt(x * x + y * y + z * z);
-  const n = model.j.length - 1;
+  const j = model.j;
+  const n = j.length - 1;
   if (n < 2) return model.gmM3PerS2 / r;
-  const s = z / r;
-  legendre(s, n, P, DP);
+  const invR = 1 / r;
+  const s = z * invR;
+  const q = model.radiusM * invR;
+  let pPrev = 1; // P0
+  let p = s; // P1
+  let qn = q;
   let sum = 0;
-  let q = model.radiusM / r;
-  let qn = q * q;
   for (let k = 2; k <= n; k++) {
-    sum += model.j[k] * qn * P[k];
+    const next = LEGENDRE_A[k] * s * p - LEGENDRE_B[k] * pPrev;
+    pPrev = p;
+    p = next;
     qn *= q;
+    sum += j[k] * qn * p;
   }
-  return (model.gmM3PerS2 / r) * (1 - sum);
+  return model.gmM3PerS2 * invR * (1 - sum);
 }
 
 /**

@@ -65,6 +65,7 @@ export class IntegratedTrack {
 
   /** Step index of an instant (no allocation: the hot path of every offset query). */
   private stepOf(rel: number): number {
+    if (this.coeffs.length === 0) throw new InternalError('clock track built without dense output was queried between nodes', 'clock offset');
     if (rel < -1e-9 || rel > this.stepCount + 1e-9) {
       throw new InternalError(`clock track queried outside its span (step ${rel.toFixed(3)} of ${this.stepCount})`, 'clock offset');
     }
@@ -103,18 +104,6 @@ export class IntegratedTrack {
   get total(): number {
     return this.xAtStepStart[this.stepCount];
   }
-
-  /** The track of f + g, for two tracks built over the same steps. */
-  plus(other: IntegratedTrack): IntegratedTrack {
-    if (other.stepCount !== this.stepCount || other.stepS !== this.stepS || other.fromTtJ2000S !== this.fromTtJ2000S) {
-      throw new InternalError('adding clock tracks built on different steps', 'clock track');
-    }
-    const c = new Float64Array(this.coeffs.length);
-    for (let i = 0; i < c.length; i++) c[i] = this.coeffs[i] + other.coeffs[i];
-    const x = new Float64Array(this.xAtStepStart.length);
-    for (let i = 0; i < x.length; i++) x[i] = this.xAtStepStart[i] + other.xAtStepStart[i];
-    return new IntegratedTrack(this.fromTtJ2000S, this.stepS, this.stepCount, c, x);
-  }
 }
 
 /** Called with every chunk of sampled nodes (times and states), for callers that need the states too. */
@@ -144,6 +133,8 @@ export function integrateAlong(
   visit?: NodeVisitor,
   /** When given, receives ∫ f from the span start to every node, per function (stepCount·8 values each). */
   nodeIntegrals?: Float64Array[],
+  /** False skips the per-step polynomials: the tracks then give only `total` (callers that use node integrals). */
+  denseOutput = true,
 ): IntegratedTrack[] {
   const spanS = toTtJ2000S - fromTtJ2000S;
   if (!(spanS > 0)) throw new InternalError(`integration span ${spanS} s is not positive`, 'clock span');
@@ -152,7 +143,7 @@ export function integrateAlong(
   const n = GAUSS_POINTS_PER_STEP;
   // Sample in chunks so memory stays bounded on long horizons.
   const chunkSteps = Math.min(4096, stepCount);
-  const coeffs = fns.map(() => new Float64Array(stepCount * n));
+  const coeffs = fns.map(() => new Float64Array(denseOutput ? stepCount * n : 0));
   const xs = fns.map(() => new Float64Array(stepCount + 1));
   const times = new Float64Array(chunkSteps * n);
   const block: StateBlock = allocStateBlock(chunkSteps * n);
@@ -183,10 +174,12 @@ export function integrateAlong(
           integral += RULE.weights[j] * val;
         }
         if (!Number.isFinite(integral)) throw new InternalError(`non-finite clock rate at step ${s} of ${traj.id}`, 'fractional offset');
-        for (let r = 0; r < n; r++) {
-          let cr = 0;
-          for (let j = 0; j < n; j++) cr += VINV[r * n + j] * values[j];
-          c[s * n + r] = cr;
+        if (denseOutput) {
+          for (let r = 0; r < n; r++) {
+            let cr = 0;
+            for (let j = 0; j < n; j++) cr += VINV[r * n + j] * values[j];
+            c[s * n + r] = cr;
+          }
         }
         if (nodeIntegrals !== undefined) {
           const out = nodeIntegrals[f];

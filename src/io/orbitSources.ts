@@ -42,15 +42,15 @@ export function readTextFile(path: string, where: string): string {
 }
 
 /** SGP4 span: the wanted span, widened to hold the element-set epoch, so sizing from the epoch works. */
-function sgp4Span(epochTt: number, span: Span): Span {
+export function sgp4Span(epochTt: number, span: Span): Span {
   return { fromTtJ2000S: Math.min(span.fromTtJ2000S, epochTt), toTtJ2000S: Math.max(span.toTtJ2000S, epochTt) };
 }
 
 /** SGP4 trajectory from a parsed element set, its span covering `span`. */
 export function sgp4Trajectory(rec: TleRecord | OmmRecord, ts: TimeSystem, span: Span | null, id?: string): Sgp4Trajectory {
-  const probe = new Sgp4Trajectory(rec, ts, id === undefined ? {} : { id });
-  if (span === null) return probe;
-  return new Sgp4Trajectory(rec, ts, { ...(id === undefined ? {} : { id }), span: sgp4Span(probe.epochTtJ2000S, span) });
+  const idOption = id === undefined ? {} : { id };
+  if (span === null) return new Sgp4Trajectory(rec, ts, idOption);
+  return new Sgp4Trajectory(rec, ts, { ...idOption, spanFor: (epoch) => sgp4Span(epoch, span) });
 }
 
 /** Find one record in an element-set file by catalogue number, name or OMM id. */

@@ -58,6 +58,8 @@ export interface Sgp4Options {
    * either side covers a planning window without silently using a stale set for a season.
    */
   span?: { fromTtJ2000S: number; toTtJ2000S: number };
+  /** The span as a function of the element-set epoch (one SGP4 initialisation instead of a probe). */
+  spanFor?: (epochTtJ2000S: number) => { fromTtJ2000S: number; toTtJ2000S: number };
 }
 
 /** SGP4 mean elements at epoch, for reports. Un-Kozai'd (Brouwer) mean motion and the semi-major axis from it. */
@@ -127,8 +129,9 @@ export class Sgp4Trajectory implements Trajectory {
       satrec = json2satrec(ommJsonFor(elements));
     }
     this.epochTtJ2000S = timeSystem.fromUtc(elements.epochUtc, where).ttJ2000S;
-    this.validFromTtJ2000S = options.span?.fromTtJ2000S ?? this.epochTtJ2000S - SGP4_DEFAULT_HALF_SPAN_S;
-    this.validToTtJ2000S = options.span?.toTtJ2000S ?? this.epochTtJ2000S + SGP4_DEFAULT_HALF_SPAN_S;
+    const span = options.span ?? options.spanFor?.(this.epochTtJ2000S);
+    this.validFromTtJ2000S = span?.fromTtJ2000S ?? this.epochTtJ2000S - SGP4_DEFAULT_HALF_SPAN_S;
+    this.validToTtJ2000S = span?.toTtJ2000S ?? this.epochTtJ2000S + SGP4_DEFAULT_HALF_SPAN_S;
     // sgp4init already propagated to t = 0; an error there means the element set itself is unusable.
     if (satrec.error !== SatRecError.None) throw this.propagationError(satrec.error, this.epochTtJ2000S);
     satrecOf.set(this, satrec);

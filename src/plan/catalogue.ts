@@ -78,14 +78,15 @@ export function failureReason(e: unknown): string {
 export function sizeCatalogueItem(item: CatalogueItem, opts: CatalogueSizeOptions, ts: TimeSystem, gravity: GravityModel = gravityModel(opts.gravityName, '--gravity')): CatalogueOutcome {
   const { index, id, name } = item;
   try {
-    const probe = new Sgp4Trajectory(item.record, ts, { id });
-    const from = opts.fromTtJ2000S ?? probe.epochTtJ2000S;
-    const to = from + opts.spanS;
     // The span is widened to hold the element-set epoch, as the single-satellite path does.
     const trajectory = new Sgp4Trajectory(item.record, ts, {
       id,
-      span: { fromTtJ2000S: Math.min(from, probe.epochTtJ2000S), toTtJ2000S: Math.max(to, probe.epochTtJ2000S) },
+      spanFor: (epoch) => {
+        const start = opts.fromTtJ2000S ?? epoch;
+        return { fromTtJ2000S: Math.min(start, epoch), toTtJ2000S: Math.max(start + opts.spanS, epoch) };
+      },
     });
+    const from = opts.fromTtJ2000S ?? trajectory.epochTtJ2000S;
     const result = sizeClock({ trajectory, gravity, fromTtJ2000S: from, spanS: opts.spanS, nominalHz: opts.nominalHz });
     return { index, id, name, ok: true, result };
   } catch (e) {

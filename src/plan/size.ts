@@ -95,8 +95,8 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
       }
     },
     [nodeGrav, nodeVel],
+    false,
   );
-  const total = grav.plus(vel);
   const m = filled;
   const xt = new Float64Array(m);
   const xg = new Float64Array(m);
@@ -133,8 +133,8 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
     velocity: lv.slope,
     eccentricityAmplitudeS: eccAmp,
     residualAmplitudeS: (rMax - rMin) / 2,
-    spanMean: total.total / spanS,
-    stepS: total.stepS,
+    spanMean: (grav.total + vel.total) / spanS,
+    stepS: grav.stepS,
     states: m,
   };
 }
