@@ -27,8 +27,7 @@ function common<T>(y: Argv<T>) {
   return y
     .option('format', { type: 'string', choices: OUTPUT_FORMATS as OutputFormat[], default: 'text' as OutputFormat, describe: 'output format' })
     .option('out', { type: 'string', describe: 'write to this file (atomically) instead of stdout' })
-    .option('quiet', { type: 'boolean', default: false, describe: 'no progress or warnings on stderr' })
-    .option('leap-seconds', { type: 'string', describe: 'leap-second table to use instead of the packaged one (IERS Leap_Second.dat)' });
+    .option('quiet', { type: 'boolean', default: false, describe: 'no progress or warnings on stderr' });
 }
 
 function parser(args: string[]) {
@@ -100,6 +99,8 @@ function parser(args: string[]) {
       (y) => demoOptions(y),
       (a) => runDemo(a, ts),
     )
+    .option('leap-seconds', { type: 'string', global: true, describe: 'leap-second table to use instead of the packaged one (IERS Leap_Second.dat)' })
+    .example('tauplan demo --out ./tauplan-demo', 'the whole job on the invented demo scenario')
     .example('tauplan time 2027-01-01T00:00:00Z', 'one instant in every scale')
     .example('tauplan size --a-km 26561.75 --i-deg 55 --gravity point --format json', 'GPS-like sizing')
     .example('tauplan size --tle cat.tle --all --format csv --out all.csv', 'every satellite of a catalogue')
