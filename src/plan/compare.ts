@@ -75,7 +75,8 @@ export function compareClocks(sats: CompareSatellite[], stations: Station[], gra
     const [track] = integrateAlong(s.trajectory, from, to, maxStep, [(x, y, z, vx, vy, vz) => fractionalOffset(gravity, x, y, z, vx, vy, vz)]);
     const reportFrom = s.flight === null ? fromTtJ2000S : from;
     const reportTo = s.flight === null ? toTtJ2000S : to;
-    const fig = trackFigures(s.trajectory, track, reportFrom, reportTo);
+    // A flight is no orbit: its mean is the plain average over the flight, not an orbit-mean slope.
+    const fig = s.flight === null ? trackFigures(s.trajectory, track, reportFrom, reportTo) : flightFigures(track, reportFrom, reportTo);
     elapsed.set(s.id, (a, b) => track.integralAt(b) - track.integralAt(a));
     clocks.push({
       id: s.id,
@@ -148,4 +149,19 @@ function trackFigures(traj: Trajectory, track: IntegratedTrack, from: number, to
     hi = Math.max(hi, d);
   }
   return { slope: line.slope, periodicNs: ((hi - lo) / 2) * 1e9 };
+}
+
+/** A ballistic flight: mean rate = elapsed offset / duration; swing about that chord. */
+function flightFigures(track: IntegratedTrack, from: number, to: number): { slope: number; periodicNs: number } {
+  const x0 = track.integralAt(from);
+  const slope = (track.integralAt(to) - x0) / (to - from);
+  let lo = 0;
+  let hi = 0;
+  for (let i = 0; i <= 400; i++) {
+    const t = from + ((to - from) * i) / 400;
+    const d = track.integralAt(t) - x0 - slope * (t - from);
+    lo = Math.min(lo, d);
+    hi = Math.max(hi, d);
+  }
+  return { slope, periodicNs: ((hi - lo) / 2) * 1e9 };
 }
