@@ -8,7 +8,7 @@ import { fileURLToPath } from 'node:url';
 const root = fileURLToPath(new URL('..', import.meta.url));
 await build({
   absWorkingDir: root,
-  entryPoints: { cli: 'src/cli/main.ts', sizeWorker: 'src/cli/sizeWorker.ts' },
+  entryPoints: { cli: 'src/cli/main.ts', sizeWorker: 'src/cli/sizeWorker.ts', scenarioWorker: 'src/cli/scenarioWorker.ts' },
   outdir: 'dist',
   outExtension: { '.js': '.mjs' },
   bundle: true,

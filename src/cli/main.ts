@@ -61,13 +61,13 @@ function parser(args: string[]) {
       'passes <scenario>',
       'Passes over the stations with each onboard clock offset at AOS and LOS',
       (y) => passesOptions(common(y)),
-      (a) => emit(runPasses(a, ts), a.format, a.out, 'passes'),
+      async (a) => emit(await runPasses(a, ts), a.format, a.out, 'passes'),
     )
     .command(
       'resets <scenario>',
       'When each clock leaves its keep-in limit, and the pass to adjust it in',
       (y) => resetsOptions(common(y)),
-      (a) => emit(runResets(a, ts), a.format, a.out, 'resets'),
+      async (a) => emit(await runResets(a, ts), a.format, a.out, 'resets'),
     )
     .command(
       'fit <measurements>',

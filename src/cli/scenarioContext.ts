@@ -91,9 +91,8 @@ export function spanWithClockEpoch(from: number, to: number, params: OscillatorP
 /** Longest window or horizon handled in one run [days]; memory grows linearly with it. */
 export const MAX_WINDOW_DAYS = 3660;
 
-export function loadScenarioContext(path: string, ts: TimeSystem, sel: ScenarioSelection): ScenarioContext {
-  const scenario = loadScenario(path, ts);
-  const gravity = gravityModel(scenario.gravity, `${path} gravity`);
+/** The window [from, to] (s since J2000.0 TT) a selection asks for, checked. */
+export function resolveWindow(scenario: ScenarioSpec, ts: TimeSystem, sel: ScenarioSelection, path: string): { from: number; to: number } {
   const from = sel.from === undefined ? scenario.window.start.ttJ2000S : ts.parse(sel.from, '--from').ttJ2000S;
   let to = sel.to === undefined ? scenario.window.end.ttJ2000S : ts.parse(sel.to, '--to').ttJ2000S;
   if (sel.horizonS !== undefined) {
@@ -104,7 +103,20 @@ export function loadScenarioContext(path: string, ts: TimeSystem, sel: ScenarioS
   if (sel.horizonS === undefined && (to - from) / 86400 > MAX_WINDOW_DAYS) {
     throw new InputError(`window of ${((to - from) / 86400).toFixed(0)} days exceeds the ${MAX_WINDOW_DAYS}-day limit`, sel.to !== undefined ? '--to' : `${path} window`, 'plan in pieces of at most 10 years');
   }
-  const satellites = pick(scenario.satellites, sel.sat, (s) => [s.id, ...(s.name === null ? [] : [s.name])], '--sat', 'satellite');
+  return { from, to };
+}
+
+/** The satellites a selection names (all by default), in scenario order. */
+export function selectSatellites(scenario: ScenarioSpec, sel: ScenarioSelection): SatelliteSpec[] {
+  return pick(scenario.satellites, sel.sat, (s) => [s.id, ...(s.name === null ? [] : [s.name])], '--sat', 'satellite');
+}
+
+/** Load a scenario (or use the one already parsed) and prepare the selected satellites' clocks. */
+export function loadScenarioContext(path: string, ts: TimeSystem, sel: ScenarioSelection, parsed?: ScenarioSpec): ScenarioContext {
+  const scenario = parsed ?? loadScenario(path, ts);
+  const gravity = gravityModel(scenario.gravity, `${path} gravity`);
+  const { from, to } = resolveWindow(scenario, ts, sel, path);
+  const satellites = selectSatellites(scenario, sel);
   const stationSpecs = pick(scenario.stations, sel.station, (s) => [s.id], '--station', 'station');
   const runs = satellites.map((sat) => {
     const params = oscillatorParams(sat.clock);

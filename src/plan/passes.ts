@@ -60,6 +60,11 @@ export function planPasses(runs: readonly SatelliteClockRun[], stations: readonl
       });
     }
   }
-  rows.sort((a, b) => a.aosTtJ2000S - b.aosTtJ2000S || a.satelliteId.localeCompare(b.satelliteId) || a.stationId.localeCompare(b.stationId));
+  rows.sort(comparePassRows);
   return { rows, statesEvaluated };
+}
+
+/** The report order: AOS, then satellite id, then station id. */
+export function comparePassRows(a: PassClockRow, b: PassClockRow): number {
+  return a.aosTtJ2000S - b.aosTtJ2000S || a.satelliteId.localeCompare(b.satelliteId) || a.stationId.localeCompare(b.stationId);
 }

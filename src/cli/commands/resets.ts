@@ -7,7 +7,11 @@ import { resetsToCsv, resetsToJson, resetsToText, type ResetsMeta } from '../../
 import { parsePositiveDurationS } from '../../time/duration.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
-import { loadScenarioContext, type ScenarioContext } from '../scenarioContext.ts';
+import { loadScenarioContext, resolveWindow, selectSatellites, type ScenarioContext } from '../scenarioContext.ts';
+import { loadScenario } from '../../io/loadScenario.ts';
+import type { ScenarioSpec } from '../../io/scenario.ts';
+import { jobsOf, unwrap, MIN_SATELLITE_DAYS_FOR_WORKERS, type ScenarioReply, type ScenarioTask } from '../scenarioTasks.ts';
+import { runPool } from '../workers.ts';
 import { page, resetsSection, windowMeta } from '../../report/htmlReport.ts';
 import { PREDICTION_RULE_TEXT } from '../../clock/noise.ts';
 
@@ -17,7 +21,8 @@ export function resetsOptions<T>(y: Argv<T>) {
     .option('horizon', { type: 'string', describe: 'how far ahead to plan (default: policy.horizon, else 180d)' })
     .option('from', { type: 'string', describe: 'plan start (default: scenario window start)' })
     .option('sat', { type: 'string', describe: 'only these satellites (comma-separated)' })
-    .option('station', { type: 'string', describe: 'only contacts with these stations (comma-separated)' });
+    .option('station', { type: 'string', describe: 'only contacts with these stations (comma-separated)' })
+    .option('jobs', { type: 'number', describe: 'worker threads, one satellite each (default: available cores; 1 = none)' });
 }
 
 export interface ResetsArgs {
@@ -26,6 +31,8 @@ export interface ResetsArgs {
   from?: string;
   sat?: string;
   station?: string;
+  jobs?: number;
+  format?: string;
 }
 
 export interface ResetsOutcome {
@@ -35,11 +42,8 @@ export interface ResetsOutcome {
 }
 
 export function computeResets(a: ResetsArgs, ts: TimeSystem): ResetsOutcome {
-  const horizonS = a.horizon === undefined ? undefined : parsePositiveDurationS(a.horizon, '--horizon');
-  // The scenario's own horizon applies when --horizon is absent; load once to read it.
-  const ctx0 = loadScenarioContext(a.scenario, ts, { ...a, horizonS: horizonS ?? 1 });
-  const h = horizonS ?? ctx0.scenario.policy.horizonS;
-  const ctx = horizonS === undefined && h !== 1 ? loadScenarioContext(a.scenario, ts, { ...a, horizonS: h }) : ctx0;
+  const scenario = loadScenario(a.scenario, ts);
+  const ctx = loadScenarioContext(a.scenario, ts, { ...a, horizonS: horizonOf(a, scenario) }, scenario);
   const policy = ctx.scenario.policy;
   const withLimit = ctx.runs.filter((r) => r.keepInNs !== null);
   if (withLimit.length === 0) throw new InputError('no satellite has a keep-in limit', `${a.scenario} satellites[].clock.keepInNs`, 'give clock.keepInNs for the satellites to plan');
@@ -64,7 +68,31 @@ export function computeResets(a: ResetsArgs, ts: TimeSystem): ResetsOutcome {
   return { ctx, plans, meta };
 }
 
-export function runResets(a: ResetsArgs, ts: TimeSystem): Rendered {
+/** The horizon [s]: --horizon, else the scenario's policy.horizon (180 d by default). */
+function horizonOf(a: ResetsArgs, scenario: ScenarioSpec): number {
+  return a.horizon === undefined ? scenario.policy.horizonS : parsePositiveDurationS(a.horizon, '--horizon');
+}
+
+/** Satellites spread over worker threads (text, JSON and CSV); plans come back in scenario order. */
+export async function runResets(a: ResetsArgs, ts: TimeSystem): Promise<Rendered> {
+  const jobs = jobsOf(a.jobs);
+  if (jobs > 1 && a.format !== 'html') {
+    const scenario = loadScenario(a.scenario, ts);
+    const sats = selectSatellites(scenario, a).filter((s) => s.clock !== null && s.clock.keepInNs !== null);
+    const horizonS = horizonOf(a, scenario);
+    const { from, to } = resolveWindow(scenario, ts, { ...a, horizonS }, a.scenario);
+    if (sats.length > 1 && (a.jobs !== undefined || (sats.length * (to - from)) / 86400 >= MIN_SATELLITE_DAYS_FOR_WORKERS)) {
+      const replies = await runPool<ScenarioTask, ScenarioReply>('scenarioWorker', sats.map((s) => ({ task: 'resets', args: { ...a, sat: s.id, jobs: 1 } })), jobs);
+      const plans = replies.flatMap((r) => unwrap(r, ts).plans ?? []);
+      const policy = scenario.policy;
+      const meta: ResetsMeta = { notes: replies.flatMap((r) => r.notes), scenario: scenario.name, fromTtJ2000S: from, toTtJ2000S: to, reference: scenario.reference, marginNs: policy.marginNs, leadTimeS: policy.leadTimeS ?? 0, prefer: policy.prefer };
+      return { json: () => resetsToJson(plans, meta, ts), csv: () => resetsToCsv(plans, ts), text: () => resetsToText(plans, meta, ts) };
+    }
+  }
+  return runResetsInProcess(a, ts);
+}
+
+function runResetsInProcess(a: ResetsArgs, ts: TimeSystem): Rendered {
   const { ctx, plans, meta } = computeResets(a, ts);
   return {
     html: () => page('tauplan — keep-in adjustment plan', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), [resetsSection(ts, ctx.runs, plans, ctx.fromTtJ2000S, ctx.toTtJ2000S, PREDICTION_RULE_TEXT)]),

@@ -13,7 +13,8 @@
  */
 import { closeSync, fsyncSync, openSync, writeSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
-import { Worker } from 'node:worker_threads';
+import type { Worker } from 'node:worker_threads';
+import { startModuleWorker } from '../workers.ts';
 import cliProgress from 'cli-progress';
 import { gravityModel } from '../../clock/gravity.ts';
 import { InputError, InternalError } from '../../errors.ts';
@@ -132,18 +133,9 @@ function jsonObject(o: CatalogueOutcome, sourceLabel: string, gravityName: strin
   return { index: o.index, name: o.name, satellite: o.id, source: sourceLabel, gravity: gravityName, error: o.error };
 }
 
-/**
- * Start a size worker. The worker registers the tsx loader itself (resolved from this package, so
- * the working folder does not matter) and then imports the TypeScript worker module: a loader given
- * to the parent (bin/tauplan.mjs registers tsx) or `--import` in execArgv does not reach a worker on Node 20.
- */
+/** Start a size worker (bundle or sources, see ../workers.ts). */
 function startWorker(init: WorkerInit): Worker {
-  // Bundled (dist/): the worker has its own bundle and needs no loader.
-  if (/\/dist\/[^/]*$/.test(import.meta.url)) return new Worker(new URL('./sizeWorker.mjs', import.meta.url), { workerData: init });
-  const tsxApi = import.meta.resolve('tsx/esm/api');
-  const workerModule = new URL('../sizeWorker.ts', import.meta.url).href;
-  const boot = `import(${JSON.stringify(tsxApi)}).then((m) => { m.register(); return import(${JSON.stringify(workerModule)}); });`;
-  return new Worker(boot, { eval: true, workerData: init });
+  return startModuleWorker('sizeWorker', init);
 }
 
 /**
