@@ -8,6 +8,7 @@ import yargs, { type Argv } from 'yargs';
 import { InputError, InternalError } from '../errors.ts';
 import { defaultTimeSystem, LEAP_SECONDS_ENV } from '../io/tables.ts';
 import { removePendingTemps } from '../io/output.ts';
+import { enableWasmSgp4 } from '../orbit/sgp4.ts';
 import { emit, OUTPUT_FORMATS, type OutputFormat } from './emit.ts';
 import { runTime } from './commands/time.ts';
 import { runSize, sizeOptions } from './commands/size.ts';
@@ -195,6 +196,7 @@ export function joinNegativeValues(args: string[]): string[] {
 /** Run the CLI; returns the exit code. */
 export async function main(args: string[]): Promise<number> {
   try {
+    await enableWasmSgp4();
     // The leap-second table is needed before the commands are parsed: take --leap-seconds first.
     const leapIdx = args.findIndex((x) => x === '--leap-seconds' || x.startsWith('--leap-seconds='));
     if (leapIdx >= 0) {

@@ -5,6 +5,7 @@
 import { parentPort } from 'node:worker_threads';
 import { InputError } from '../errors.ts';
 import { defaultTimeSystem } from '../io/tables.ts';
+import { enableWasmSgp4 } from '../orbit/sgp4.ts';
 import { computePassRows } from './commands/passes.ts';
 import { computeResets } from './commands/resets.ts';
 import type { ScenarioReply, ScenarioTask } from './scenarioTasks.ts';
@@ -26,6 +27,7 @@ function runTask(task: ScenarioTask, ts: ReturnType<typeof defaultTimeSystem>): 
 }
 
 if (parentPort !== null) {
+  await enableWasmSgp4();
   const port = parentPort;
   const ts = defaultTimeSystem();
   port.on('message', (task: ScenarioTask) => port.postMessage(runTask(task, ts)));

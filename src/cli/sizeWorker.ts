@@ -6,6 +6,7 @@
 import { parentPort, workerData } from 'node:worker_threads';
 import { gravityModel } from '../clock/gravity.ts';
 import { defaultTimeSystem } from '../io/tables.ts';
+import { enableWasmSgp4 } from '../orbit/sgp4.ts';
 import { sizeCatalogueItem, type CatalogueItem, type CatalogueOutcome, type CatalogueSizeOptions } from '../plan/catalogue.ts';
 
 /** Data the worker starts with. */
@@ -28,6 +29,7 @@ export interface WorkerReply {
 }
 
 if (parentPort !== null) {
+  await enableWasmSgp4();
   const port = parentPort;
   const { options } = workerData as WorkerInit;
   const ts = defaultTimeSystem();
