@@ -136,18 +136,47 @@ export function integrateAlong(
   /** False skips the per-step polynomials: the tracks then give only `total` (callers that use node integrals). */
   denseOutput = true,
 ): IntegratedTrack[] {
+  const evaluate: BulkEvaluator = (p, v, count, outs) => {
+    for (let f = 0; f < fns.length; f++) {
+      const fn = fns[f];
+      const o = outs[f];
+      for (let i = 0; i < count; i++) o[i] = fn(p[3 * i], p[3 * i + 1], p[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]);
+    }
+  };
+  return integrateBulkAlong(traj, fromTtJ2000S, toTtJ2000S, maxStepS, fns.length, evaluate, visit, nodeIntegrals, denseOutput);
+}
+
+/**
+ * Fills `outs[f][i]` with function f at state i of a sampled chunk (positions [m], inertial
+ * velocities [m/s], packed xyz). One call per chunk: hot callers evaluate all functions in one loop.
+ */
+export type BulkEvaluator = (positionM: Float64Array, velocityMPerS: Float64Array, count: number, outs: Float64Array[]) => void;
+
+/** {@link integrateAlong} with the functions evaluated in bulk by `evaluate` (`functionCount` of them). */
+export function integrateBulkAlong(
+  traj: Trajectory,
+  fromTtJ2000S: number,
+  toTtJ2000S: number,
+  maxStepS: number,
+  functionCount: number,
+  evaluate: BulkEvaluator,
+  visit?: NodeVisitor,
+  nodeIntegrals?: Float64Array[],
+  denseOutput = true,
+): IntegratedTrack[] {
   const spanS = toTtJ2000S - fromTtJ2000S;
   if (!(spanS > 0)) throw new InternalError(`integration span ${spanS} s is not positive`, 'clock span');
   const stepCount = Math.max(1, Math.ceil(spanS / maxStepS - 1e-9));
   const stepS = spanS / stepCount;
   const n = GAUSS_POINTS_PER_STEP;
+  const k = functionCount;
   // Sample in chunks so memory stays bounded on long horizons.
   const chunkSteps = Math.min(4096, stepCount);
-  const coeffs = fns.map(() => new Float64Array(denseOutput ? stepCount * n : 0));
-  const xs = fns.map(() => new Float64Array(stepCount + 1));
+  const coeffs = Array.from({ length: k }, () => new Float64Array(denseOutput ? stepCount * n : 0));
+  const xs = Array.from({ length: k }, () => new Float64Array(stepCount + 1));
   const times = new Float64Array(chunkSteps * n);
   const block: StateBlock = allocStateBlock(chunkSteps * n);
-  const values = new Float64Array(n);
+  const vals = Array.from({ length: k }, () => new Float64Array(chunkSteps * n));
   for (let s0 = 0; s0 < stepCount; s0 += chunkSteps) {
     const s1 = Math.min(stepCount, s0 + chunkSteps);
     const count = (s1 - s0) * n;
@@ -159,39 +188,34 @@ export function integrateAlong(
     const out: StateBlock = count === times.length ? block : { positionM: block.positionM.subarray(0, 3 * count), velocityMPerS: block.velocityMPerS.subarray(0, 3 * count) };
     traj.sampleInto(t, out);
     if (visit !== undefined) visit(t, out, count);
-    const p = out.positionM;
-    const v = out.velocityMPerS;
-    for (let f = 0; f < fns.length; f++) {
-      const fn = fns[f];
+    evaluate(out.positionM, out.velocityMPerS, count, vals);
+    for (let f = 0; f < k; f++) {
+      const values = vals[f];
       const c = coeffs[f];
       const x = xs[f];
+      const nodeOut = nodeIntegrals?.[f];
       for (let s = s0; s < s1; s++) {
+        const base = (s - s0) * n;
         let integral = 0;
-        for (let j = 0; j < n; j++) {
-          const i = (s - s0) * n + j;
-          const val = fn(p[3 * i], p[3 * i + 1], p[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]);
-          values[j] = val;
-          integral += RULE.weights[j] * val;
-        }
+        for (let j = 0; j < n; j++) integral += RULE.weights[j] * values[base + j];
         if (!Number.isFinite(integral)) throw new InternalError(`non-finite clock rate at step ${s} of ${traj.id}`, 'fractional offset');
         if (denseOutput) {
           for (let r = 0; r < n; r++) {
             let cr = 0;
-            for (let j = 0; j < n; j++) cr += VINV[r * n + j] * values[j];
+            for (let j = 0; j < n; j++) cr += VINV[r * n + j] * values[base + j];
             c[s * n + r] = cr;
           }
         }
-        if (nodeIntegrals !== undefined) {
-          const out = nodeIntegrals[f];
+        if (nodeOut !== undefined) {
           for (let j = 0; j < n; j++) {
             let acc = 0;
-            for (let i = 0; i < n; i++) acc += NODE_INT[j * n + i] * values[i];
-            out[s * n + j] = x[s] + 0.5 * stepS * acc;
+            for (let i = 0; i < n; i++) acc += NODE_INT[j * n + i] * values[base + i];
+            nodeOut[s * n + j] = x[s] + 0.5 * stepS * acc;
           }
         }
         x[s + 1] = x[s] + 0.5 * stepS * integral;
       }
     }
   }
-  return fns.map((_, f) => new IntegratedTrack(fromTtJ2000S, stepS, stepCount, coeffs[f], xs[f]));
+  return Array.from({ length: k }, (_, f) => new IntegratedTrack(fromTtJ2000S, stepS, stepCount, coeffs[f], xs[f]));
 }

@@ -4,7 +4,7 @@
  * sensitivity to the orbit. Contract: `tauplan size`.
  */
 import { InternalError } from '../errors.ts';
-import { clockStepS, GAUSS_POINTS_PER_STEP, integrateAlong } from '../clock/integrate.ts';
+import { clockStepS, GAUSS_POINTS_PER_STEP, integrateBulkAlong } from '../clock/integrate.ts';
 import { potentialM2PerS2, type GravityModel } from '../clock/gravity.ts';
 import { conventionalPeriodicS, SPEED_OF_LIGHT_SQUARED_M2_PER_S2 as C2 } from '../clock/rate.ts';
 import { IERS2010_L_G, SECONDS_PER_DAY } from '../constants.ts';
@@ -80,12 +80,24 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
   let filled = 0;
   const nodeGrav = new Float64Array(nodeCount);
   const nodeVel = new Float64Array(nodeCount);
-  const [grav, vel] = integrateAlong(
+  const [grav, vel] = integrateBulkAlong(
     traj,
     fromTt,
     fromTt + spanS,
     stepS,
-    [(x, y, z) => IERS2010_L_G - potentialM2PerS2(gravity, x, y, z) / C2, (_x, _y, _z, vx, vy, vz) => (-0.5 * (vx * vx + vy * vy + vz * vz)) / C2],
+    2,
+    (r, v, count, outs) => {
+      // Both parts in one loop (the hot path of sizing): gravitational L_G − U/c², velocity −v²/(2c²).
+      const g = outs[0];
+      const w = outs[1];
+      for (let i = 0; i < count; i++) {
+        const vx = v[3 * i];
+        const vy = v[3 * i + 1];
+        const vz = v[3 * i + 2];
+        g[i] = IERS2010_L_G - potentialM2PerS2(gravity, r[3 * i], r[3 * i + 1], r[3 * i + 2]) / C2;
+        w[i] = (-0.5 * (vx * vx + vy * vy + vz * vz)) / C2;
+      }
+    },
     (times, block, count) => {
       const r = block.positionM;
       const v = block.velocityMPerS;
