@@ -110,13 +110,13 @@ export class IntegratedTrack {
 export type NodeVisitor = (ttJ2000S: Float64Array, states: StateBlock, count: number) => void;
 
 /**
- * Step length [s] for a trajectory: ≤ 900 s, ≤ P/16, shorter for eccentric orbits (perigee passes,
+ * Step length [s] for a trajectory: ≤ 1800 s, ≤ P/8, shorter for eccentric orbits (perigee passes,
  * where the rate changes on a time scale of (1 − e)^1.5 of the mean). With 8 Gauss points this is
  * still far below 1 ps/day (tests/clock-integration.test.ts), at a few hundred states per day.
  */
 export function clockStepS(periodS: number, e: number): number {
-  const raw = (periodS / 16) * Math.pow(Math.max(1 - e, 0.05), 1.5);
-  return Math.min(900, Math.max(5, raw));
+  const raw = (periodS / 8) * Math.pow(Math.max(1 - e, 0.05), 1.5);
+  return Math.min(1800, Math.max(5, raw));
 }
 
 /**
