@@ -19,6 +19,7 @@
  * V records are `temeToEcef` velocities (ω = 7.292115e-5 rad/s), in dm/s; clocks are an invented
  * linear model. Rebuild with `node --import tsx scripts/make-sp3-fixtures.ts` (writes the files).
  */
+import { sp3HeaderLines } from '../src/io/sp3Write.ts';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { WGS84_GM_M3_PER_S2 } from '../src/constants.ts';
@@ -27,7 +28,6 @@ import { elementsFromDegKm, elementsFromState, keplerState, type KeplerianElemen
 import { temeToEcef } from '../src/orbit/frames.ts';
 import { gmstRadAtTt } from '../src/orbit/sp3.ts';
 import { vec3 } from '../src/orbit/vec.ts';
-import { daysFromCivil, MJD_OF_UNIX_EPOCH } from '../src/time/calendar.ts';
 import { Instant } from '../src/time/instant.ts';
 import type { CivilTime, TimeSystem } from '../src/time/timeSystem.ts';
 
@@ -76,27 +76,7 @@ function civilAt(time: TimeSystem, t: Instant): CivilTime {
 function writeSp3(time: TimeSystem, opts: { withV: boolean; intervalS: number; count: number; skip: Set<number>; sats: SatPlan[]; comments: string[] }): string {
   const start = time.fromScale('GPS', START);
   const kept = [...Array(opts.count).keys()].filter((k) => !opts.skip.has(k));
-  const c = START;
-  const out: string[] = [];
-  out.push(`#d${opts.withV ? 'V' : 'P'}${c.year} ${i2(c.month)} ${i2(c.day)} ${i2(c.hour)} ${i2(c.minute)} ${f(c.second, 11, 8)} ${String(kept.length).padStart(7)} ORBIT IGS20 KEP  TAU `.trimEnd());
-  const { week, secondsOfWeek } = time.gpsWeek(start);
-  const day = daysFromCivil(c.year, c.month, c.day);
-  out.push(`## ${String(week).padStart(4)} ${f(secondsOfWeek, 15, 8)} ${f(opts.intervalS, 14, 8)} ${String(day + MJD_OF_UNIX_EPOCH).padStart(5)} ${f(0, 15, 13)}`);
-  const ids = opts.sats.map((s) => s.id);
-  for (let li = 0; li < 5; li++) {
-    const chunk = Array.from({ length: 17 }, (_, k) => ids[li * 17 + k] ?? '  0').join('');
-    out.push((li === 0 ? `+  ${String(ids.length).padStart(3)}   ` : '+        ') + chunk);
-  }
-  for (let li = 0; li < 5; li++) {
-    out.push('++       ' + Array.from({ length: 17 }, (_, k) => (ids[li * 17 + k] === undefined ? '  0' : '  2')).join(''));
-  }
-  out.push('%c M  cc GPS ccc cccc cccc cccc cccc ccccc ccccc ccccc ccccc');
-  out.push('%c cc cc ccc ccc cccc cccc cccc cccc ccccc ccccc ccccc ccccc');
-  out.push('%f  1.2500000  1.025000000  0.00000000000  0.000000000000000');
-  out.push('%f  0.0000000  0.000000000  0.00000000000  0.000000000000000');
-  out.push('%i    0    0    0    0      0      0      0      0         0');
-  out.push('%i    0    0    0    0      0      0      0      0         0');
-  for (const line of opts.comments) out.push(`/* ${line}`);
+  const out = sp3HeaderLines(time, start, opts.intervalS, kept.length, opts.sats.map((s) => s.id), { withVelocity: opts.withV, orbitType: 'KEP', comments: opts.comments });
   for (const k of kept) {
     const inst = start.plusS(k * opts.intervalS);
     const e = civilAt(time, inst);

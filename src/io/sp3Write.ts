@@ -20,14 +20,20 @@ export interface Sp3WriteSatellite {
   trajectory: Trajectory;
 }
 
-/** SP3-d text with `count` epochs every `intervalS` seconds from `start`. */
-export function writeSp3Text(time: TimeSystem, start: Instant, intervalS: number, count: number, sats: readonly Sp3WriteSatellite[], gmstRadAt: (ttJ2000S: number) => number, comments: readonly string[] = []): string {
+/** Header lines of an SP3-d file (`#d` … `/*` comments), shared by every writer of SP3 text. */
+export function sp3HeaderLines(
+  time: TimeSystem,
+  start: Instant,
+  intervalS: number,
+  count: number,
+  ids: readonly string[],
+  opts: { withVelocity: boolean; orbitType: string; comments: readonly string[] },
+): string[] {
   const c = time.civil(start, 'GPS');
   const out: string[] = [];
-  out.push(`#dP${c.year} ${i2(c.month)} ${i2(c.day)} ${i2(c.hour)} ${i2(c.minute)} ${f(c.second, 11, 8)} ${String(count).padStart(7)} ORBIT IGS20 FIT  TAU`);
+  out.push(`#d${opts.withVelocity ? 'V' : 'P'}${c.year} ${i2(c.month)} ${i2(c.day)} ${i2(c.hour)} ${i2(c.minute)} ${f(c.second, 11, 8)} ${String(count).padStart(7)} ORBIT IGS20 ${opts.orbitType}  TAU`);
   const { week, secondsOfWeek } = time.gpsWeek(start);
   out.push(`## ${String(week).padStart(4)} ${f(secondsOfWeek, 15, 8)} ${f(intervalS, 14, 8)} ${String(daysFromCivil(c.year, c.month, c.day) + MJD_OF_UNIX_EPOCH).padStart(5)} ${f((c.hour * 3600 + c.minute * 60 + c.second) / 86400, 15, 13)}`);
-  const ids = sats.map((s) => s.id);
   const lines = Math.max(5, Math.ceil(ids.length / 17));
   for (let li = 0; li < lines; li++) {
     const chunk = Array.from({ length: 17 }, (_, k) => (ids[li * 17 + k] ?? '0').padStart(3)).join('');
@@ -40,7 +46,13 @@ export function writeSp3Text(time: TimeSystem, start: Instant, intervalS: number
   out.push('%f  0.0000000  0.000000000  0.00000000000  0.000000000000000');
   out.push('%i    0    0    0    0      0      0      0      0         0');
   out.push('%i    0    0    0    0      0      0      0      0         0');
-  for (const line of comments) out.push(`/* ${line}`);
+  for (const line of opts.comments) out.push(`/* ${line}`);
+  return out;
+}
+
+/** SP3-d text with `count` epochs every `intervalS` seconds from `start`. */
+export function writeSp3Text(time: TimeSystem, start: Instant, intervalS: number, count: number, sats: readonly Sp3WriteSatellite[], gmstRadAt: (ttJ2000S: number) => number, comments: readonly string[] = []): string {
+  const out = sp3HeaderLines(time, start, intervalS, count, sats.map((s) => s.id), { withVelocity: false, orbitType: 'FIT', comments });
   for (let k = 0; k < count; k++) {
     const inst = start.plusS(k * intervalS);
     const e = time.civil(inst, 'GPS');
