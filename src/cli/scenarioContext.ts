@@ -12,6 +12,7 @@ import { trajectoryForSatellite } from '../io/orbitSources.ts';
 import type { ClockSpec, SatelliteSpec, ScenarioSpec } from '../io/scenario.ts';
 import { gmstRadAtTt } from '../orbit/sp3.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
+import { Sgp4Trajectory, SGP4_DEFAULT_HALF_SPAN_S } from '../orbit/sgp4.ts';
 import { prepareSatelliteClock, usableEnd, type SatelliteClockRun } from '../plan/satelliteClock.ts';
 import { Instant } from '../time/instant.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
@@ -88,6 +89,13 @@ export function spanWithClockEpoch(from: number, to: number, params: OscillatorP
   return { fromTtJ2000S: Math.min(from, params.epochTtJ2000S), toTtJ2000S: Math.max(to, params.epochTtJ2000S + 1) };
 }
 
+/** Days from an element set's epoch to the farthest end of [from, to] when past SGP4's usual span, else null. */
+function staleElementSetDays(traj: Trajectory, from: number, to: number): number | null {
+  if (!(traj instanceof Sgp4Trajectory)) return null;
+  const farS = Math.max(Math.abs(from - traj.epochTtJ2000S), Math.abs(to - traj.epochTtJ2000S));
+  return farS > SGP4_DEFAULT_HALF_SPAN_S ? farS / 86400 : null;
+}
+
 /** Longest window or horizon handled in one run [days]; memory grows linearly with it. */
 export const MAX_WINDOW_DAYS = 3660;
 
@@ -127,10 +135,15 @@ export function loadScenarioContext(path: string, ts: TimeSystem, sel: ScenarioS
     const { endTtJ2000S, failure } = usableEnd(resolved.trajectory, from, to);
     if (failure !== null && endTtJ2000S - from < 60) throw failure;
     const run = prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, params, from, endTtJ2000S);
-    if (failure === null) return run;
-    const at = ts.format(Instant.fromTtJ2000S(endTtJ2000S));
-    const reason = failure instanceof InputError ? failure.what : String(failure);
-    return { ...run, endTtJ2000S, note: `${sat.id}: ${reason} after ${at}; reported up to then` };
+    const notes: string[] = [];
+    const stale = staleElementSetDays(resolved.trajectory, from, endTtJ2000S);
+    if (stale !== null) notes.push(`${sat.id}: the window reaches ${stale.toFixed(0)} days from its element-set epoch, beyond SGP4's ${SGP4_DEFAULT_HALF_SPAN_S / 86400}-day span — the orbit is extrapolated; use a newer element set`);
+    if (failure !== null) {
+      const at = ts.format(Instant.fromTtJ2000S(endTtJ2000S));
+      const reason = failure instanceof InputError ? failure.what : String(failure);
+      notes.push(`${sat.id}: ${reason} after ${at}; reported up to then`);
+    }
+    return notes.length === 0 ? run : { ...run, endTtJ2000S, note: notes.join('. ') };
   });
   const stations: Station[] = stationSpecs.map((s) => ({ id: s.id, latDeg: s.latDeg, lonDeg: s.lonDeg, heightM: s.heightM, geoidHeightM: s.geoidHeightM, maskDeg: s.maskDeg, minPassS: s.minPassS }));
   return { scenario, ts, gravity, fromTtJ2000S: from, toTtJ2000S: to, runs, stations, gmstRadAt: (t) => gmstRadAtTt(ts, t), satellites };
