@@ -60,3 +60,12 @@ export const SECONDS_PER_DAY = 86_400;
 
 /** Nominal 10.23 MHz fundamental frequency of GNSS clocks [Hz]. IS-GPS-200 §3.3.1.1. */
 export const GNSS_NOMINAL_HZ = 10.23e6;
+
+/** Heliocentric gravitational constant GM_Sun [m³/s²] (TDB-compatible). IERS Conventions 2010, Table 1.1. */
+export const IERS2010_GM_SUN_M3_PER_S2 = 1.32712442099e20;
+
+/** Moon–Earth mass ratio [1]. IERS Conventions 2010, Table 1.1. */
+export const IERS2010_MOON_EARTH_MASS_RATIO = 0.0123000371;
+
+/** Astronomical unit [m]. IAU 2012 Resolution B2 (exact). */
+export const IAU2012_AU_M = 149_597_870_700;

@@ -3,6 +3,7 @@
  * stations, the window, and the Earth-rotation function. This is the edge (it reads files).
  */
 import { gravityModel, type GravityModel } from '../clock/gravity.ts';
+import { TidalField } from '../clock/tides.ts';
 import type { OscillatorParams } from '../clock/oscillator.ts';
 import { InputError, SpanError } from '../errors.ts';
 import type { GmstRadAt } from '../events/passes.ts';
@@ -89,6 +90,12 @@ export function spanWithClockEpoch(from: number, to: number, params: OscillatorP
   return { fromTtJ2000S: Math.min(from, params.epochTtJ2000S), toTtJ2000S: Math.max(to, params.epochTtJ2000S + 1) };
 }
 
+/** The scenario's gravity model, with the solar and lunar tides when it asks for them. */
+export function scenarioGravity(scenario: ScenarioSpec, ts: TimeSystem, path: string, name: string = scenario.gravity): GravityModel {
+  const base = gravityModel(name, `${path} gravity`);
+  return scenario.tides ? { ...base, tides: new TidalField((t) => ts.jdUtcFromTtJ2000S(t)) } : base;
+}
+
 /** Days from an element set's epoch to the farthest end of [from, to] when past SGP4's usual span, else null. */
 function staleElementSetDays(traj: Trajectory, from: number, to: number): number | null {
   if (!(traj instanceof Sgp4Trajectory)) return null;
@@ -122,7 +129,7 @@ export function selectSatellites(scenario: ScenarioSpec, sel: ScenarioSelection)
 /** Load a scenario (or use the one already parsed) and prepare the selected satellites' clocks. */
 export function loadScenarioContext(path: string, ts: TimeSystem, sel: ScenarioSelection, parsed?: ScenarioSpec): ScenarioContext {
   const scenario = parsed ?? loadScenario(path, ts);
-  const gravity = gravityModel(scenario.gravity, `${path} gravity`);
+  const gravity = scenarioGravity(scenario, ts, path);
   const { from, to } = resolveWindow(scenario, ts, sel, path);
   const satellites = selectSatellites(scenario, sel);
   const stationSpecs = pick(scenario.stations, sel.station, (s) => [s.id], '--station', 'station');

@@ -18,6 +18,8 @@ export interface GravityModel {
   readonly radiusM: number;
   /** Jₙ by degree; entries 0 and 1 are zero. */
   readonly j: readonly number[];
+  /** Solar and lunar tidal potential, when asked for (off by default: < 1e-15 up to GNSS altitude). */
+  readonly tides?: { potentialM2PerS2(ttJ2000S: number, x: number, y: number, z: number): number };
 }
 
 /** Build one of the named models with the contract's default constants (WGS-84 GM, EGM2008 Jₙ). */

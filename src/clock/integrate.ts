@@ -42,7 +42,7 @@ const NODE_INT = (() => {
 })();
 
 /** A function of one state: position [m] and inertial velocity [m/s], in true-of-date axes. */
-export type StateFunction = (x: number, y: number, z: number, vx: number, vy: number, vz: number) => number;
+export type StateFunction = (x: number, y: number, z: number, vx: number, vy: number, vz: number, ttJ2000S: number) => number;
 
 /** Dense integral X(t) = ∫_{from}^{t} f dt [s·(unit of f)] over a span, built once. */
 export class IntegratedTrack {
@@ -136,11 +136,11 @@ export function integrateAlong(
   /** False skips the per-step polynomials: the tracks then give only `total` (callers that use node integrals). */
   denseOutput = true,
 ): IntegratedTrack[] {
-  const evaluate: BulkEvaluator = (p, v, count, outs) => {
+  const evaluate: BulkEvaluator = (p, v, count, outs, t) => {
     for (let f = 0; f < fns.length; f++) {
       const fn = fns[f];
       const o = outs[f];
-      for (let i = 0; i < count; i++) o[i] = fn(p[3 * i], p[3 * i + 1], p[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]);
+      for (let i = 0; i < count; i++) o[i] = fn(p[3 * i], p[3 * i + 1], p[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2], t[i]);
     }
   };
   return integrateBulkAlong(traj, fromTtJ2000S, toTtJ2000S, maxStepS, fns.length, evaluate, visit, nodeIntegrals, denseOutput);
@@ -150,7 +150,7 @@ export function integrateAlong(
  * Fills `outs[f][i]` with function f at state i of a sampled chunk (positions [m], inertial
  * velocities [m/s], packed xyz). One call per chunk: hot callers evaluate all functions in one loop.
  */
-export type BulkEvaluator = (positionM: Float64Array, velocityMPerS: Float64Array, count: number, outs: Float64Array[]) => void;
+export type BulkEvaluator = (positionM: Float64Array, velocityMPerS: Float64Array, count: number, outs: Float64Array[], ttJ2000S: Float64Array) => void;
 
 /** {@link integrateAlong} with the functions evaluated in bulk by `evaluate` (`functionCount` of them). */
 export function integrateBulkAlong(
@@ -188,7 +188,7 @@ export function integrateBulkAlong(
     const out: StateBlock = count === times.length ? block : { positionM: block.positionM.subarray(0, 3 * count), velocityMPerS: block.velocityMPerS.subarray(0, 3 * count) };
     traj.sampleInto(t, out);
     if (visit !== undefined) visit(t, out, count);
-    evaluate(out.positionM, out.velocityMPerS, count, vals);
+    evaluate(out.positionM, out.velocityMPerS, count, vals, t);
     for (let f = 0; f < k; f++) {
       const values = vals[f];
       const c = coeffs[f];

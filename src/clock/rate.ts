@@ -17,10 +17,19 @@ export interface RateParts {
   velocity: number;
 }
 
-/** Fractional offset y (dimensionless) at position [m] and inertial velocity [m/s]. */
-export function fractionalOffset(model: GravityModel, x: number, y: number, z: number, vx: number, vy: number, vz: number): number {
-  const u = potentialM2PerS2(model, x, y, z);
+/**
+ * Fractional offset y (dimensionless) at position [m] and inertial velocity [m/s]. The tidal term
+ * of the model, when it has one, needs the instant `ttJ2000S` (s since J2000.0 TT).
+ */
+export function fractionalOffset(model: GravityModel, x: number, y: number, z: number, vx: number, vy: number, vz: number, ttJ2000S = NaN): number {
+  const u = totalPotentialM2PerS2(model, x, y, z, ttJ2000S);
   return IERS2010_L_G - (0.5 * (vx * vx + vy * vy + vz * vz) + u) / C2;
+}
+
+/** Earth's potential plus the tidal potential when the model carries one [m²/s²]. */
+export function totalPotentialM2PerS2(model: GravityModel, x: number, y: number, z: number, ttJ2000S: number): number {
+  const u = potentialM2PerS2(model, x, y, z);
+  return model.tides === undefined ? u : u + model.tides.potentialM2PerS2(ttJ2000S, x, y, z);
 }
 
 /** Gravitational and velocity parts of y. */

@@ -178,6 +178,8 @@ export interface ScenarioSpec {
   window: { start: Instant; end: Instant };
   /** Default zonal (EGM2008 J2..J6). */
   gravity: GravityModel;
+  /** Extra key `tides`: add the solar and lunar tidal potential to clock rates. Default false. */
+  tides: boolean;
   /** Default GPS. */
   reference: ReferenceScale;
   /** At least one; ids unique across satellites and stations. */
@@ -266,6 +268,7 @@ const ScenarioSchema = z.strictObject({
   name: z.string().optional(),
   window: z.strictObject({ start: text, end: text }),
   gravity: z.enum(['point', 'j2', 'zonal']).optional(),
+  tides: z.boolean().optional(),
   reference: z.enum(['GPS', 'TAI', 'TT']).optional(),
   satellites: z.array(SatelliteSchema).min(1),
   stations: z.array(StationSchema).optional(),
@@ -797,6 +800,7 @@ function buildSpec(raw: RawScenario, ctx: Context): ScenarioSpec {
     folder: dirname(resolve(ctx.fileName)),
     window: { start, end },
     gravity: raw.gravity ?? 'zonal',
+    tides: raw.tides ?? false,
     reference: raw.reference ?? 'GPS',
     satellites,
     stations,

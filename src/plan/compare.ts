@@ -72,7 +72,7 @@ export function compareClocks(sats: CompareSatellite[], stations: Station[], gra
     const orbit = orbitSummaryAt(s.trajectory, from, gravity.gmM3PerS2);
     const periodS = Number.isFinite(orbit.periodS) && orbit.periodS > 0 ? orbit.periodS : 6000;
     const maxStep = s.flight === null ? clockStepS(periodS, Math.min(orbit.e, 0.95)) : Math.min(10, (to - from) / 20);
-    const [track] = integrateAlong(s.trajectory, from, to, maxStep, [(x, y, z, vx, vy, vz) => fractionalOffset(gravity, x, y, z, vx, vy, vz)]);
+    const [track] = integrateAlong(s.trajectory, from, to, maxStep, [(x, y, z, vx, vy, vz, t) => fractionalOffset(gravity, x, y, z, vx, vy, vz, t)]);
     const reportFrom = s.flight === null ? fromTtJ2000S : from;
     const reportTo = s.flight === null ? toTtJ2000S : to;
     // A flight is no orbit: its mean is the plain average over the flight, not an orbit-mean slope.

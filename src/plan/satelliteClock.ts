@@ -77,6 +77,6 @@ export function prepareSatelliteClock(
   const end = params === null ? toTtJ2000S : Math.max(toTtJ2000S, params.epochTtJ2000S + 1);
   const orbit = orbitSummaryAt(trajectory, Math.max(start, trajectory.validFromTtJ2000S), gravity.gmM3PerS2);
   const stepS = clockStepS(Number.isFinite(orbit.periodS) ? orbit.periodS : 86400, Math.min(orbit.e, 0.95));
-  const [track] = integrateAlong(trajectory, start, end, stepS, [(x, y, z, vx, vy, vz) => fractionalOffset(gravity, x, y, z, vx, vy, vz)]);
+  const [track] = integrateAlong(trajectory, start, end, stepS, [(x, y, z, vx, vy, vz, t) => fractionalOffset(gravity, x, y, z, vx, vy, vz, t)]);
   return { id, name, trajectory, clock: new OnboardClock(track, params), orbit, keepInNs: params?.keepInNs ?? null, endTtJ2000S: toTtJ2000S, note: null };
 }

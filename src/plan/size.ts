@@ -5,8 +5,8 @@
  */
 import { InternalError } from '../errors.ts';
 import { clockStepS, GAUSS_POINTS_PER_STEP, integrateBulkAlong } from '../clock/integrate.ts';
-import { potentialM2PerS2, type GravityModel } from '../clock/gravity.ts';
-import { conventionalPeriodicS, SPEED_OF_LIGHT_SQUARED_M2_PER_S2 as C2 } from '../clock/rate.ts';
+import type { GravityModel } from '../clock/gravity.ts';
+import { conventionalPeriodicS, SPEED_OF_LIGHT_SQUARED_M2_PER_S2 as C2, totalPotentialM2PerS2 } from '../clock/rate.ts';
 import { IERS2010_L_G, SECONDS_PER_DAY } from '../constants.ts';
 import { elementsFromState } from '../orbit/keplerian.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
@@ -86,7 +86,7 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
     fromTt + spanS,
     stepS,
     2,
-    (r, v, count, outs) => {
+    (r, v, count, outs, times) => {
       // Both parts in one loop (the hot path of sizing): gravitational L_G − U/c², velocity −v²/(2c²).
       const g = outs[0];
       const w = outs[1];
@@ -94,7 +94,7 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
         const vx = v[3 * i];
         const vy = v[3 * i + 1];
         const vz = v[3 * i + 2];
-        g[i] = IERS2010_L_G - potentialM2PerS2(gravity, r[3 * i], r[3 * i + 1], r[3 * i + 2]) / C2;
+        g[i] = IERS2010_L_G - totalPotentialM2PerS2(gravity, r[3 * i], r[3 * i + 1], r[3 * i + 2], times[i]) / C2;
         w[i] = (-0.5 * (vx * vx + vy * vy + vz * vz)) / C2;
       }
     },

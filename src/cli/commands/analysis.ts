@@ -23,7 +23,7 @@ import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
 import { compareSection, fitSection, page, sweepSection, windowMeta } from '../../report/htmlReport.ts';
 import { orbitFromFlags } from '../orbitArgs.ts';
-import { checkWindowInSpan, oscillatorParams, spanWithClockEpoch } from '../scenarioContext.ts';
+import { checkWindowInSpan, oscillatorParams, scenarioGravity, spanWithClockEpoch } from '../scenarioContext.ts';
 
 // ---- compare ----------------------------------------------------------------------------------
 
@@ -36,7 +36,7 @@ export function compareOptions<T>(y: Argv<T>) {
 
 export function computeCompare(a: { scenario: string; from?: string; to?: string }, ts: TimeSystem) {
   const scenario = loadScenario(a.scenario, ts);
-  const gravity = gravityModel(scenario.gravity, `${a.scenario} gravity`);
+  const gravity = scenarioGravity(scenario, ts, a.scenario);
   const from = a.from === undefined ? scenario.window.start.ttJ2000S : ts.parse(a.from, '--from').ttJ2000S;
   const to = a.to === undefined ? scenario.window.end.ttJ2000S : ts.parse(a.to, '--to').ttJ2000S;
   if (!(to > from)) throw new InputError('the window ends before it starts', a.to !== undefined ? '--to' : `${a.scenario} window`, 'give an end after the start');
@@ -136,7 +136,7 @@ export function runTrack(a: TrackArgs, ts: TimeSystem): Rendered {
   let to: number;
   if (a.scenario !== undefined) {
     const scenario = loadScenario(a.scenario, ts);
-    const gravity = gravityModel(a.gravity ?? scenario.gravity, '--gravity');
+    const gravity = scenarioGravity(scenario, ts, a.scenario, a.gravity ?? scenario.gravity);
     const sat = scenarioSatellite(scenario, a.sat);
     from = a.from === undefined ? scenario.window.start.ttJ2000S : ts.parse(a.from, '--from').ttJ2000S;
     to = a.to === undefined ? scenario.window.end.ttJ2000S : ts.parse(a.to, '--to').ttJ2000S;
@@ -199,7 +199,7 @@ export function computeFit(a: FitArgs, ts: TimeSystem) {
   let meanRelativistic = 0;
   if (a.scenario !== undefined) {
     const scenario = loadScenario(a.scenario, ts, '--scenario');
-    const gravity = gravityModel(scenario.gravity, `${a.scenario} gravity`);
+    const gravity = scenarioGravity(scenario, ts, a.scenario);
     const sat = scenarioSatellite(scenario, a.sat);
     const first = data.rows[0].ttJ2000S;
     const last = data.rows[data.rows.length - 1].ttJ2000S;

@@ -1,6 +1,7 @@
 /** `tauplan size`: frequency-offset sizing for one orbit (or every satellite of a TLE file with --all). */
 import type { Argv } from 'yargs';
 import { gravityModel } from '../../clock/gravity.ts';
+import { TidalField } from '../../clock/tides.ts';
 import { GNSS_NOMINAL_HZ } from '../../constants.ts';
 import { InputError } from '../../errors.ts';
 import { sizeClock } from '../../plan/size.ts';
@@ -15,6 +16,7 @@ import { orbitFromFlags, orbitOptions, type OrbitFlags } from '../orbitArgs.ts';
 export function sizeOptions<T>(y: Argv<T>) {
   return orbitOptions(y)
     .option('gravity', { type: 'string', default: 'zonal', describe: 'point | j2 | zonal' })
+    .option('tides', { type: 'boolean', default: false, describe: 'add the solar and lunar tidal potential (below 1e-15 up to GNSS altitude)' })
     .option('from', { type: 'string', describe: 'start of the span (default: the orbit epoch)' })
     .option('span', { type: 'string', default: '1d', describe: 'length of the span, e.g. 1d, 36h, P2D' })
     .option('nominal-hz', { type: 'number', default: GNSS_NOMINAL_HZ, describe: 'nominal oscillator frequency [Hz]' })
@@ -28,13 +30,15 @@ export function sizeOptions<T>(y: Argv<T>) {
 
 export interface SizeArgs extends OrbitFlags {
   gravity: string;
+  tides?: boolean;
   from?: string;
   span: string;
   nominalHz: number;
 }
 
 export async function runSize(a: SizeArgs, ts: TimeSystem): Promise<Rendered> {
-  const gravity = gravityModel(a.gravity, '--gravity');
+  const base = gravityModel(a.gravity, '--gravity');
+  const gravity = a.tides === true ? { ...base, tides: new TidalField((t) => ts.jdUtcFromTtJ2000S(t)) } : base;
   const spanS = parsePositiveDurationS(a.span, '--span');
   if (!(a.nominalHz > 0)) throw new InputError(`nominal frequency ${a.nominalHz} Hz is not positive`, '--nominal-hz', 'give e.g. 10.23e6');
   const fromGiven = a.from === undefined ? null : ts.parse(a.from, '--from').ttJ2000S;
