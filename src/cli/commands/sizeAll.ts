@@ -163,8 +163,9 @@ export async function sizeItems(
   const batchSize = Math.max(1, Math.min(32, Math.ceil(items.length / (jobs * 8))));
   const batchCount = Math.ceil(items.length / batchSize);
   const workerCount = Math.min(jobs, batchCount);
-  // Never dispatch further ahead of the oldest unfinished batch than this: bounds what waits in `order`.
-  const window = workerCount * 4;
+  // Never dispatch further ahead of the oldest unfinished batch than this: bounds what waits in `order`
+  // (a few thousand results at most) while a slow batch (deep-space orbits) does not stall the others.
+  const window = workerCount * 64;
   const order = new InOrderBuffer<CatalogueOutcome[]>();
   const init: WorkerInit = { options };
   const workers: Worker[] = [];
