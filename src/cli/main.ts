@@ -26,8 +26,8 @@ export const EXIT_BAD_INPUT = 2;
 /** Options every command takes. */
 function common<T>(y: Argv<T>) {
   return y
-    .option('format', { type: 'string', choices: OUTPUT_FORMATS as OutputFormat[], default: 'text' as OutputFormat, describe: 'output format' })
-    .option('out', { type: 'string', describe: 'write to this file (atomically) instead of stdout' })
+    .option('format', { type: 'string', requiresArg: true, choices: OUTPUT_FORMATS as OutputFormat[], default: 'text' as OutputFormat, describe: 'output format' })
+    .option('out', { type: 'string', requiresArg: true, describe: 'write to this file (atomically) instead of stdout' })
     .option('quiet', { type: 'boolean', default: false, describe: 'no progress or warnings on stderr' });
 }
 
@@ -100,7 +100,7 @@ function parser(args: string[]) {
       (y) => demoOptions(y),
       (a) => runDemo(a, ts),
     )
-    .option('leap-seconds', { type: 'string', global: true, describe: 'leap-second table to use instead of the packaged one (IERS Leap_Second.dat)' })
+    .option('leap-seconds', { type: 'string', requiresArg: true, global: true, describe: 'leap-second table to use instead of the packaged one (IERS Leap_Second.dat)' })
     .example('tauplan demo --out ./tauplan-demo', 'the whole job on the invented demo scenario')
     .example('tauplan time 2027-01-01T00:00:00Z', 'one instant in every scale')
     .example('tauplan size --a-km 26561.75 --i-deg 55 --gravity point --format json', 'GPS-like sizing')
@@ -131,8 +131,9 @@ function parser(args: string[]) {
       if (typeof argv.out === 'string' && argv._[0] !== 'demo') checkOutPath(argv.out);
     })
     .fail((msg, err) => {
-      if (err !== undefined && err !== null) throw err;
-      throw usageError(msg, args);
+      // yargs' own validation faults (YError) are usage errors like the messages it passes alone.
+      if (err !== undefined && err !== null && err.name !== 'YError') throw err;
+      throw usageError(msg ?? err?.message ?? 'bad command line', args);
     })
     .help()
     .version('0.1.0');

@@ -12,18 +12,18 @@ import type { TimeSystem } from '../time/timeSystem.ts';
 
 export function orbitOptions<T>(y: Argv<T>) {
   return y
-    .option('a-km', { type: 'number', describe: 'semi-major axis [km] (osculating)' })
-    .option('altitude-km', { type: 'number', describe: 'altitude above 6378.137 km [km]; a = 6378.137 + altitude' })
-    .option('e', { type: 'number', default: 0, describe: 'eccentricity' })
-    .option('i-deg', { type: 'number', default: 0, describe: 'inclination [deg]' })
-    .option('raan-deg', { type: 'number', default: 0, describe: 'right ascension of the ascending node [deg]' })
-    .option('argp-deg', { type: 'number', default: 0, describe: 'argument of perigee [deg]' })
-    .option('m-deg', { type: 'number', default: 0, describe: 'mean anomaly [deg]' })
-    .option('epoch', { type: 'string', default: '2027-01-01T00:00:00Z', describe: 'epoch of the elements' })
-    .option('tle', { type: 'string', describe: 'TLE/3LE file' })
-    .option('omm', { type: 'string', describe: 'CCSDS OMM file (JSON, KVN or XML)' })
-    .option('scenario', { type: 'string', describe: 'scenario file (JSON or YAML)' })
-    .option('sat', { type: 'string', describe: 'satellite: catalogue number, TLE name or scenario id' });
+    .option('a-km', { type: 'number', requiresArg: true, describe: 'semi-major axis [km] (osculating)' })
+    .option('altitude-km', { type: 'number', requiresArg: true, describe: 'altitude above 6378.137 km [km]; a = 6378.137 + altitude' })
+    .option('e', { type: 'number', requiresArg: true, default: 0, describe: 'eccentricity' })
+    .option('i-deg', { type: 'number', requiresArg: true, default: 0, describe: 'inclination [deg]' })
+    .option('raan-deg', { type: 'number', requiresArg: true, default: 0, describe: 'right ascension of the ascending node [deg]' })
+    .option('argp-deg', { type: 'number', requiresArg: true, default: 0, describe: 'argument of perigee [deg]' })
+    .option('m-deg', { type: 'number', requiresArg: true, default: 0, describe: 'mean anomaly [deg]' })
+    .option('epoch', { type: 'string', requiresArg: true, default: '2027-01-01T00:00:00Z', describe: 'epoch of the elements' })
+    .option('tle', { type: 'string', requiresArg: true, describe: 'TLE/3LE file' })
+    .option('omm', { type: 'string', requiresArg: true, describe: 'CCSDS OMM file (JSON, KVN or XML)' })
+    .option('scenario', { type: 'string', requiresArg: true, describe: 'scenario file (JSON or YAML)' })
+    .option('sat', { type: 'string', requiresArg: true, describe: 'satellite: catalogue number, TLE name or scenario id' });
 }
 
 export interface OrbitFlags {

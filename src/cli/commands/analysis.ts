@@ -30,8 +30,8 @@ import { checkWindowInSpan, oscillatorParams, scenarioGravity, spanWithClockEpoc
 export function compareOptions<T>(y: Argv<T>) {
   return y
     .positional('scenario', { type: 'string', demandOption: true, describe: 'scenario file (JSON or YAML)' })
-    .option('from', { type: 'string', describe: 'window start (default: scenario window)' })
-    .option('to', { type: 'string', describe: 'window end (default: scenario window)' });
+    .option('from', { type: 'string', requiresArg: true, describe: 'window start (default: scenario window)' })
+    .option('to', { type: 'string', requiresArg: true, describe: 'window end (default: scenario window)' });
 }
 
 export function computeCompare(a: { scenario: string; from?: string; to?: string }, ts: TimeSystem) {
@@ -64,13 +64,13 @@ export function runCompare(a: { scenario: string; from?: string; to?: string }, 
 
 export function sweepOptions<T>(y: Argv<T>) {
   return y
-    .option('from-km', { type: 'number', default: 300, describe: 'lowest altitude [km]' })
-    .option('to-km', { type: 'number', default: 40000, describe: 'highest altitude [km]' })
-    .option('points', { type: 'number', default: 200, describe: 'number of altitudes' })
-    .option('e', { type: 'number', default: 0, describe: 'eccentricity' })
-    .option('i-deg', { type: 'number', default: 0, describe: 'inclination [deg]' })
-    .option('gravity', { type: 'string', default: 'zonal', describe: 'point | j2 | zonal' })
-    .option('epoch', { type: 'string', default: '2027-01-01T00:00:00Z', describe: 'epoch of the orbits' });
+    .option('from-km', { type: 'number', requiresArg: true, default: 300, describe: 'lowest altitude [km]' })
+    .option('to-km', { type: 'number', requiresArg: true, default: 40000, describe: 'highest altitude [km]' })
+    .option('points', { type: 'number', requiresArg: true, default: 200, describe: 'number of altitudes' })
+    .option('e', { type: 'number', requiresArg: true, default: 0, describe: 'eccentricity' })
+    .option('i-deg', { type: 'number', requiresArg: true, default: 0, describe: 'inclination [deg]' })
+    .option('gravity', { type: 'string', requiresArg: true, default: 'zonal', describe: 'point | j2 | zonal' })
+    .option('epoch', { type: 'string', requiresArg: true, default: '2027-01-01T00:00:00Z', describe: 'epoch of the orbits' });
 }
 
 export interface SweepArgs {
@@ -106,13 +106,13 @@ export function runSweep(a: SweepArgs, ts: TimeSystem): Rendered {
 export function trackOptions<T>(y: Argv<T>) {
   return y
     .positional('scenario', { type: 'string', describe: 'scenario file (or give --tle FILE instead)' })
-    .option('tle', { type: 'string', describe: 'TLE/3LE file instead of a scenario' })
-    .option('sat', { type: 'string', describe: 'satellite id, name or catalogue number' })
-    .option('from', { type: 'string', describe: 'start (default: scenario window start, or the element-set epoch)' })
-    .option('to', { type: 'string', describe: 'end (default: scenario window end, or start + 1 d)' })
-    .option('step', { type: 'string', default: '60s', describe: 'sampling step' })
-    .option('frame', { type: 'string', default: 'GCRF', describe: 'GCRF | TEME | ECEF' })
-    .option('gravity', { type: 'string', describe: 'point | j2 | zonal (default: the scenario’s, else zonal)' });
+    .option('tle', { type: 'string', requiresArg: true, describe: 'TLE/3LE file instead of a scenario' })
+    .option('sat', { type: 'string', requiresArg: true, describe: 'satellite id, name or catalogue number' })
+    .option('from', { type: 'string', requiresArg: true, describe: 'start (default: scenario window start, or the element-set epoch)' })
+    .option('to', { type: 'string', requiresArg: true, describe: 'end (default: scenario window end, or start + 1 d)' })
+    .option('step', { type: 'string', requiresArg: true, default: '60s', describe: 'sampling step' })
+    .option('frame', { type: 'string', requiresArg: true, default: 'GCRF', describe: 'GCRF | TEME | ECEF' })
+    .option('gravity', { type: 'string', requiresArg: true, describe: 'point | j2 | zonal (default: the scenario’s, else zonal)' });
 }
 
 export interface TrackArgs {
@@ -169,12 +169,12 @@ export function runTrack(a: TrackArgs, ts: TimeSystem): Rendered {
 export function fitOptions<T>(y: Argv<T>) {
   return y
     .positional('measurements', { type: 'string', demandOption: true, describe: 'CSV with header time,offsetNs[,sigmaNs]' })
-    .option('degree', { type: 'number', default: 2, describe: '0 offset, 1 + frequency, 2 + drift' })
-    .option('scenario', { type: 'string', describe: 'scenario whose satellite orbit gives the relativistic periodic term to remove' })
-    .option('sat', { type: 'string', describe: 'satellite id in the scenario' })
-    .option('clip', { type: 'number', default: 4, describe: 'sigma-clipping threshold (0 disables)' })
-    .option('epoch', { type: 'string', describe: 'epoch the parameters refer to (default: first sample)' })
-    .option('update-scenario', { type: 'string', describe: 'write the fitted clock block of --sat into this scenario file (atomically)' });
+    .option('degree', { type: 'number', requiresArg: true, default: 2, describe: '0 offset, 1 + frequency, 2 + drift' })
+    .option('scenario', { type: 'string', requiresArg: true, describe: 'scenario whose satellite orbit gives the relativistic periodic term to remove' })
+    .option('sat', { type: 'string', requiresArg: true, describe: 'satellite id in the scenario' })
+    .option('clip', { type: 'number', requiresArg: true, default: 4, describe: 'sigma-clipping threshold (0 disables)' })
+    .option('epoch', { type: 'string', requiresArg: true, describe: 'epoch the parameters refer to (default: first sample)' })
+    .option('update-scenario', { type: 'string', requiresArg: true, describe: 'write the fitted clock block of --sat into this scenario file (atomically)' });
 }
 
 export interface FitArgs {

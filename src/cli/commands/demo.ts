@@ -26,7 +26,7 @@ import { computeResets } from './resets.ts';
 
 export function demoOptions<T>(y: Argv<T>) {
   return y
-    .option('out', { type: 'string', default: './tauplan-demo', describe: 'folder for the report and data files' })
+    .option('out', { type: 'string', requiresArg: true, default: './tauplan-demo', describe: 'folder for the report and data files' })
     .option('quiet', { type: 'boolean', default: false, describe: 'print only where the report is' });
 }
 

@@ -15,7 +15,7 @@ import { writeFileAtomic } from '../../io/output.ts';
 export function mergeOptions<T>(y: Argv<T>) {
   return y
     .positional('files', { type: 'string', array: true, demandOption: true, describe: 'shard outputs of size --all (CSV or JSON Lines)' })
-    .option('out', { type: 'string', describe: 'write to this file (atomically) instead of stdout' })
+    .option('out', { type: 'string', requiresArg: true, describe: 'write to this file (atomically) instead of stdout' })
     .option('quiet', { type: 'boolean', default: false, describe: 'no summary on stderr' });
 }
 

@@ -19,11 +19,11 @@ import { page, passesSections, windowMeta } from '../../report/htmlReport.ts';
 export function passesOptions<T>(y: Argv<T>) {
   return y
     .positional('scenario', { type: 'string', demandOption: true, describe: 'scenario file (JSON or YAML)' })
-    .option('from', { type: 'string', describe: 'window start (default: scenario window)' })
-    .option('to', { type: 'string', describe: 'window end (default: scenario window)' })
-    .option('sat', { type: 'string', describe: 'only these satellites (comma-separated ids or names)' })
-    .option('station', { type: 'string', describe: 'only these stations (comma-separated ids)' })
-    .option('jobs', { type: 'number', describe: 'worker threads, one satellite each (default: available cores; 1 = none)' });
+    .option('from', { type: 'string', requiresArg: true, describe: 'window start (default: scenario window)' })
+    .option('to', { type: 'string', requiresArg: true, describe: 'window end (default: scenario window)' })
+    .option('sat', { type: 'string', requiresArg: true, describe: 'only these satellites (comma-separated ids or names)' })
+    .option('station', { type: 'string', requiresArg: true, describe: 'only these stations (comma-separated ids)' })
+    .option('jobs', { type: 'number', requiresArg: true, describe: 'worker threads, one satellite each (default: available cores; 1 = none)' });
 }
 
 export interface PassesArgs {

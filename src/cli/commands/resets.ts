@@ -18,11 +18,11 @@ import { PREDICTION_RULE_TEXT } from '../../clock/noise.ts';
 export function resetsOptions<T>(y: Argv<T>) {
   return y
     .positional('scenario', { type: 'string', demandOption: true, describe: 'scenario file (JSON or YAML)' })
-    .option('horizon', { type: 'string', describe: 'how far ahead to plan (default: policy.horizon, else 180d)' })
-    .option('from', { type: 'string', describe: 'plan start (default: scenario window start)' })
-    .option('sat', { type: 'string', describe: 'only these satellites (comma-separated)' })
-    .option('station', { type: 'string', describe: 'only contacts with these stations (comma-separated)' })
-    .option('jobs', { type: 'number', describe: 'worker threads, one satellite each (default: available cores; 1 = none)' });
+    .option('horizon', { type: 'string', requiresArg: true, describe: 'how far ahead to plan (default: policy.horizon, else 180d)' })
+    .option('from', { type: 'string', requiresArg: true, describe: 'plan start (default: scenario window start)' })
+    .option('sat', { type: 'string', requiresArg: true, describe: 'only these satellites (comma-separated)' })
+    .option('station', { type: 'string', requiresArg: true, describe: 'only contacts with these stations (comma-separated)' })
+    .option('jobs', { type: 'number', requiresArg: true, describe: 'worker threads, one satellite each (default: available cores; 1 = none)' });
 }
 
 export interface ResetsArgs {

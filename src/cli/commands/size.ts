@@ -15,15 +15,15 @@ import { orbitFromFlags, orbitOptions, type OrbitFlags } from '../orbitArgs.ts';
 
 export function sizeOptions<T>(y: Argv<T>) {
   return orbitOptions(y)
-    .option('gravity', { type: 'string', default: 'zonal', describe: 'point | j2 | zonal' })
+    .option('gravity', { type: 'string', requiresArg: true, default: 'zonal', describe: 'point | j2 | zonal' })
     .option('tides', { type: 'boolean', default: false, describe: 'add the solar and lunar tidal potential (below 1e-15 up to GNSS altitude)' })
-    .option('from', { type: 'string', describe: 'start of the span (default: the orbit epoch)' })
-    .option('span', { type: 'string', default: '1d', describe: 'length of the span, e.g. 1d, 36h, P2D' })
-    .option('nominal-hz', { type: 'number', default: GNSS_NOMINAL_HZ, describe: 'nominal oscillator frequency [Hz]' })
+    .option('from', { type: 'string', requiresArg: true, describe: 'start of the span (default: the orbit epoch)' })
+    .option('span', { type: 'string', requiresArg: true, default: '1d', describe: 'length of the span, e.g. 1d, 36h, P2D' })
+    .option('nominal-hz', { type: 'number', requiresArg: true, default: GNSS_NOMINAL_HZ, describe: 'nominal oscillator frequency [Hz]' })
     // Catalogue runs (src/cli/commands/sizeAll.ts).
     .option('all', { type: 'boolean', describe: 'size every satellite of the --tle/--omm file, one row each (csv, jsonl, json, text)' })
-    .option('jobs', { type: 'number', describe: 'with --all: worker threads (default: available cores; 1 = no worker)' })
-    .option('shard', { type: 'string', describe: 'with --all: K/N sizes element sets whose 0-based index i has i mod N = K-1' })
+    .option('jobs', { type: 'number', requiresArg: true, describe: 'with --all: worker threads (default: available cores; 1 = no worker)' })
+    .option('shard', { type: 'string', requiresArg: true, describe: 'with --all: K/N sizes element sets whose 0-based index i has i mod N = K-1' })
     .option('strict', { type: 'boolean', describe: 'with --all: any satellite that cannot be sized fails the run (exit 2)' })
     .option('format', { choices: ['jsonl'] });
 }
