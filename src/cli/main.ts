@@ -194,6 +194,11 @@ export function joinNegativeValues(args: string[]): string[] {
   return out;
 }
 
+/** User text inside a message: control characters (newlines, escapes to the terminal) shown as \uXXXX. */
+function oneLineText(s: string): string {
+  return s.replace(/[\u0000-\u001f\u007f\u2028\u2029]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
+}
+
 /** Run the CLI; returns the exit code. */
 export async function main(args: string[]): Promise<number> {
   try {
@@ -216,7 +221,7 @@ export async function main(args: string[]): Promise<number> {
   } catch (e) {
     removePendingTemps();
     if (e instanceof InputError) {
-      process.stderr.write(`tauplan: ${e.what} (${e.where}) — ${e.fix}\n`);
+      process.stderr.write(`tauplan: ${oneLineText(e.what)} (${oneLineText(e.where)}) — ${oneLineText(e.fix)}\n`);
       return EXIT_BAD_INPUT;
     }
     const detail = e instanceof InternalError ? e.message : e instanceof Error ? `${e.name}: ${e.message}` : String(e);
