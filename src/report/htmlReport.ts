@@ -36,6 +36,20 @@ export function windowMeta(ts: TimeSystem, fromTt: number, toTt: number, referen
   ];
 }
 
+/** What the numbers rest on and what they leave out, for readers who only have the report. */
+export function modelsSection(): SectionSpec {
+  return {
+    heading: 'Models and what they leave out',
+    intro: [
+      'Clock rate against TT: y = L_G − (v²/2 + U)/c² (IERS Conventions 2010, ch. 10), U from the scenario gravity model (point, J2, or zonal J2–J6 from EGM2008) about the true pole of date; positive y runs fast. The offset is integrated with 8-point Gauss–Legendre steps (error far below 1 ps/day).',
+      'The receiver-side correction −2 r·v/c² is shown separately; what it leaves (mostly J2) appears as the residual periodic term.',
+      'Orbits: SGP4 for element sets (accuracy of order 1 km, growing with distance from the element-set epoch), numerical integration with zonal gravity only (no drag, Sun, Moon or radiation pressure), SP3 by 10-point interpolation. Keplerian input is osculating.',
+      'Earth orientation: polar motion and UT1 − UTC are neglected (metres at the surface). Look angles are geometric (no refraction). tauplan carries no geoid model: station clock rates use the undulation given for each station.',
+      'Noise band: σx(τ) ≈ τ·σy(τ), 95 % = ±1.96 σx (common practice, no single source).',
+    ].join('\n\n'),
+  };
+}
+
 // ---- size -------------------------------------------------------------------------------------
 
 export function sizeSection(r: SizeResult): SectionSpec {

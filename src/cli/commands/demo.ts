@@ -14,7 +14,7 @@ import { sizeClock } from '../../plan/size.ts';
 import { compareToJson, sweepToCsv } from '../../report/analysisReports.ts';
 import { PLANNING_CAUTION } from '../../report/caution.ts';
 import { fitToJson } from '../../report/fitReport.ts';
-import { compareSection, fitSection, page, passesSections, resetsSection, sizeSection, windowMeta } from '../../report/htmlReport.ts';
+import { compareSection, fitSection, modelsSection, page, passesSections, resetsSection, sizeSection, windowMeta } from '../../report/htmlReport.ts';
 import { passesToCsv, passesToJson, passesToText } from '../../report/passesReport.ts';
 import { resetsToCsv, resetsToJson, resetsToText } from '../../report/resetsReport.ts';
 import { sizeToCsv } from '../../report/sizeReport.ts';
@@ -55,6 +55,7 @@ export function runDemo(a: { out: string; quiet: boolean }, ts: TimeSystem): voi
       fitSection(fit),
       compareSection(compare.result),
       sweepSection(sweep.result, sweep.meta.gravity),
+      modelsSection(),
     ],
   );
   const files: [string, string][] = [

@@ -14,7 +14,7 @@ import { loadScenarioContext, resolveWindow, selectSatellites } from '../scenari
 export function notesOf(runs: readonly SatelliteClockRun[]): string[] {
   return runs.flatMap((r) => (r.note === null ? [] : [r.note]));
 }
-import { page, passesSections, windowMeta } from '../../report/htmlReport.ts';
+import { modelsSection, page, passesSections, windowMeta } from '../../report/htmlReport.ts';
 
 export function passesOptions<T>(y: Argv<T>) {
   return y
@@ -72,6 +72,6 @@ function runPassesInProcess(a: PassesArgs, ts: TimeSystem): Rendered {
     csv: () => passesToCsv(plan.rows, ts),
     text: () => passesToText(plan.rows, meta, ts),
     html: () =>
-      page('tauplan — passes and onboard clock offsets', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), passesSections(ts, ctx.runs, plan.rows, ctx.stations.map((s) => s.id), ctx.fromTtJ2000S, ctx.toTtJ2000S)),
+      page('tauplan — passes and onboard clock offsets', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), [...passesSections(ts, ctx.runs, plan.rows, ctx.stations.map((s) => s.id), ctx.fromTtJ2000S, ctx.toTtJ2000S), modelsSection()]),
   };
 }

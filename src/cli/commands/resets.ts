@@ -12,7 +12,7 @@ import { loadScenario } from '../../io/loadScenario.ts';
 import type { ScenarioSpec } from '../../io/scenario.ts';
 import { jobsOf, unwrap, MIN_SATELLITE_DAYS_FOR_WORKERS, type ScenarioReply, type ScenarioTask } from '../scenarioTasks.ts';
 import { runPool } from '../workers.ts';
-import { page, resetsSection, windowMeta } from '../../report/htmlReport.ts';
+import { modelsSection, page, resetsSection, windowMeta } from '../../report/htmlReport.ts';
 import { PREDICTION_RULE_TEXT } from '../../clock/noise.ts';
 
 export function resetsOptions<T>(y: Argv<T>) {
@@ -95,7 +95,7 @@ export async function runResets(a: ResetsArgs, ts: TimeSystem): Promise<Rendered
 function runResetsInProcess(a: ResetsArgs, ts: TimeSystem): Rendered {
   const { ctx, plans, meta } = computeResets(a, ts);
   return {
-    html: () => page('tauplan — keep-in adjustment plan', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), [resetsSection(ts, ctx.runs, plans, ctx.fromTtJ2000S, ctx.toTtJ2000S, PREDICTION_RULE_TEXT)]),
+    html: () => page('tauplan — keep-in adjustment plan', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), [resetsSection(ts, ctx.runs, plans, ctx.fromTtJ2000S, ctx.toTtJ2000S, PREDICTION_RULE_TEXT), modelsSection()]),
     json: () => resetsToJson(plans, meta, ts),
     csv: () => resetsToCsv(plans, ts),
     text: () => resetsToText(plans, meta, ts),
