@@ -115,20 +115,8 @@ export function trajectoryFromStateVector(p: StateVectorInput): NumericalTraject
         'give the launch state of a ballistic flight (radial velocity > 0), or an orbit whose perigee is above the surface',
       );
     }
-    return new NumericalTrajectory({
-      id: p.id,
-      frame,
-      epochTtJ2000S: p.epochTtJ2000S,
-      positionM: r,
-      velocityMPerS: v,
-      gravity: p.gravity,
-      fromTtJ2000S: p.epochTtJ2000S,
-      toTtJ2000S: p.epochTtJ2000S,
-      stopAtRadiusM: Math.hypot(r[0], r[1], r[2]),
-      relTol: p.relTol,
-      sourceLabel: `${source}, ballistic flight until it returns to its starting radius`,
-    });
   }
+  // A sub-orbital state is followed from its epoch until it comes back to its starting radius.
   return new NumericalTrajectory({
     id: p.id,
     frame,
@@ -136,10 +124,11 @@ export function trajectoryFromStateVector(p: StateVectorInput): NumericalTraject
     positionM: r,
     velocityMPerS: v,
     gravity: p.gravity,
-    fromTtJ2000S: p.fromTtJ2000S,
-    toTtJ2000S: p.toTtJ2000S,
+    fromTtJ2000S: subOrbital ? p.epochTtJ2000S : p.fromTtJ2000S,
+    toTtJ2000S: subOrbital ? p.epochTtJ2000S : p.toTtJ2000S,
+    ...(subOrbital ? { stopAtRadiusM: Math.hypot(r[0], r[1], r[2]) } : {}),
     relTol: p.relTol,
-    sourceLabel: source,
+    sourceLabel: subOrbital ? `${source}, ballistic flight until it returns to its starting radius` : source,
   });
 }
 
