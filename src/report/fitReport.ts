@@ -9,30 +9,8 @@ import type { TimeSystem } from '../time/timeSystem.ts';
 import { Instant } from '../time/instant.ts';
 import { textTable } from './format.ts';
 
-/** JSON shape of `tauplan fit` (contract field names, then extras). */
-export interface FitJson {
-  epoch: string;
-  offsetNs: number;
-  offsetSigmaNs: number | null;
-  fractionalFrequency: number | null;
-  fractionalFrequencySigma: number | null;
-  driftPerDay: number | null;
-  driftPerDaySigma: number | null;
-  rmsNs: number;
-  used: number;
-  rejected: { line: number; time: string; offsetNs: number; residualNs: number }[];
-  stability: { tauS: number; oadev: number; mdev: number; count: number }[];
-  // Extras (not in the contract):
-  degree: 0 | 1 | 2;
-  stabilityNote: string | null;
-  sigmaSource: 'given' | 'scaled by reduced chi-square';
-  reducedChiSquare: number | null;
-  periodicRemoved: boolean;
-  clipSigma: number | null;
-  iterations: number;
-  spanS: number;
-  correlation: number[][] | null;
-}
+/** JSON shape of `tauplan fit`: the fit result without its internal time coordinate. */
+export type FitJson = Omit<FitResult, 'epochTtJ2000S'>;
 
 /**
  * The JSON-ready object of a fit: every number finite (checked; a non-finite value is a bug and
