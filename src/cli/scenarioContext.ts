@@ -152,6 +152,6 @@ export function loadScenarioContext(path: string, ts: TimeSystem, sel: ScenarioS
     }
     return notes.length === 0 ? run : { ...run, endTtJ2000S, note: notes.join('. ') };
   });
-  const stations: Station[] = stationSpecs.map((s) => ({ id: s.id, latDeg: s.latDeg, lonDeg: s.lonDeg, heightM: s.heightM, geoidHeightM: s.geoidHeightM, maskDeg: s.maskDeg, minPassS: s.minPassS }));
+  const stations: Station[] = stationSpecs;
   return { scenario, ts, gravity, fromTtJ2000S: from, toTtJ2000S: to, runs, stations, gmstRadAt: (t) => gmstRadAtTt(ts, t), satellites };
 }

@@ -13,6 +13,7 @@ import { isMap, isScalar, isSeq, LineCounter, parseDocument, type Document } fro
 import { z } from 'zod';
 import { WGS84_A_M, WGS84_INV_F } from '../constants.ts';
 import { ScenarioError, TimeError } from '../errors.ts';
+import type { Station } from '../events/station.ts';
 import type { Instant } from '../time/instant.ts';
 import { parseDurationS } from '../time/duration.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
@@ -135,21 +136,12 @@ export interface SatelliteSpec {
   path: string;
 }
 
-/** An earth-fixed ground station (a clock at rest on the rotating Earth, physics.md §4). */
-export interface StationSpec {
-  id: string;
-  /** Geodetic latitude [deg], −90 … 90, WGS-84. */
-  latDeg: number;
-  /** Longitude [deg] east, −180 ≤ lon < 360, as given (not wrapped). */
-  lonDeg: number;
-  /** Height above the WGS-84 ellipsoid [m], −500 … 10 000 (every land surface point fits). */
-  heightM: number;
-  /** Geoid undulation N at the site [m], −150 … 150; lowers the clock rate by g·N/c². Default 0. */
-  geoidHeightM: number;
-  /** Elevation mask [deg], −5 ≤ mask < 90. Default 10. */
-  maskDeg: number;
-  /** Shortest pass worth using [s], ≥ 0. Default 300. */
-  minPassS: number;
+/**
+ * An earth-fixed ground station as checked here (ranges: latitude −90 … 90°, longitude −180 ≤ lon < 360°
+ * as given, height −500 … 10 000 m, geoid undulation −150 … 150 m, mask −5 ≤ mask < 90°, minPassS ≥ 0;
+ * defaults geoidHeightM 0, maskDeg 10, minPassS 300).
+ */
+export interface StationSpec extends Station {
   /** JSON path of this entry (`stations[0]`), for messages from later stages. */
   path: string;
 }

@@ -45,7 +45,7 @@ export function computeCompare(a: { scenario: string; from?: string; to?: string
     const flightEnd = trajectory instanceof NumericalTrajectory ? trajectory.flightEndTtJ2000S : null;
     return { id: sat.id, trajectory, flight: flightEnd === null ? null : { startTtJ2000S: trajectory.validFromTtJ2000S, endTtJ2000S: flightEnd } };
   });
-  const stations = scenario.stations.map((s) => ({ ...s }));
+  const stations = scenario.stations;
   const result = compareClocks(sats, stations, gravity, from, to);
   return { result, meta: { scenario: scenario.name, gravity: gravity.name, fromTtJ2000S: from, toTtJ2000S: to } };
 }
