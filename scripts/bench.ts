@@ -41,7 +41,7 @@ import { runInNewContext } from 'node:vm';
 import { Worker } from 'node:worker_threads';
 import { fileURLToPath } from 'node:url';
 import { BulkPropagator, createSingleThreadRuntime, EciBaseCalculator, propagate, sgp4, twoline2satrec, type SatRec } from 'satellite.js';
-import { gravityModel } from '../src/clock/gravity.ts';
+import { gravityModel } from '../src/orbit/gravity.ts';
 import { clockStepS, integrateAlong } from '../src/clock/integrate.ts';
 import { fractionalOffset } from '../src/clock/rate.ts';
 import { findPasses } from '../src/events/passes.ts';

@@ -4,7 +4,7 @@
  * (error ~h⁴·y⁗, far below 1e-15 s here), common practice.
  */
 import { describe, expect, it } from 'vitest';
-import { gravityModel } from '../src/clock/gravity.ts';
+import { gravityModel } from '../src/orbit/gravity.ts';
 import { clockStepS, integrateAlong } from '../src/clock/integrate.ts';
 import { fractionalOffset } from '../src/clock/rate.ts';
 import { elementsFromDegKm, KeplerianTrajectory } from '../src/orbit/keplerian.ts';

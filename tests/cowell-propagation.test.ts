@@ -13,7 +13,7 @@
  * Tolerances are in metres / seconds, each with its reason next to it.
  */
 import { describe, expect, it } from 'vitest';
-import { gravityModel, potentialM2PerS2, type GravityModel } from '../src/clock/gravity.ts';
+import { gravityModel, potentialM2PerS2, type GravityModel } from '../src/orbit/gravity.ts';
 import { EGM2008_J, WGS84_A_M, WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../src/constants.ts';
 import { InputError, InternalError, SpanError } from '../src/errors.ts';
 import { applyMatrix, gcrfToTodMatrix } from '../src/orbit/frames.ts';

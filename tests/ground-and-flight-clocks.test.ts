@@ -10,7 +10,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { groundClockFractionalOffset } from '../src/clock/groundClock.ts';
-import { gravityModel } from '../src/clock/gravity.ts';
+import { gravityModel } from '../src/orbit/gravity.ts';
 import { IERS2010_L_G, SPEED_OF_LIGHT_M_PER_S, WGS84_A_M, WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../src/constants.ts';
 import { geodeticToEcefM } from '../src/events/station.ts';
 import { elementsFromDegKm, KeplerianTrajectory } from '../src/orbit/keplerian.ts';

@@ -7,7 +7,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { breakEvenRadiusM, eccentricityAmplitudeS, keplerMeanFractionalOffset } from '../src/clock/closedForms.ts';
-import { gravityModel } from '../src/clock/gravity.ts';
+import { gravityModel } from '../src/orbit/gravity.ts';
 import { integrateAlong } from '../src/clock/integrate.ts';
 import { conventionalPeriodicS, fractionalOffset } from '../src/clock/rate.ts';
 import { IERS2010_L_G, SPEED_OF_LIGHT_M_PER_S, WGS84_A_M } from '../src/constants.ts';

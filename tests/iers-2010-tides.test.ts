@@ -4,7 +4,7 @@
  * approximation GM·r²/R³·P2(cos ψ) to the order of r/R (derived).
  */
 import { describe, expect, it } from 'vitest';
-import { gravityModel } from '../src/clock/gravity.ts';
+import { gravityModel } from '../src/orbit/gravity.ts';
 import { TidalField, tidalPotentialM2PerS2 } from '../src/clock/tides.ts';
 import { defaultTimeSystem } from '../src/io/tables.ts';
 import { elementsFromDegKm, KeplerianTrajectory } from '../src/orbit/keplerian.ts';

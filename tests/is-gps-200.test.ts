@@ -6,7 +6,7 @@
  * at μ = 3.986005e14 m³/s² (confirmed via code citing the spec, physics.md §2).
  */
 import { describe, expect, it } from 'vitest';
-import { gravityModel } from '../src/clock/gravity.ts';
+import { gravityModel } from '../src/orbit/gravity.ts';
 import { keplerMeanFractionalOffset } from '../src/clock/closedForms.ts';
 import { SPEED_OF_LIGHT_M_PER_S } from '../src/constants.ts';
 import { elementsFromDegKm, KeplerianTrajectory } from '../src/orbit/keplerian.ts';

@@ -5,7 +5,7 @@
  * (physics.md §6, common practice), each computed here independently of the planner's code path.
  */
 import { describe, expect, it } from 'vitest';
-import { gravityModel } from '../src/clock/gravity.ts';
+import { gravityModel } from '../src/orbit/gravity.ts';
 import { integrateAlong } from '../src/clock/integrate.ts';
 import { OnboardClock, type OscillatorParams } from '../src/clock/oscillator.ts';
 import { predictionSigmaNs } from '../src/clock/noise.ts';

@@ -5,7 +5,7 @@
  * for GPS (confirmed, abstract).
  */
 import { describe, expect, it } from 'vitest';
-import { gravityModel } from '../src/clock/gravity.ts';
+import { gravityModel } from '../src/orbit/gravity.ts';
 import { elementsFromDegKm, KeplerianTrajectory } from '../src/orbit/keplerian.ts';
 import { sizeClock } from '../src/plan/size.ts';
 

@@ -12,7 +12,7 @@
  *   Cowell), and 1 km of semi-major axis is 9.4e-15 in rate at MEO (physics.md §2): 5e-14 allowed.
  */
 import { describe, expect, it } from 'vitest';
-import { gravityModel } from '../src/clock/gravity.ts';
+import { gravityModel } from '../src/orbit/gravity.ts';
 import { ommFromObject } from '../src/io/omm.ts';
 import { parseSp3 } from '../src/io/sp3.ts';
 import { writeSp3Text } from '../src/io/sp3Write.ts';

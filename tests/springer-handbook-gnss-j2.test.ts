@@ -8,7 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { j2ResidualAmplitudeS } from '../src/clock/closedForms.ts';
-import { gravityModel } from '../src/clock/gravity.ts';
+import { gravityModel } from '../src/orbit/gravity.ts';
 import { elementsFromDegKm } from '../src/orbit/keplerian.ts';
 import { trajectoryFromKeplerian } from '../src/orbit/stateVector.ts';
 import { sizeClock } from '../src/plan/size.ts';

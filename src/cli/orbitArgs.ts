@@ -1,6 +1,6 @@
 /** Orbit given on the command line: Keplerian flags, a TLE or OMM file, or a scenario satellite. */
 import type { Argv } from 'yargs';
-import type { GravityModel } from '../clock/gravity.ts';
+import type { GravityModel } from '../orbit/gravity.ts';
 import { InputError } from '../errors.ts';
 import { loadScenario, scenarioSatellite } from '../io/loadScenario.ts';
 import { idOf, labelOf, pickElementSet, readElementSets, sgp4Span, trajectoryForSatellite, type ResolvedOrbit } from '../io/orbitSources.ts';

@@ -2,7 +2,7 @@
  * Loading a scenario for the planning commands: satellites with their trajectories and clocks,
  * stations, the window, and the Earth-rotation function. This is the edge (it reads files).
  */
-import { gravityModel, type GravityModel } from '../clock/gravity.ts';
+import { gravityModel, type GravityModel } from '../orbit/gravity.ts';
 import { TidalField } from '../clock/tides.ts';
 import type { OscillatorParams } from '../clock/oscillator.ts';
 import { InputError, SpanError } from '../errors.ts';

@@ -4,7 +4,7 @@
  * Messages in: {@link WorkerBatch} or `null` (stop). Out: {@link WorkerReply}.
  */
 import { parentPort, workerData } from 'node:worker_threads';
-import { gravityModel } from '../clock/gravity.ts';
+import { gravityModel } from '../orbit/gravity.ts';
 import { defaultTimeSystem } from '../io/tables.ts';
 import { enableWasmSgp4 } from '../orbit/sgp4.ts';
 import { sizeCatalogueItem, type CatalogueItem, type CatalogueOutcome, type CatalogueSizeOptions } from '../plan/catalogue.ts';

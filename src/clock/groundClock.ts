@@ -4,7 +4,7 @@
  * carries no geoid model) lowers the rate by g·N/c². Without N the error is up to |N|·1.09e-16.
  */
 import { IERS2010_L_G, STANDARD_GRAVITY_M_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../constants.ts';
-import { potentialM2PerS2, type GravityModel } from './gravity.ts';
+import { potentialM2PerS2, type GravityModel } from '../orbit/gravity.ts';
 import { SPEED_OF_LIGHT_SQUARED_M2_PER_S2 as C2 } from './rate.ts';
 
 /** Constant fractional offset (dimensionless) of a clock at rest at earth-fixed r [m]. */

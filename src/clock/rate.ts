@@ -5,7 +5,7 @@
  * Left out: solar and lunar tidal potentials (< 1e-15 up to GNSS altitude, IERS §10.2).
  */
 import { IERS2010_L_G, SPEED_OF_LIGHT_M_PER_S } from '../constants.ts';
-import { potentialM2PerS2, type GravityModel } from './gravity.ts';
+import { potentialM2PerS2, type GravityModel } from '../orbit/gravity.ts';
 
 const C2 = SPEED_OF_LIGHT_M_PER_S * SPEED_OF_LIGHT_M_PER_S;
 

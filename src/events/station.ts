@@ -7,29 +7,15 @@
 import { WGS84_A_M, WGS84_INV_F } from '../constants.ts';
 import { InputError, InternalError } from '../errors.ts';
 import { vec3, type Vec3 } from '../orbit/vec.ts';
+import type { Station } from '../model/station.ts';
+
+export type { Station };
 
 const DEG = Math.PI / 180;
 /** WGS-84 flattening and first eccentricity squared [1]. Derived from WGS84_INV_F. */
 const WGS84_F = 1 / WGS84_INV_F;
 const WGS84_E2 = WGS84_F * (2 - WGS84_F);
 
-/** A ground station as the scenario gives it (contract: `stations[]`). */
-export interface Station {
-  /** Station id, unique within a scenario. */
-  id: string;
-  /** Geodetic latitude [deg], WGS-84, −90..90. */
-  latDeg: number;
-  /** Longitude [deg], east positive. */
-  lonDeg: number;
-  /** Height above the WGS-84 ellipsoid [m]. */
-  heightM: number;
-  /** Geoid undulation N at the site [m] (for the station clock rate; unused by geometry). */
-  geoidHeightM: number;
-  /** Elevation mask [deg]: AOS and LOS are the crossings of this elevation. Geometric, no refraction. */
-  maskDeg: number;
-  /** Shortest pass worth reporting [s] (time above the mask). */
-  minPassS: number;
-}
 
 /**
  * Refuse a station whose numbers cannot describe a site. `where` is the JSON path used in messages,

@@ -9,55 +9,14 @@
  * fixes the units (degrees, rev/day, rev/day², rev/day³, 1/earth radii).
  */
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
-import { jsonSyntaxError } from './jsonText.ts';
+import { parseJsonLocated } from './jsonText.ts';
 import { InputError, OrbitFileError } from '../errors.ts';
 import { civilFromDays, daysFromCivil, daysInMonth } from '../time/calendar.ts';
 import type { CivilTime } from '../time/timeSystem.ts';
+import type { OmmRecord } from '../model/elementSet.ts';
 
-/** One OMM with SGP4 mean elements. */
-export interface OmmRecord {
-  readonly kind: 'omm';
-  /** OBJECT_NAME, or null when absent. */
-  readonly objectName: string | null;
-  /** OBJECT_ID (international designator, e.g. "1958-002B"), or null. */
-  readonly objectId: string | null;
-  /** NORAD_CAT_ID as written (e.g. "5"), or null. */
-  readonly noradCatId: string | null;
-  /** EPOCH exactly as written (UTC; no zone suffix or a trailing Z). */
-  readonly epochText: string;
-  /** EPOCH as a UTC civil time. */
-  readonly epochUtc: CivilTime;
-  /** MEAN_MOTION [rev/day] (Kozai mean motion, SGP4 theory). */
-  readonly meanMotionRevPerDay: number;
-  /** ECCENTRICITY [1]. */
-  readonly eccentricity: number;
-  /** INCLINATION [deg]. */
-  readonly inclinationDeg: number;
-  /** RA_OF_ASC_NODE [deg] (TEME). */
-  readonly raanDeg: number;
-  /** ARG_OF_PERICENTER [deg]. */
-  readonly argOfPericenterDeg: number;
-  /** MEAN_ANOMALY [deg]. */
-  readonly meanAnomalyDeg: number;
-  /** BSTAR [1/earth radii]; 0 when absent. */
-  readonly bstarPerEarthRadius: number;
-  /** MEAN_MOTION_DOT [rev/day²] as in the TLE (half the derivative); 0 when absent. Not used by SGP4. */
-  readonly meanMotionDotRevPerDay2: number;
-  /** MEAN_MOTION_DDOT [rev/day³] (one sixth of the second derivative); 0 when absent. Not used by SGP4. */
-  readonly meanMotionDdotRevPerDay3: number;
-  /** EPHEMERIS_TYPE; 0 when absent. */
-  readonly ephemerisType: number;
-  /** CLASSIFICATION_TYPE ('U' when absent). */
-  readonly classificationType: string;
-  /** ELEMENT_SET_NO, or null. */
-  readonly elementSetNo: number | null;
-  /** REV_AT_EPOCH, or null. */
-  readonly revAtEpoch: number | null;
-  /** Every keyword read, as text (values only; units dropped). */
-  readonly keywords: Readonly<Record<string, string>>;
-  /** Where the message came from, for error messages: `file:line` (KVN) or `file: omm[2]`. */
-  readonly where: string;
-}
+export type { OmmRecord };
+
 
 /** Keywords an OMM must carry for SGP4. NORAD_CAT_ID or OBJECT_ID is required as well. */
 export const OMM_REQUIRED_KEYWORDS = ['EPOCH', 'MEAN_MOTION', 'ECCENTRICITY', 'INCLINATION', 'RA_OF_ASC_NODE', 'ARG_OF_PERICENTER', 'MEAN_ANOMALY'] as const;
@@ -97,12 +56,11 @@ export function ommFromObject(obj: unknown, where: string): OmmRecord {
 }
 
 function parseJson(text: string, fileName: string): OmmRecord[] {
-  let data: unknown;
-  try {
-    data = JSON.parse(text);
-  } catch (e) {
-    throw jsonSyntaxError(text, e, fileName, 'OMM JSON cannot be read', 'check the JSON syntax (quotes, commas, brackets)');
-  }
+  const data = parseJsonLocated(text, (fault, message) => {
+    const where = fault === null ? fileName : `${fileName}:${fault.line}:${fault.column}`;
+    const reason = fault?.reason ?? message;
+    return new InputError(`OMM JSON cannot be read: ${reason.length > 120 ? `${reason.slice(0, 117)}...` : reason}`, where, 'check the JSON syntax (quotes, commas, brackets)');
+  });
   const list = Array.isArray(data) ? data : [data];
   if (list.length === 0) throw new InputError('OMM JSON array is empty', fileName, 'give at least one OMM object');
   return list.map((obj, i) => ommFromObject(obj, Array.isArray(data) ? `${fileName}: [${i}]` : fileName));

@@ -3,7 +3,7 @@
  * This is the edge: it reads TLE, OMM and SP3 files. Everything after it sees only Trajectory.
  */
 import { readFileSync } from 'node:fs';
-import type { GravityModel } from '../clock/gravity.ts';
+import type { GravityModel } from '../orbit/gravity.ts';
 import { InputError } from '../errors.ts';
 import { elementsFromDegKm, type KeplerianElements } from '../orbit/keplerian.ts';
 import { Sgp4Trajectory } from '../orbit/sgp4.ts';

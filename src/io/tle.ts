@@ -14,51 +14,10 @@
 import { OrbitFileError } from '../errors.ts';
 import { civilFromDays, daysFromCivil } from '../time/calendar.ts';
 import type { CivilTime } from '../time/timeSystem.ts';
+import type { TleRecord } from '../model/elementSet.ts';
 
-/** One element set read from a TLE or 3LE file. Angles are those written in the file (degrees). */
-export interface TleRecord {
-  readonly kind: 'tle';
-  /** The name line without a leading "0 ", trimmed; null for a bare two-line set. */
-  readonly name: string | null;
-  /** Catalogue number as written in columns 3–7 (e.g. "00005", or Alpha-5 "A0001"). */
-  readonly catalogNumber: string;
-  /** Catalogue number as an integer (Alpha-5 decoded: A0001 → 100001). */
-  readonly catalogNumberValue: number;
-  /** Classification character, column 8 ('U', 'C', 'S' or blank). */
-  readonly classification: string;
-  /** International designator, columns 10–17, trimmed (may be empty). */
-  readonly internationalDesignator: string;
-  /** Epoch year, four digits (two-digit 57–99 → 19xx, 00–56 → 20xx, as SGP4 does). */
-  readonly epochYear: number;
-  /** Epoch day of year, 1-based and fractional (1.5 = 1 January 12:00 UTC). UTC. */
-  readonly epochDayOfYear: number;
-  /** The epoch as a UTC civil time (days of 86400 s; a TLE cannot express a leap second). */
-  readonly epochUtc: CivilTime;
-  /** Mean motion [rev/day] (Kozai mean motion, SGP4 theory). */
-  readonly meanMotionRevPerDay: number;
-  /** Eccentricity [1]. */
-  readonly eccentricity: number;
-  /** Inclination [deg]. */
-  readonly inclinationDeg: number;
-  /** Right ascension of the ascending node [deg] (TEME). */
-  readonly raanDeg: number;
-  /** Argument of perigee [deg]. */
-  readonly argOfPerigeeDeg: number;
-  /** Mean anomaly [deg]. */
-  readonly meanAnomalyDeg: number;
-  /** B* drag term [1/earth radii]. */
-  readonly bstarPerEarthRadius: number;
-  /** Line 1 exactly as in the file (69 characters, trailing whitespace removed). */
-  readonly line1: string;
-  /** Line 2 exactly as in the file. */
-  readonly line2: string;
-  /** 1-based line number of line 1 in the file. */
-  readonly lineNumberInFile: number;
-  /** 1-based line number of the name line, or null. */
-  readonly nameLineNumberInFile: number | null;
-  /** File name, for messages. */
-  readonly fileName: string;
-}
+export type { TleRecord };
+
 
 /** Length of an element line [characters]. */
 export const TLE_LINE_LENGTH = 69;

@@ -15,7 +15,7 @@
  */
 import { WGS84_A_M, WGS84_INV_F } from '../constants.ts';
 import { InputError, InternalError } from '../errors.ts';
-import { accelerationInto, type GravityModel } from '../clock/gravity.ts';
+import { accelerationInto, type GravityModel } from './gravity.ts';
 import { checkSpan, type StateBlock, type Trajectory } from './trajectory.ts';
 import { vec3, type StateM } from './vec.ts';
 

@@ -37,8 +37,7 @@ import {
   type SatRec,
 } from 'satellite.js';
 import { PropagationError } from '../errors.ts';
-import type { OmmRecord } from '../io/omm.ts';
-import type { TleRecord } from '../io/tle.ts';
+import type { OmmRecord, TleRecord } from '../model/elementSet.ts';
 import { Instant } from '../time/instant.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import { checkSpan, type StateBlock, type Trajectory } from './trajectory.ts';

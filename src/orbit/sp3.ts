@@ -25,7 +25,7 @@
  *   refused span.
  */
 import { InputError, SpanError } from '../errors.ts';
-import type { Sp3File } from '../io/sp3.ts';
+import type { Sp3File } from '../model/sp3.ts';
 import { daysFromCivil } from '../time/calendar.ts';
 import { Instant } from '../time/instant.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';

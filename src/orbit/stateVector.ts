@@ -9,7 +9,7 @@
  */
 import { WGS84_A_M, WGS84_INV_F } from '../constants.ts';
 import { InputError } from '../errors.ts';
-import type { GravityModel } from '../clock/gravity.ts';
+import type { GravityModel } from './gravity.ts';
 import { applyMatrix, gcrfToTodMatrix } from './frames.ts';
 import { KeplerianTrajectory, keplerState, type KeplerianElements } from './keplerian.ts';
 import { NumericalTrajectory } from './numerical.ts';

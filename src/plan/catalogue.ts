@@ -6,10 +6,9 @@
  *
  * Times are seconds since J2000.0 TT; spans in seconds; frequencies in Hz.
  */
-import { gravityModel, type GravityModel } from '../clock/gravity.ts';
+import { gravityModel, type GravityModel } from '../orbit/gravity.ts';
 import { InputError, InternalError } from '../errors.ts';
-import type { OmmRecord } from '../io/omm.ts';
-import type { TleRecord } from '../io/tle.ts';
+import type { OmmRecord, TleRecord } from '../model/elementSet.ts';
 import { Sgp4Trajectory } from '../orbit/sgp4.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import { sizeClock, type SizeResult } from './size.ts';

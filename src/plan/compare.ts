@@ -6,7 +6,7 @@
  * flight [epoch, flightEnd] only; so is every pair that includes it.
  */
 import { groundClockFractionalOffset } from '../clock/groundClock.ts';
-import type { GravityModel } from '../clock/gravity.ts';
+import type { GravityModel } from '../orbit/gravity.ts';
 import { clockStepS, integrateAlong, type IntegratedTrack } from '../clock/integrate.ts';
 import { conventionalPeriodicS, fractionalOffset } from '../clock/rate.ts';
 import { SECONDS_PER_DAY } from '../constants.ts';

@@ -3,7 +3,7 @@
  * once over the whole span, plus the oscillator model).
  */
 import { clockStepS, integrateAlong } from '../clock/integrate.ts';
-import type { GravityModel } from '../clock/gravity.ts';
+import type { GravityModel } from '../orbit/gravity.ts';
 import { OnboardClock, type OscillatorParams } from '../clock/oscillator.ts';
 import { fractionalOffset } from '../clock/rate.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';

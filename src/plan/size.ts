@@ -5,7 +5,7 @@
  */
 import { InternalError } from '../errors.ts';
 import { clockStepS, GAUSS_POINTS_PER_STEP, integrateBulkAlong } from '../clock/integrate.ts';
-import type { GravityModel } from '../clock/gravity.ts';
+import type { GravityModel } from '../orbit/gravity.ts';
 import { conventionalPeriodicS, SPEED_OF_LIGHT_SQUARED_M2_PER_S2 as C2, totalPotentialM2PerS2 } from '../clock/rate.ts';
 import { IERS2010_L_G, SECONDS_PER_DAY } from '../constants.ts';
 import { elementsFromState } from '../orbit/keplerian.ts';

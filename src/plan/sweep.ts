@@ -3,7 +3,7 @@
  * altitude where an orbiting clock keeps a geoid clock's rate (y = 0). Each row is a full sizing
  * (same integration as `size`) over two orbital periods (at most one day).
  */
-import type { GravityModel } from '../clock/gravity.ts';
+import type { GravityModel } from '../orbit/gravity.ts';
 import { WGS84_A_M } from '../constants.ts';
 import { InputError, InternalError } from '../errors.ts';
 import { elementsFromDegKm } from '../orbit/keplerian.ts';

@@ -1,6 +1,6 @@
 /** `tauplan compare`, `tauplan sweep`, `tauplan track`, `tauplan fit`. */
 import type { Argv } from 'yargs';
-import { gravityModel } from '../../clock/gravity.ts';
+import { gravityModel } from '../../orbit/gravity.ts';
 import { InputError } from '../../errors.ts';
 import { loadScenario, scenarioSatellite } from '../../io/loadScenario.ts';
 import { parseMeasurementsCsv } from '../../io/measurements.ts';

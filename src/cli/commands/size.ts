@@ -1,6 +1,6 @@
 /** `tauplan size`: frequency-offset sizing for one orbit (or every satellite of a TLE file with --all). */
 import type { Argv } from 'yargs';
-import { gravityModel } from '../../clock/gravity.ts';
+import { gravityModel } from '../../orbit/gravity.ts';
 import { TidalField } from '../../clock/tides.ts';
 import { GNSS_NOMINAL_HZ } from '../../constants.ts';
 import { InputError } from '../../errors.ts';

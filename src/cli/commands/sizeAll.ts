@@ -16,7 +16,7 @@ import { availableParallelism } from 'node:os';
 import type { Worker } from 'node:worker_threads';
 import { startModuleWorker } from '../workers.ts';
 import cliProgress from 'cli-progress';
-import { gravityModel } from '../../clock/gravity.ts';
+import { gravityModel } from '../../orbit/gravity.ts';
 import { InputError, InternalError } from '../../errors.ts';
 import { idOf, labelOf, readElementSets } from '../../io/orbitSources.ts';
 import { commitTemp, reserveTemp, toJsonText } from '../../io/output.ts';

@@ -5,11 +5,14 @@
  */
 import { EGM2008_J, WGS84_A_M, WGS84_GM_M3_PER_S2 } from '../constants.ts';
 import { InputError } from '../errors.ts';
+import type { GravityModelName } from '../model/scenario.ts';
+
+export type { GravityModelName };
 
 /** Gravity choices offered to users. */
-export type GravityModelName = 'point' | 'j2' | 'zonal';
 export const GRAVITY_MODEL_NAMES: readonly GravityModelName[] = ['point', 'j2', 'zonal'];
 
+/** Earth's gravity field as the orbit propagator and the clock rate use it (one type for both). */
 export interface GravityModel {
   readonly name: GravityModelName;
   /** GM [m³/s²]. */

@@ -1,0 +1,171 @@
+/**
+ * Cross-field checks and the typed scenario: times parsed, defaults applied, ids unique, orbits
+ * checked for gross sense (perigee above the ground, position outside the Earth, TLE lines).
+ */
+import { dirname, resolve } from 'node:path';
+import { ORBIT_KINDS, type ClockSpec, type OrbitSpec, type ResetPolicySpec, type SatelliteSpec, type ScenarioSpec, type StationSpec, type TleOrbitSpec } from '../model/scenario.ts';
+import type { Context } from './scenarioIssues.ts';
+import { DEFAULT_HORIZON, FIELD_HINTS, formatPath, WGS84_A_KM, WGS84_POLAR_RADIUS_KM, type PathSeg, type RawScenario } from './scenarioSchema.ts';
+
+export function buildSpec(raw: RawScenario, ctx: Context): ScenarioSpec {
+  const start = ctx.time(raw.window.start, ['window', 'start']);
+  const end = ctx.time(raw.window.end, ['window', 'end']);
+  if (!(end.minusS(start) > 0)) {
+    throw ctx.error(
+      ['window', 'end'],
+      `window end ${JSON.stringify(raw.window.end)} is not after its start ${JSON.stringify(raw.window.start)}`,
+      'make window.end later than window.start',
+    );
+  }
+
+  const seenIds = new Map<string, string>();
+  const claimId = (id: string, path: PathSeg[]): void => {
+    const previous = seenIds.get(id);
+    if (previous !== undefined) {
+      throw ctx.error(path, `id ${JSON.stringify(id)} is already used by ${previous}`, 'give every satellite and station its own id (ids name clocks in compare and resets)');
+    }
+    seenIds.set(id, formatPath(path.slice(0, -1)));
+  };
+
+  const satellites = raw.satellites.map((sat, i): SatelliteSpec => {
+    const base: PathSeg[] = ['satellites', i];
+    claimId(sat.id, [...base, 'id']);
+    const orbit = buildOrbit(sat.orbit, [...base, 'orbit'], ctx);
+    let name: string | null = sat.name ?? null;
+    if (name === null && orbit.kind === 'tle' && orbit.nameLine !== null) name = orbit.nameLine.replace(/^0 /, '').trim() || null;
+    if (name === null && orbit.kind === 'omm' && typeof orbit.fields.OBJECT_NAME === 'string') name = orbit.fields.OBJECT_NAME.trim() || null;
+    const c = sat.clock;
+    const clock: ClockSpec | null =
+      c === undefined
+        ? null
+        : {
+            epoch: c.epoch === undefined ? start : ctx.time(c.epoch, [...base, 'clock', 'epoch']),
+            offsetNs: c.offsetNs ?? 0,
+            hardwareFractionalOffset: c.hardwareFractionalOffset ?? 0,
+            agingPerDay: c.agingPerDay ?? 0,
+            noise: {
+              whiteFmAdev1s: c.noise?.whiteFmAdev1s ?? 0,
+              flickerFmFloor: c.noise?.flickerFmFloor ?? 0,
+              randomWalkFmAdev1d: c.noise?.randomWalkFmAdev1d ?? 0,
+            },
+            keepInNs: c.keepInNs ?? null,
+          };
+    return { id: sat.id, name, orbit, clock, path: formatPath(base) };
+  });
+
+  const stations = (raw.stations ?? []).map((st, i): StationSpec => {
+    const base: PathSeg[] = ['stations', i];
+    claimId(st.id, [...base, 'id']);
+    return {
+      id: st.id,
+      latDeg: st.latDeg,
+      lonDeg: st.lonDeg,
+      heightM: st.heightM,
+      geoidHeightM: st.geoidHeightM ?? 0,
+      maskDeg: st.maskDeg ?? 10,
+      minPassS: st.minPassS ?? 300,
+      path: formatPath(base),
+    };
+  });
+
+  const p = raw.policy;
+  const policy: ResetPolicySpec = {
+    marginNs: p?.marginNs ?? 0,
+    leadTimeS: p?.leadTime === undefined ? null : ctx.durationS(p.leadTime, ['policy', 'leadTime']),
+    prefer: p?.prefer ?? 'phase',
+    horizonS: ctx.durationS(p?.horizon ?? DEFAULT_HORIZON, ['policy', 'horizon']),
+  };
+  if (!(policy.horizonS > 0)) throw ctx.error(['policy', 'horizon'], 'the horizon is zero', 'give a span greater than zero, e.g. 180d');
+  for (const sat of satellites) {
+    const limit = sat.clock?.keepInNs ?? null;
+    if (limit !== null && !(policy.marginNs < limit)) {
+      throw ctx.error(
+        ['policy', 'marginNs'],
+        `margin ${policy.marginNs} ns is not below the keep-in limit ${limit} ns of ${sat.path}.clock.keepInNs`,
+        'make policy.marginNs smaller than every satellite keepInNs',
+      );
+    }
+  }
+
+  return {
+    name: raw.name ?? baseName(ctx.fileName),
+    fileName: ctx.fileName,
+    folder: dirname(resolve(ctx.fileName)),
+    window: { start, end },
+    gravity: raw.gravity ?? 'zonal',
+    tides: raw.tides ?? false,
+    reference: raw.reference ?? 'GPS',
+    satellites,
+    stations,
+    policy,
+  };
+}
+
+function buildOrbit(o: RawScenario['satellites'][number]['orbit'], path: PathSeg[], ctx: Context): OrbitSpec {
+  const given = ORBIT_KINDS.filter((k) => o[k] !== undefined);
+  if (given.length !== 1) {
+    throw ctx.error(
+      path,
+      given.length === 0 ? 'no orbit given' : `${given.length} orbit kinds given (${given.join(', ')})`,
+      `give exactly one of ${ORBIT_KINDS.join(', ')}`,
+    );
+  }
+  if (o.tle !== undefined) return buildTle(o.tle, [...path, 'tle'], ctx);
+  if (o.omm !== undefined) return { kind: 'omm', fields: { ...o.omm } };
+  if (o.keplerian !== undefined) {
+    const k = o.keplerian;
+    const perigeeKm = k.aKm * (1 - k.e);
+    if (!(perigeeKm > WGS84_A_KM)) {
+      throw ctx.error(
+        [...path, 'keplerian', 'aKm'],
+        `perigee radius aKm·(1 − e) = ${perigeeKm.toFixed(3)} km is not above the Earth's equatorial radius ${WGS84_A_KM} km`,
+        "aKm is measured from the Earth's centre (altitude + 6378.137 km); raise aKm or lower e",
+      );
+    }
+    return { kind: 'keplerian', ...k, epoch: ctx.time(k.epoch, [...path, 'keplerian', 'epoch']) };
+  }
+  if (o.state !== undefined) {
+    const s = o.state;
+    const rKm = Math.hypot(...s.positionKm);
+    if (!(rKm >= WGS84_POLAR_RADIUS_KM)) {
+      throw ctx.error(
+        [...path, 'state', 'positionKm'],
+        `position is ${rKm.toFixed(3)} km from the Earth's centre, inside the Earth (polar radius ${WGS84_POLAR_RADIUS_KM.toFixed(3)} km)`,
+        'give the geocentric position in km, not metres or an altitude',
+      );
+    }
+    return {
+      kind: 'state',
+      epoch: ctx.time(s.epoch, [...path, 'state', 'epoch']),
+      frame: s.frame,
+      positionKm: [...s.positionKm],
+      velocityKmPerS: [...s.velocityKmPerS],
+    };
+  }
+  const sp3 = o.sp3!;
+  return { kind: 'sp3', file: sp3.file, resolvedFile: resolve(dirname(resolve(ctx.fileName)), sp3.file), id: sp3.id };
+}
+
+function buildTle(tle: string | string[], path: PathSeg[], ctx: Context): TleOrbitSpec {
+  const lines = (typeof tle === 'string' ? tle.split(/\r?\n/) : tle).map((l) => l.trimEnd()).filter((l) => l.trim() !== '');
+  if (lines.length !== 2 && lines.length !== 3) {
+    throw ctx.error(path, `the TLE has ${lines.length} non-empty line${lines.length === 1 ? '' : 's'}, expected 2 (or 3 with a name line)`, FIELD_HINTS.tle);
+  }
+  const [line1, line2] = lines.slice(-2);
+  for (const [n, line] of [
+    [1, line1],
+    [2, line2],
+  ] as const) {
+    if (!line.startsWith(`${n} `)) {
+      const shown = line.length > 20 ? `${line.slice(0, 20)}...` : line;
+      throw ctx.error(path, `TLE line ${n} should start with "${n} ", found ${JSON.stringify(shown)}`, 'give the element lines in order: optional name, then line 1, then line 2');
+    }
+  }
+  const nameLine = lines.length === 3 ? lines[0] : null;
+  return { kind: 'tle', nameLine, line1, line2, text: lines.join('\n') };
+}
+
+function baseName(fileName: string): string {
+  const base = fileName.split(/[\\/]/).pop() ?? fileName;
+  return base.replace(/\.(json|ya?ml)$/i, '') || fileName;
+}

@@ -1,0 +1,128 @@
+/**
+ * The scenario schema: shape and ranges as strict zod schemas (cross-field checks come later, in
+ * `scenarioBuild.ts`), the hint shown for each key whose value is wrong, and JSON paths.
+ */
+import { z } from 'zod';
+import { WGS84_A_M, WGS84_INV_F } from '../constants.ts';
+
+/** Station height limits [m]: Dead Sea shore ≈ −410 m and Everest ≈ 8820 m ellipsoidal, with margin. */
+export const STATION_MIN_HEIGHT_M = -500;
+export const STATION_MAX_HEIGHT_M = 10_000;
+/** |N| stays below ≈ 110 m on Earth; a larger value is probably a height, not an undulation. */
+export const GEOID_HEIGHT_LIMIT_M = 150;
+/** WGS-84 polar radius [km], derived from a and 1/f: 6356.752 km. */
+export const WGS84_POLAR_RADIUS_KM = (WGS84_A_M * (1 - 1 / WGS84_INV_F)) / 1000;
+export const WGS84_A_KM = WGS84_A_M / 1000;
+export const DEFAULT_HORIZON = '180d';
+
+const text = z.string().min(1);
+const vec3 = z.tuple([z.number(), z.number(), z.number()]);
+const TLE_SHAPE = 'a TLE must be a text of 2 or 3 lines, or a list [line1, line2] or [name, line1, line2]';
+
+const KeplerianSchema = z.strictObject({
+  epoch: text,
+  aKm: z.number().positive(),
+  e: z.number().min(0).lt(1),
+  iDeg: z.number().min(0).max(180),
+  raanDeg: z.number(),
+  argpDeg: z.number(),
+  meanAnomalyDeg: z.number(),
+});
+
+const OrbitSchema = z.strictObject({
+  tle: z.union([z.string(), z.array(z.string()).min(2).max(3)], { error: TLE_SHAPE }).optional(),
+  omm: z.record(z.string(), z.union([z.string(), z.number()], { error: 'an OMM value must be a string or a number' })).optional(),
+  keplerian: KeplerianSchema.optional(),
+  state: z.strictObject({ epoch: text, frame: z.enum(['GCRF', 'TEME']), positionKm: vec3, velocityKmPerS: vec3 }).optional(),
+  sp3: z.strictObject({ file: text, id: text }).optional(),
+});
+
+const ClockSchema = z.strictObject({
+  epoch: text.optional(),
+  offsetNs: z.number().optional(),
+  hardwareFractionalOffset: z.number().optional(),
+  agingPerDay: z.number().optional(),
+  noise: z
+    .strictObject({
+      whiteFmAdev1s: z.number().min(0).optional(),
+      flickerFmFloor: z.number().min(0).optional(),
+      randomWalkFmAdev1d: z.number().min(0).optional(),
+    })
+    .optional(),
+  keepInNs: z.number().positive().optional(),
+});
+
+const SatelliteSchema = z.strictObject({
+  id: text,
+  name: z.string().optional(),
+  orbit: OrbitSchema,
+  clock: ClockSchema.optional(),
+});
+
+const StationSchema = z.strictObject({
+  id: text,
+  latDeg: z.number().min(-90).max(90),
+  lonDeg: z.number().min(-180).lt(360),
+  heightM: z.number().min(STATION_MIN_HEIGHT_M).max(STATION_MAX_HEIGHT_M),
+  geoidHeightM: z.number().min(-GEOID_HEIGHT_LIMIT_M).max(GEOID_HEIGHT_LIMIT_M).optional(),
+  maskDeg: z.number().min(-5).lt(90).optional(),
+  minPassS: z.number().min(0).optional(),
+});
+
+const PolicySchema = z.strictObject({
+  marginNs: z.number().min(0).optional(),
+  leadTime: text.optional(),
+  prefer: z.enum(['phase', 'frequency']).optional(),
+  horizon: text.optional(),
+});
+
+export const ScenarioSchema = z.strictObject({
+  name: z.string().optional(),
+  window: z.strictObject({ start: text, end: text }),
+  gravity: z.enum(['point', 'j2', 'zonal']).optional(),
+  tides: z.boolean().optional(),
+  reference: z.enum(['GPS', 'TAI', 'TT']).optional(),
+  satellites: z.array(SatelliteSchema).min(1),
+  stations: z.array(StationSchema).optional(),
+  policy: PolicySchema.optional(),
+});
+
+/** The scenario as the schema accepts it, before defaults and cross-field checks. */
+export type RawScenario = z.infer<typeof ScenarioSchema>;
+/** One step of a JSON path: a key or a list index. */
+export type PathSeg = string | number;
+
+/** What each key means and its range, shown as the fix when its value is wrong. */
+export const FIELD_HINTS: Record<string, string> = {
+  latDeg: 'give the geodetic latitude in degrees, −90 … 90, north positive',
+  lonDeg: 'give the longitude in degrees east, −180 ≤ lon < 360',
+  heightM: `give the height above the WGS-84 ellipsoid in metres, ${STATION_MIN_HEIGHT_M} … ${STATION_MAX_HEIGHT_M}`,
+  geoidHeightM: `give the geoid undulation N in metres (−${GEOID_HEIGHT_LIMIT_M} … ${GEOID_HEIGHT_LIMIT_M}), not a height above the geoid`,
+  maskDeg: 'give the elevation mask in degrees, −5 ≤ maskDeg < 90',
+  minPassS: 'give the shortest useful pass in seconds, 0 or more',
+  keepInNs: 'give the keep-in limit on |offsetNs| in ns, greater than 0',
+  marginNs: 'give the margin in ns, 0 or more (and below every keepInNs)',
+  aKm: "give the semi-major axis in km from the Earth's centre (not the altitude)",
+  e: 'give the eccentricity, 0 ≤ e < 1 (a closed orbit)',
+  iDeg: 'give the inclination in degrees, 0 … 180',
+  whiteFmAdev1s: 'noise levels are Allan deviations, 0 or more',
+  flickerFmFloor: 'noise levels are Allan deviations, 0 or more',
+  randomWalkFmAdev1d: 'noise levels are Allan deviations, 0 or more',
+  positionKm: 'give exactly three numbers [x, y, z] in km',
+  velocityKmPerS: 'give exactly three numbers [vx, vy, vz] in km/s',
+  satellites: 'list at least one satellite under satellites:',
+  tle: 'write the TLE as a block text (tle: |) or as a list [line1, line2]',
+  omm: 'give CCSDS OMM keys with text or number values, e.g. OBJECT_NAME, EPOCH, MEAN_MOTION',
+  id: 'give a non-empty text id; in YAML quote an id that looks like a number, e.g. id: "43873"',
+};
+
+/** Format a path as `satellites[2].clock.agingPerDay` (empty path: ''). */
+export function formatPath(path: readonly PathSeg[]): string {
+  let out = '';
+  for (const seg of path) {
+    if (typeof seg === 'number') out += `[${seg}]`;
+    else if (/^[A-Za-z_$][\w$]*$/.test(seg)) out += out === '' ? seg : `.${seg}`;
+    else out += `[${JSON.stringify(seg)}]`;
+  }
+  return out;
+}
