@@ -1,6 +1,7 @@
 /** Turning a command's result into the requested format, on stdout or atomically into --out. */
 import { InputError } from '../errors.ts';
 import { toJsonText, writeFileAtomic } from '../io/output.ts';
+import { escapeUnsafeText } from '../report/safeText.ts';
 
 export type OutputFormat = 'text' | 'json' | 'csv' | 'html';
 export const OUTPUT_FORMATS: readonly OutputFormat[] = ['text', 'json', 'csv', 'html'];
@@ -29,7 +30,8 @@ export function emit(r: Rendered, format: OutputFormat, out: string | undefined,
       body = r.html();
       break;
     default:
-      body = r.text();
+      // Names from input files reach the terminal: no control or bidirectional characters.
+      body = escapeUnsafeText(r.text());
   }
   if (out === undefined) process.stdout.write(body);
   else writeFileAtomic(out, body);

@@ -2,12 +2,12 @@
  * The command line. Every command: `--format text|json|csv|html`, `--out PATH` (atomic).
  * Input faults print `tauplan: <what> (<where>) — <fix>` on one line and exit 2; internal faults exit 1.
  */
-import { statSync } from 'node:fs';
-import { dirname, join, resolve } from 'node:path';
 import yargs, { type Argv } from 'yargs';
 import { InputError, InternalError } from '../errors.ts';
 import { defaultTimeSystem, LEAP_SECONDS_ENV } from '../io/tables.ts';
-import { removePendingTemps } from '../io/output.ts';
+import { checkOutputTarget, hookSignals, noteInputFile, removePendingTemps, setOutputDefaults, writeFault } from '../io/output.ts';
+import { checkNumberOptions, refuseCatalogueOptionsWithoutAll, refuseRepeatedOptions } from './options.ts';
+import { oneLineText } from '../report/safeText.ts';
 import { enableWasmSgp4 } from '../orbit/sgp4.ts';
 import { emit, OUTPUT_FORMATS, type OutputFormat } from './emit.ts';
 import { runTime } from './commands/time.ts';
@@ -28,6 +28,7 @@ function common<T>(y: Argv<T>) {
   return y
     .option('format', { type: 'string', requiresArg: true, choices: OUTPUT_FORMATS as OutputFormat[], default: 'text' as OutputFormat, describe: 'output format' })
     .option('out', { type: 'string', requiresArg: true, describe: 'write to this file (atomically) instead of stdout' })
+    .option('force', { type: 'boolean', default: false, describe: 'replace a read-only --out file' })
     .option('quiet', { type: 'boolean', default: false, describe: 'no progress or warnings on stderr' });
 }
 
@@ -47,6 +48,7 @@ function parser(args: string[]) {
       'Size the factory frequency offset for an orbit',
       (y) => sizeOptions(common(y)),
       async (a) => {
+        refuseCatalogueOptionsWithoutAll(a);
         if (a.all === true) await runSizeAll(a, ts);
         else if ((a.format as string) === 'jsonl') throw new InputError('jsonl output is for catalogue runs', '--format', 'add --all (with --tle or --omm), or use text, json or csv');
         else emit(await runSize(a, ts), a.format, a.out, 'size');
@@ -118,17 +120,18 @@ function parser(args: string[]) {
     .exitProcess(false)
     .wrap(Math.min(110, process.stdout.columns ?? 100))
     .middleware((argv) => {
-      // yargs turns a non-numeric value of a number option into NaN silently.
-      for (const [key, value] of Object.entries(argv)) {
-        if (typeof value === 'number' && Number.isNaN(value) && !/[A-Z]/.test(key)) {
-          const raw = rawFlagValue(args, key);
-          throw new InputError(`--${key} ${raw === undefined ? 'has no value' : `${JSON.stringify(raw)} is not a number`}`, `--${key}`, 'give a plain number, e.g. 550 or -4.5e-10');
-        }
-      }
+      // yargs turns a non-numeric value of a number option into NaN, and 1e309 into Infinity, silently.
+      checkNumberOptions(argv, args);
     })
     .middleware((argv) => {
-      // Refuse an unusable --out before any work (the demo's --out is a folder it creates).
-      if (typeof argv.out === 'string' && argv._[0] !== 'demo') checkOutPath(argv.out);
+      // Refuse an unusable --out before any work (the demo's --out is a folder it creates). Every
+      // file named on the command line is an input that --out must not replace.
+      setOutputDefaults({ force: argv.force === true });
+      for (const [key, value] of Object.entries(argv)) {
+        if (key === 'out' || key === 'update-scenario' || key === '$0' || /[A-Z]/.test(key)) continue;
+        for (const v of Array.isArray(value) ? value : [value]) if (typeof v === 'string' && v !== '') noteInputFile(v);
+      }
+      if (typeof argv.out === 'string' && argv._[0] !== 'demo') checkOutputTarget(argv.out);
     })
     .fail((msg, err) => {
       // yargs' own validation faults (YError) are usage errors like the messages it passes alone.
@@ -159,24 +162,6 @@ function usageError(msg: string, args: string[]): InputError {
   return new InputError(text, 'command line', 'see tauplan --help');
 }
 
-/** An output file path must name a file (not a folder) in an existing folder. */
-function checkOutPath(out: string): void {
-  if (out.trim() === '') throw new InputError('--out is empty', '--out', 'give a file path, e.g. --out result.json');
-  const st = statSync(out, { throwIfNoEntry: false });
-  if (st?.isDirectory() === true) throw new InputError(`${out} is a folder`, '--out', 'give a file path inside it, e.g. --out ' + join(out, 'result.json'));
-  const folder = statSync(dirname(resolve(out)), { throwIfNoEntry: false });
-  if (folder === undefined || !folder.isDirectory()) throw new InputError(`folder ${dirname(out)} does not exist`, '--out', 'create the folder first, or give a path in an existing folder');
-}
-
-/** The text given after `--key` (or in `--key=...`) on the command line. */
-function rawFlagValue(args: string[], key: string): string | undefined {
-  for (let i = 0; i < args.length; i++) {
-    if (args[i] === `--${key}`) return args[i + 1];
-    if (args[i].startsWith(`--${key}=`)) return args[i].slice(key.length + 3);
-  }
-  return undefined;
-}
-
 /**
  * `--span -1d` would otherwise read as the short flags -1 and -d: a value that starts with a minus
  * and a digit is joined to its option (`--span=-1d`), so the option's own check reports it.
@@ -194,14 +179,31 @@ export function joinNegativeValues(args: string[]): string[] {
   return out;
 }
 
-/** User text inside a message: control characters (newlines, escapes to the terminal) shown as \uXXXX. */
-function oneLineText(s: string): string {
-  return s.replace(/[\u0000-\u001f\u007f\u2028\u2029]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
+/**
+ * Standard output faults: a reader that stops early (`| head`, EPIPE) ends the run quietly with exit
+ * 0, as other streaming tools do; any other (`> /dev/full`) is one line and exit 2.
+ */
+function hookStdout(): void {
+  process.stdout.on('error', (e: NodeJS.ErrnoException) => {
+    removePendingTemps();
+    if (e.code === 'EPIPE') process.exit(EXIT_OK);
+    const f = writeFault(e, 'standard output', 'stdout');
+    process.stderr.write(`tauplan: ${oneLineText(f.what.replace('; nothing was written', ''))} (standard output) — ${oneLineText(f.fix)}\n`);
+    process.exit(EXIT_BAD_INPUT);
+  });
 }
+
+let processHooked = false;
 
 /** Run the CLI; returns the exit code. */
 export async function main(args: string[]): Promise<number> {
+  if (!processHooked) {
+    processHooked = true;
+    hookStdout();
+    hookSignals();
+  }
   try {
+    refuseRepeatedOptions(args);
     await enableWasmSgp4();
     // The leap-second table is needed before the commands are parsed: take --leap-seconds first.
     const leapIdx = args.findIndex((x) => x === '--leap-seconds' || x.startsWith('--leap-seconds='));
@@ -209,6 +211,7 @@ export async function main(args: string[]): Promise<number> {
       const value = args[leapIdx].includes('=') ? args[leapIdx].slice(args[leapIdx].indexOf('=') + 1) : args[leapIdx + 1];
       if (value === undefined || value === '') throw new InputError('--leap-seconds needs a file', '--leap-seconds', 'give the path of an IERS Leap_Second.dat');
       process.env[LEAP_SECONDS_ENV] = value;
+      noteInputFile(value);
     }
     await parser(joinNegativeValues(args)).parseAsync();
     const leap = defaultTimeSystem().leap;

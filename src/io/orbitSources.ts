@@ -11,6 +11,7 @@ import { Sp3Trajectory } from '../orbit/sp3.ts';
 import { trajectoryFromKeplerian, trajectoryFromStateVector } from '../orbit/stateVector.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
+import { noteInputFile } from './output.ts';
 import { parseOmmFile, ommFromObject, type OmmRecord } from './omm.ts';
 import type { SatelliteSpec, ScenarioSpec } from './scenario.ts';
 import { parseSp3, type Sp3File } from './sp3.ts';
@@ -33,6 +34,7 @@ export interface ResolvedOrbit {
 /** Read a text file, turning file-system faults into one-line input errors. */
 export function readTextFile(path: string, where: string): string {
   try {
+    noteInputFile(path);
     return readFileSync(path, 'utf8');
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;

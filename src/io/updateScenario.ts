@@ -44,5 +44,5 @@ export function updateScenarioClock(path: string, satelliteId: string, clock: Fi
     next = doc.toString({ lineWidth: 0 });
   }
   parseScenarioText(next, path, ts); // still a valid scenario, or nothing is written
-  writeFileAtomic(path, next, '--update-scenario');
+  writeFileAtomic(path, next, { flag: '--update-scenario', mayBeInput: true });
 }

@@ -1,15 +1,28 @@
 /**
  * CSV writing with csv-stringify. Text cells that a spreadsheet would run as a formula
- * (starting with =, +, −, @, tab or CR) get a leading apostrophe. Numbers are written as numbers.
+ * (starting with =, +, −, @, tab or CR) get a leading apostrophe; control and bidirectional
+ * characters in them are shown as `\uXXXX` (safeText.ts). Numbers are written as numbers.
  */
 import { stringify } from 'csv-stringify/sync';
 import { InternalError } from '../errors.ts';
+import { escapeUnsafeText } from './safeText.ts';
 
 export type CsvCell = string | number | boolean | null;
 
-/** Neutralise a text cell that a spreadsheet would evaluate. */
+/** Neutralise a text cell that a spreadsheet would evaluate, and escape unsafe characters in it. */
 export function safeCsvText(s: string): string {
-  return /^[=+\-@\t\r]/.test(s) ? `'${s}` : s;
+  return /^[=+\-@\t\r]/.test(s) ? `'${escapeUnsafeText(s)}` : escapeUnsafeText(s);
+}
+
+/** A plain decimal or scientific number, as the writers print them (not a formula). */
+const NUMBER_CELL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
+/**
+ * A cell read back from a CSV file (all cells are text then): numbers stay as they are, any other
+ * text is neutralised like {@link safeCsvText}. For `merge`, whose inputs may have been edited.
+ */
+export function safeCsvCell(s: string): string {
+  return NUMBER_CELL.test(s) ? s : safeCsvText(s);
 }
 
 /** One CSV document: header plus rows. Throws InternalError on a non-finite number. */

@@ -2,12 +2,15 @@
  * `tauplan demo [--out DIR]`: the whole job on the embedded INVENTED scenario (data/demo/tessera.yaml):
  * sizing, passes with clock offsets, the keep-in plan, a clock fit to simulated measurements, the
  * clock comparison and the altitude sweep; one HTML report plus CSV and JSON files.
- * Everything is computed before the first file is written; each file is written atomically.
+ * Everything is computed before the first file is written; the files go into a temporary folder and
+ * are moved in together (src/io/outputFolder.ts), never over files another program wrote unless --force.
  */
 import { join, resolve } from 'node:path';
 import type { Argv } from 'yargs';
 import { PREDICTION_RULE_TEXT } from '../../clock/noise.ts';
-import { ensureDir, toJsonText, writeFileAtomic } from '../../io/output.ts';
+import { toJsonText } from '../../io/output.ts';
+import { escapeUnsafeText } from '../../report/safeText.ts';
+import { prepareOutputFolder, writeOutputFolder } from '../../io/outputFolder.ts';
 import { dataPath } from '../../io/tables.ts';
 import { planPasses } from '../../plan/passes.ts';
 import { sizeClock } from '../../plan/size.ts';
@@ -27,13 +30,18 @@ import { computeResets } from './resets.ts';
 export function demoOptions<T>(y: Argv<T>) {
   return y
     .option('out', { type: 'string', requiresArg: true, default: './tauplan-demo', describe: 'folder for the report and data files' })
+    .option('force', { type: 'boolean', default: false, describe: 'replace files in the folder that tauplan did not write' })
     .option('quiet', { type: 'boolean', default: false, describe: 'print only where the report is' });
 }
 
-export function runDemo(a: { out: string; quiet: boolean }, ts: TimeSystem): void {
+/** The files the demo writes, in the order of the summary. */
+const DEMO_FILES = ['report.html', 'passes.txt', 'passes.csv', 'passes.json', 'resets.txt', 'resets.csv', 'resets.json', 'size.csv', 'fit.json', 'compare.json', 'sweep.csv'] as const;
+
+export function runDemo(a: { out: string; quiet: boolean; force?: boolean }, ts: TimeSystem): void {
   // The output folder is checked (and made) before any work, so a bad --out fails at once.
+  const folderOptions = { force: a.force === true };
+  prepareOutputFolder(a.out, DEMO_FILES, folderOptions);
   const dir = resolve(a.out);
-  ensureDir(dir);
   const scenarioPath = dataPath('demo/tessera.yaml');
   const ctx = loadScenarioContext(scenarioPath, ts, {});
   const passes = planPasses(ctx.runs, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
@@ -58,12 +66,12 @@ export function runDemo(a: { out: string; quiet: boolean }, ts: TimeSystem): voi
       modelsSection(),
     ],
   );
-  const files: [string, string][] = [
+  const files: [(typeof DEMO_FILES)[number], string][] = [
     ['report.html', html],
-    ['passes.txt', passesToText(passes.rows, passMeta, ts)],
+    ['passes.txt', escapeUnsafeText(passesToText(passes.rows, passMeta, ts))],
     ['passes.csv', passesToCsv(passes.rows, ts)],
     ['passes.json', toJsonText(passesToJson(passes.rows, passMeta, ts))],
-    ['resets.txt', resetsToText(resets.plans, resets.meta, ts)],
+    ['resets.txt', escapeUnsafeText(resetsToText(resets.plans, resets.meta, ts))],
     ['resets.csv', resetsToCsv(resets.plans, ts)],
     ['resets.json', toJsonText(resetsToJson(resets.plans, resets.meta, ts))],
     ['size.csv', sizeToCsv(sizes, ts)],
@@ -71,7 +79,7 @@ export function runDemo(a: { out: string; quiet: boolean }, ts: TimeSystem): voi
     ['compare.json', toJsonText(compareToJson(compare.result, ts, compare.meta))],
     ['sweep.csv', sweepToCsv(sweep.result)],
   ];
-  for (const [name, body] of files) writeFileAtomic(join(dir, name), body);
+  writeOutputFolder(dir, files, folderOptions);
   const adjustments = resets.plans.reduce((n, p) => n + p.adjustments.length, 0);
   if (!a.quiet) {
     process.stdout.write(

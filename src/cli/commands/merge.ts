@@ -11,6 +11,7 @@ import { stringify } from 'csv-stringify/sync';
 import { InputError } from '../../errors.ts';
 import { readTextFile } from '../../io/orbitSources.ts';
 import { writeFileAtomic } from '../../io/output.ts';
+import { safeCsvCell } from '../../report/csv.ts';
 
 export function mergeOptions<T>(y: Argv<T>) {
   return y
@@ -84,7 +85,8 @@ export function mergeShardTexts(inputs: readonly { name: string; text: string }[
     throw new InputError(`index ${i} is missing (rows jump to ${rows[i].index})`, 'merge', 'give the outputs of every shard K/N, K = 1..N');
   }
   if (kind === 'jsonl') return rows.map((r) => `${r.cells as string}\n`).join('');
-  return stringify([header as string[], ...rows.map((r) => r.cells as string[])]);
+  // Cells may have been edited since size --all wrote them: formulas and unsafe characters are neutralised again.
+  return stringify([(header as string[]).map(safeCsvCell), ...rows.map((r) => (r.cells as string[]).map(safeCsvCell))]);
 }
 
 /** `tauplan merge`: read, merge, write (atomically with --out). */

@@ -11,7 +11,6 @@
  *   goes on and exits 0. `--strict` makes any such failure a failed run (exit 2, no --out file).
  *   A fault in the file itself (bad checksum, ...) still fails the whole run at once.
  */
-import { closeSync, fsyncSync, openSync, writeSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import type { Worker } from 'node:worker_threads';
 import { startModuleWorker } from '../workers.ts';
@@ -19,7 +18,8 @@ import cliProgress from 'cli-progress';
 import { gravityModel } from '../../orbit/gravity.ts';
 import { InputError, InternalError } from '../../errors.ts';
 import { idOf, labelOf, readElementSets } from '../../io/orbitSources.ts';
-import { commitTemp, reserveTemp, toJsonText } from '../../io/output.ts';
+import { openOutput, toJsonText } from '../../io/output.ts';
+import { escapeUnsafeText } from '../../report/safeText.ts';
 import {
   inShard,
   InOrderBuffer,
@@ -66,45 +66,17 @@ export interface SizeAllSummary {
   failed: number;
 }
 
-/** Where rows go: stdout, or a temporary file renamed into place at the end. */
+/** Where rows go: stdout, or a temporary file renamed into place at the end (src/io/output.ts). */
 interface Sink {
   write(text: string): void;
   finish(): void;
 }
 
-let epipeHooked = false;
-
 function openSink(out: string | undefined): Sink {
-  if (out === undefined) {
-    // A reader that stops early (`| head`) ends the run quietly, as other streaming tools do.
-    if (!epipeHooked) {
-      epipeHooked = true;
-      process.stdout.on('error', (e: NodeJS.ErrnoException) => {
-        if (e.code === 'EPIPE') process.exit(0);
-        throw e;
-      });
-    }
-    return { write: (t) => void process.stdout.write(t), finish: () => undefined };
-  }
-  const tmp = reserveTemp(out);
-  let fd: number;
-  try {
-    fd = openSync(tmp, 'w');
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code ?? 'error';
-    throw new InputError(`cannot write ${out} (${code})`, '--out', 'give a path in an existing folder you can write to');
-  }
-  let open = true;
-  return {
-    write: (t) => void writeSync(fd, t),
-    finish: () => {
-      if (!open) return;
-      open = false;
-      fsyncSync(fd);
-      closeSync(fd);
-      commitTemp(tmp, out);
-    },
-  };
+  // A reader of stdout that stops early (`| head`) ends the run quietly: src/cli/main.ts.
+  if (out === undefined) return { write: (t) => void process.stdout.write(t), finish: () => undefined };
+  const file = openOutput(out);
+  return { write: (t) => file.write(t), finish: () => file.commit() };
 }
 
 /** JSON text of one value on one line; refuses non-finite numbers like toJsonText does. */
@@ -328,7 +300,7 @@ function writeBuffered(kept: CatalogueOutcome[], format: string, out: string | u
     const results = kept.filter((o) => o.ok).map((o) => jsonObject(o, sourceLabel, gravityName, ts));
     const failures = kept.filter((o) => !o.ok).map((o) => jsonObject(o, sourceLabel, gravityName, ts));
     body = toJsonText({ results, failures });
-  } else body = catalogueText(kept, s);
+  } else body = escapeUnsafeText(catalogueText(kept, s));
   const sink = openSink(out);
   sink.write(body);
   sink.finish();
