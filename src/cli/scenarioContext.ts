@@ -8,6 +8,7 @@ import type { OscillatorParams } from '../clock/oscillator.ts';
 import { InputError, SpanError } from '../errors.ts';
 import type { GmstRadAt } from '../events/passes.ts';
 import type { Station } from '../events/station.ts';
+import { nameList } from './options.ts';
 import { loadScenario } from '../io/loadScenario.ts';
 import { trajectoryForSatellite } from '../io/orbitSources.ts';
 import type { ClockSpec, SatelliteSpec, ScenarioSpec } from '../io/scenario.ts';
@@ -57,7 +58,7 @@ export function oscillatorParams(c: ClockSpec | null): OscillatorParams | null {
 
 function pick<T>(items: T[], wanted: string | undefined, keyOf: (t: T) => string[], flag: string, what: string): T[] {
   if (wanted === undefined) return items;
-  const names = wanted.split(',').map((s) => s.trim()).filter((s) => s.length > 0);
+  const names = nameList(wanted, flag, what);
   const out: T[] = [];
   for (const n of names) {
     const found = items.find((t) => keyOf(t).includes(n));

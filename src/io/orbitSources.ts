@@ -62,12 +62,24 @@ export function pickElementSet<T extends TleRecord | OmmRecord>(records: T[], sa
     throw new InputError(`${file} holds ${records.length} satellites`, '--sat', 'name one with --sat (catalogue number or name), or use --all');
   }
   const wanted = sat.trim();
-  const found = records.find((r) => matchesElementSet(r, wanted));
+  const all = records.filter((r) => matchesElementSet(r, wanted));
+  if (all.length > 1) {
+    // Two element sets of one satellite (or one name): which to use is the user's choice, not ours.
+    const listed = all.slice(0, 4).map((r) => `${labelOf(r)} epoch ${civilIso(r.epochUtc)}`).join('; ');
+    throw new InputError(`${all.length} element sets in ${file} match ${JSON.stringify(sat)} (${listed}${all.length > 4 ? '; …' : ''})`, '--sat', 'keep one element set per satellite in the file (usually the newest), or give a catalogue number that is unique');
+  }
+  const found = all[0];
   if (found === undefined) {
     const some = records.slice(0, 5).map(labelOf).join(', ');
     throw new InputError(`no satellite ${JSON.stringify(sat)} in ${file}`, '--sat', `use a catalogue number or name from the file (e.g. ${some})`);
   }
   return found;
+}
+
+/** A UTC civil time as ISO 8601 to the second. */
+function civilIso(c: { year: number; month: number; day: number; hour: number; minute: number; second: number }): string {
+  const p = (n: number, w = 2): string => String(n).padStart(w, '0');
+  return `${p(c.year, 4)}-${p(c.month)}-${p(c.day)}T${p(c.hour)}:${p(c.minute)}:${p(Math.floor(c.second))}Z`;
 }
 
 function matchesElementSet(r: TleRecord | OmmRecord, wanted: string): boolean {

@@ -43,26 +43,54 @@ const pad2 = (n: number): string => String(n).padStart(2, '0');
 export function readLeapFile(path: string): LeapTableData {
   let text: string;
   try {
-    text = readFileSync(path, 'utf8');
+    text = readFileSync(path, 'utf8').replace(/^\uFEFF/, '');
   } catch (e) {
     throw new InputError(`cannot read leap-second file ${path} (${(e as NodeJS.ErrnoException).code ?? 'error'})`, '--leap-seconds', 'give the path of an IERS Leap_Second.dat or a tauplan leap-seconds.json');
   }
   if (/^\s*\{/.test(text)) {
+    let data: LeapTableData;
     try {
-      const data = JSON.parse(text) as LeapTableData;
+      data = JSON.parse(text) as LeapTableData;
       if (!Array.isArray(data.rows) || typeof data.expiresUtc !== 'string') throw new Error('shape');
-      return data;
+      if (!data.rows.every((r) => Array.isArray(r) && typeof r[0] === 'string' && typeof r[1] === 'number')) throw new Error('rows');
     } catch {
-      throw new InputError(`${path} is not a tauplan leap-second table`, '--leap-seconds', 'give JSON with "expiresUtc" and "rows", or an IERS Leap_Second.dat');
+      throw new InputError(`${path} is not a tauplan leap-second table`, '--leap-seconds', 'give JSON with "expiresUtc" and "rows" of ["YYYY-MM-DD", seconds], or an IERS Leap_Second.dat');
     }
+    checkLeapSteps(data.rows, (i) => `${path} rows[${i}]`);
+    return data;
   }
   return parseIersLeapSecondDat(text, path);
+}
+
+/** TAI − UTC when UTC began (1972-01-01) [s]: ITU-R TF.460-6, confirmed against IERS Leap_Second.dat. */
+const FIRST_TAI_MINUS_UTC_S = 10;
+
+/**
+ * A plausible table: TAI − UTC starts at 10 s and changes by exactly ±1 s per row, each change at
+ * 0 h UTC on the first day of a month (ITU-R TF.460-6 §2.1: a leap second is the last second of a
+ * month, first preference December and June, second March and September). A table that breaks this
+ * is a damaged or hand-edited file, and every time converted with it would be wrong.
+ */
+export function checkLeapSteps(rows: readonly (readonly [string, number])[], where: (i: number) => string): void {
+  const fix = 'use the IERS Leap_Second.dat as published (TAI − UTC changes by 1 s, on the first day of a month)';
+  rows.forEach(([date, value], i) => {
+    const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(date);
+    if (m === null || m[3] !== '01' || Number(m[2]) < 1 || Number(m[2]) > 12) throw new InputError(`leap-second change on ${date}, not the first day of a month`, where(i), fix);
+    if (!Number.isInteger(value)) throw new InputError(`TAI − UTC ${value} s is not a whole number of seconds`, where(i), fix);
+    if (i === 0) {
+      if (value !== FIRST_TAI_MINUS_UTC_S) throw new InputError(`first row says TAI − UTC = ${value} s on ${date}; UTC began at 10 s on 1972-01-01`, where(i), fix);
+      return;
+    }
+    const step = value - rows[i - 1][1];
+    if (Math.abs(step) !== 1) throw new InputError(`TAI − UTC steps by ${step} s on ${date} (from ${rows[i - 1][1]} s); a leap second is ±1 s`, where(i), fix);
+  });
 }
 
 /** IERS Leap_Second.dat: `#  File expires on 28 June 2027` and rows `MJD day month year TAI-UTC`. */
 export function parseIersLeapSecondDat(text: string, path: string): LeapTableData {
   let expiresUtc: string | null = null;
   const rows: [string, number][] = [];
+  const rowLines: number[] = [];
   const lines = text.split(/\r?\n/);
   for (let i = 0; i < lines.length; i++) {
     const line = lines[i].trim();
@@ -84,8 +112,10 @@ export function parseIersLeapSecondDat(text: string, path: string): LeapTableDat
     }
     const { year, month, day } = civilFromDays(Math.round(mjd) - MJD_OF_UNIX_EPOCH);
     rows.push([`${year}-${pad2(month)}-${pad2(day)}`, value]);
+    rowLines.push(i + 1);
   }
   if (rows.length === 0) throw new InputError('no leap-second rows found', path, 'give an IERS Leap_Second.dat');
   if (expiresUtc === null) throw new InputError('no "File expires on" line found', path, 'give the IERS Leap_Second.dat as published (it states its expiry)');
+  checkLeapSteps(rows, (i) => `${path}:${rowLines[i]}`);
   return { source: `user file ${path}`, expiresUtc, rows };
 }
