@@ -3,7 +3,7 @@
  * fails, jsonc-parser (comments and trailing commas disallowed) finds the first fault's offset,
  * which becomes file:line and a column with what was expected there.
  */
-import { parse, ParseErrorCode, type ParseError } from 'jsonc-parser';
+import { parse, ParseErrorCode, visit, type ParseError } from 'jsonc-parser';
 
 /** Where strict JSON first goes wrong: 1-based line and column, and what was expected. */
 export interface JsonSyntaxFault {
@@ -84,4 +84,30 @@ export function parseJsonLocated(text: string, fault: (where: JsonSyntaxFault | 
   } catch (e) {
     throw fault(jsonSyntaxFault(text), String((e as Error)?.message ?? e).split('\n')[0]);
   }
+}
+
+/**
+ * The first key given twice in one JSON object (RFC 8259 §4: names SHOULD be unique; `JSON.parse`
+ * silently keeps the last), located like a syntax fault, or null. YAML files are refused the same way.
+ */
+export function duplicateJsonKey(text: string): (JsonSyntaxFault & { key: string }) | null {
+  const stack: Set<string>[] = [];
+  let found: { offset: number; key: string } | null = null;
+  visit(text, {
+    onObjectBegin: () => {
+      stack.push(new Set());
+    },
+    onObjectEnd: () => {
+      stack.pop();
+    },
+    onObjectProperty: (key, offset) => {
+      const keys = stack[stack.length - 1];
+      if (found !== null || keys === undefined) return;
+      if (keys.has(key)) found = { offset, key };
+      else keys.add(key);
+    },
+  });
+  if (found === null) return null;
+  const { offset, key } = found as { offset: number; key: string };
+  return { ...locate(text, offset, 'each key once'), key };
 }

@@ -5,7 +5,7 @@
  */
 import { isMap, isScalar, isSeq, LineCounter, parseDocument, type Document } from 'yaml';
 import { ScenarioError } from '../errors.ts';
-import { parseJsonLocated } from './jsonText.ts';
+import { duplicateJsonKey, parseJsonLocated } from './jsonText.ts';
 import type { PathSeg } from './scenarioSchema.ts';
 
 /** File line (1-based) of the deepest node along a JSON path, or null. */
@@ -25,6 +25,8 @@ export function readDocument(body: string, fileName: string): { data: unknown; l
             'check commas, quotes and brackets there (JSON allows no trailing commas or comments)',
           ),
     );
+    const dup = duplicateJsonKey(body);
+    if (dup !== null) throw new ScenarioError(`key ${JSON.stringify(dup.key)} is given twice in one object (column ${dup.column})`, `${fileName}:${dup.line}`, 'give each key once in its object');
     // JSON is YAML 1.2 flow style, so the YAML parser can point at lines for later errors.
     let cached: LineOf | undefined;
     return {
@@ -38,6 +40,10 @@ export function readDocument(body: string, fileName: string): { data: unknown; l
   const lineCounter = new LineCounter();
   const doc = parseDocument(body, { lineCounter, prettyErrors: true, uniqueKeys: true });
   const first = doc.errors[0];
+  if (first?.code === 'MULTIPLE_DOCS') {
+    const line = first.linePos?.[0].line ?? 1;
+    throw new ScenarioError(`the file holds more than one YAML document (another starts at line ${line} after "---")`, `${fileName}:${line}`, 'keep one scenario per file: remove the second "---" and what follows, or split it into its own file');
+  }
   if (first !== undefined) {
     const line = first.linePos?.[0].line ?? 1;
     const col = first.linePos?.[0].col;

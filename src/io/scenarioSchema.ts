@@ -14,6 +14,26 @@ export const GEOID_HEIGHT_LIMIT_M = 150;
 export const WGS84_POLAR_RADIUS_KM = (WGS84_A_M * (1 - 1 / WGS84_INV_F)) / 1000;
 export const WGS84_A_KM = WGS84_A_M / 1000;
 export const DEFAULT_HORIZON = '180d';
+/**
+ * Plausibility bounds on clock keys, so an absurd value is an input error naming the key, never an
+ * overflow deep in a plan. Each is orders of magnitude past any real clock (common practice):
+ * - |offsetNs|, keepInNs, marginNs ≤ 1e12 ns (1000 s);
+ * - keepInNs ≥ 0.01 ns (10 ps, below any phase-step resolution of a flight clock);
+ * - |hardwareFractionalOffset| ≤ 1e-4 (100 ppm, an untuned quartz oscillator is ~1e-6);
+ * - |agingPerDay| ≤ 1e-6 per day (quartz ages ~1e-10 per day);
+ * - noise levels 0 or 1e-20 … 1e-6 (space clocks are 1e-15 … 1e-11 at 1 s).
+ */
+export const MAX_CLOCK_OFFSET_NS = 1e12;
+export const MIN_KEEP_IN_NS = 0.01;
+export const MAX_FRACTIONAL_OFFSET = 1e-4;
+export const MAX_AGING_PER_DAY = 1e-6;
+export const MIN_NOISE_LEVEL = 1e-20;
+export const MAX_NOISE_LEVEL = 1e-6;
+const noiseLevel = z
+  .number()
+  .min(0)
+  .max(MAX_NOISE_LEVEL)
+  .refine((v) => v === 0 || v >= MIN_NOISE_LEVEL, { message: `a noise level is 0 or at least ${MIN_NOISE_LEVEL}` });
 
 const text = z.string().min(1);
 const vec3 = z.tuple([z.number(), z.number(), z.number()]);
@@ -39,17 +59,17 @@ const OrbitSchema = z.strictObject({
 
 const ClockSchema = z.strictObject({
   epoch: text.optional(),
-  offsetNs: z.number().optional(),
-  hardwareFractionalOffset: z.number().optional(),
-  agingPerDay: z.number().optional(),
+  offsetNs: z.number().min(-MAX_CLOCK_OFFSET_NS).max(MAX_CLOCK_OFFSET_NS).optional(),
+  hardwareFractionalOffset: z.number().min(-MAX_FRACTIONAL_OFFSET).max(MAX_FRACTIONAL_OFFSET).optional(),
+  agingPerDay: z.number().min(-MAX_AGING_PER_DAY).max(MAX_AGING_PER_DAY).optional(),
   noise: z
     .strictObject({
-      whiteFmAdev1s: z.number().min(0).optional(),
-      flickerFmFloor: z.number().min(0).optional(),
-      randomWalkFmAdev1d: z.number().min(0).optional(),
+      whiteFmAdev1s: noiseLevel.optional(),
+      flickerFmFloor: noiseLevel.optional(),
+      randomWalkFmAdev1d: noiseLevel.optional(),
     })
     .optional(),
-  keepInNs: z.number().positive().optional(),
+  keepInNs: z.number().min(MIN_KEEP_IN_NS).max(MAX_CLOCK_OFFSET_NS).optional(),
 });
 
 const SatelliteSchema = z.strictObject({
@@ -70,7 +90,7 @@ const StationSchema = z.strictObject({
 });
 
 const PolicySchema = z.strictObject({
-  marginNs: z.number().min(0).optional(),
+  marginNs: z.number().min(0).max(MAX_CLOCK_OFFSET_NS).optional(),
   leadTime: text.optional(),
   prefer: z.enum(['phase', 'frequency']).optional(),
   horizon: text.optional(),
@@ -100,14 +120,17 @@ export const FIELD_HINTS: Record<string, string> = {
   geoidHeightM: `give the geoid undulation N in metres (−${GEOID_HEIGHT_LIMIT_M} … ${GEOID_HEIGHT_LIMIT_M}), not a height above the geoid`,
   maskDeg: 'give the elevation mask in degrees, −5 ≤ maskDeg < 90',
   minPassS: 'give the shortest useful pass in seconds, 0 or more',
-  keepInNs: 'give the keep-in limit on |offsetNs| in ns, greater than 0',
+  keepInNs: `give the keep-in limit on |offsetNs| in ns, 0.01 … 1e12`,
   marginNs: 'give the margin in ns, 0 or more (and below every keepInNs)',
+  offsetNs: `give the clock offset in ns, within ±1e12 (1000 s)`,
+  hardwareFractionalOffset: `give the fractional frequency offset (dimensionless, e.g. -4.464e-10), within ±1e-4`,
+  agingPerDay: `give the fractional frequency change per day (e.g. 2e-15), within ±1e-6`,
   aKm: "give the semi-major axis in km from the Earth's centre (not the altitude)",
   e: 'give the eccentricity, 0 ≤ e < 1 (a closed orbit)',
   iDeg: 'give the inclination in degrees, 0 … 180',
-  whiteFmAdev1s: 'noise levels are Allan deviations, 0 or more',
-  flickerFmFloor: 'noise levels are Allan deviations, 0 or more',
-  randomWalkFmAdev1d: 'noise levels are Allan deviations, 0 or more',
+  whiteFmAdev1s: `noise levels are Allan deviations: 0, or 1e-20 … 1e-6`,
+  flickerFmFloor: `noise levels are Allan deviations: 0, or 1e-20 … 1e-6`,
+  randomWalkFmAdev1d: `noise levels are Allan deviations: 0, or 1e-20 … 1e-6`,
   positionKm: 'give exactly three numbers [x, y, z] in km',
   velocityKmPerS: 'give exactly three numbers [vx, vy, vz] in km/s',
   satellites: 'list at least one satellite under satellites:',
