@@ -5,7 +5,7 @@ import { parseScenarioText, type SatelliteSpec, type ScenarioSpec } from './scen
 import { InputError } from '../errors.ts';
 
 export function loadScenario(path: string, ts: TimeSystem, flag = 'scenario'): ScenarioSpec {
-  return parseScenarioText(readTextFile(path, flag), path, ts);
+  return parseScenarioText(readTextFile(path, flag, 'scenario'), path, ts);
 }
 
 /** A satellite of the scenario by id or name. */

@@ -2,7 +2,6 @@
  * The orbit factory: turns a scenario satellite, or command-line flags, into a Trajectory.
  * This is the edge: it reads TLE, OMM and SP3 files. Everything after it sees only Trajectory.
  */
-import { readFileSync } from 'node:fs';
 import type { GravityModel } from '../orbit/gravity.ts';
 import { InputError } from '../errors.ts';
 import { elementsFromDegKm, type KeplerianElements } from '../orbit/keplerian.ts';
@@ -11,7 +10,7 @@ import { Sp3Trajectory } from '../orbit/sp3.ts';
 import { trajectoryFromKeplerian, trajectoryFromStateVector } from '../orbit/stateVector.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
-import { noteInputFile } from './output.ts';
+import { readInputText, type InputKind } from './readInput.ts';
 import { parseOmmFile, ommFromObject, type OmmRecord } from './omm.ts';
 import type { SatelliteSpec, ScenarioSpec } from './scenario.ts';
 import { parseSp3, type Sp3File } from './sp3.ts';
@@ -31,16 +30,9 @@ export interface ResolvedOrbit {
   rebuildWithDeltaAKm?: (deltaAKm: number) => Trajectory;
 }
 
-/** Read a text file, turning file-system faults into one-line input errors. */
-export function readTextFile(path: string, where: string): string {
-  try {
-    noteInputFile(path);
-    return readFileSync(path, 'utf8');
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    const what = code === 'ENOENT' ? `file not found: ${path}` : code === 'EISDIR' ? `${path} is a folder, not a file` : `cannot read ${path} (${code ?? 'error'})`;
-    throw new InputError(what, where, 'check the path');
-  }
+/** Read a text file (type checked, size capped, BOM dropped: readInput.ts), faults as one-line input errors. */
+export function readTextFile(path: string, where: string, kind: InputKind = 'text'): string {
+  return readInputText(path, where, kind);
 }
 
 /** SGP4 span: the wanted span, widened to hold the element-set epoch, so sizing from the epoch works. */
@@ -101,7 +93,7 @@ export function idOf(r: TleRecord | OmmRecord): string {
 
 /** All element sets of a TLE or OMM file. */
 export function readElementSets(path: string, kind: 'tle' | 'omm', flag: string): (TleRecord | OmmRecord)[] {
-  const text = readTextFile(path, flag);
+  const text = readTextFile(path, flag, 'elements');
   return kind === 'tle' ? parseTleFile(text, path) : parseOmmFile(text, path);
 }
 
@@ -113,7 +105,7 @@ const sp3Cache = new Map<string, Sp3File>();
 function readSp3(path: string, where: string): Sp3File {
   let f = sp3Cache.get(path);
   if (f === undefined) {
-    f = parseSp3(readTextFile(path, where), path);
+    f = parseSp3(readTextFile(path, where, 'orbit'), path);
     sp3Cache.set(path, f);
   }
   return f;

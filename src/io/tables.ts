@@ -5,6 +5,7 @@
  * either our JSON form or the IERS `Leap_Second.dat` text as published with Bulletin C.
  */
 import { readFileSync } from 'node:fs';
+import { readInputText } from './readInput.ts';
 import { fileURLToPath } from 'node:url';
 import { InputError } from '../errors.ts';
 import { civilFromDays, MJD_OF_UNIX_EPOCH } from '../time/calendar.ts';
@@ -41,12 +42,7 @@ const pad2 = (n: number): string => String(n).padStart(2, '0');
 
 /** Read a user leap-second file: our JSON form, or IERS Leap_Second.dat. */
 export function readLeapFile(path: string): LeapTableData {
-  let text: string;
-  try {
-    text = readFileSync(path, 'utf8').replace(/^\uFEFF/, '');
-  } catch (e) {
-    throw new InputError(`cannot read leap-second file ${path} (${(e as NodeJS.ErrnoException).code ?? 'error'})`, '--leap-seconds', 'give the path of an IERS Leap_Second.dat or a tauplan leap-seconds.json');
-  }
+  const text = readInputText(path, '--leap-seconds', 'table');
   if (/^\s*\{/.test(text)) {
     let data: LeapTableData;
     try {

@@ -19,7 +19,7 @@ export interface FittedClock {
 }
 
 export function updateScenarioClock(path: string, satelliteId: string, clock: FittedClock, ts: TimeSystem): void {
-  const text = readTextFile(path, '--update-scenario');
+  const text = readTextFile(path, '--update-scenario', 'scenario');
   const isJson = /\.json$/i.test(path) || /^\s*[{[]/.test(text);
   let next: string;
   if (isJson) {
