@@ -139,6 +139,13 @@ export function parseSp3(text: string, fileName: string): Sp3File {
     satelliteIds.push(id);
   }
   if (satelliteIds.length < satCount) fail(`"+" lines hold ${satelliteIds.length} ids but the count says ${satCount}`, plusStart, 4, 'make the count in columns 4–6 match the ids listed');
+  // Slots past the count must be padding ("  0"): an id there means the count is short of the list.
+  for (let k = satCount; k < plusCount * 17; k++) {
+    const li = plusStart + Math.floor(k / 17);
+    const c = 10 + 3 * (k % 17);
+    const slot = cols(lines[li], c, c + 2).trim();
+    if (slot !== '' && !/^0+$/.test(slot)) fail(`the count says ${satCount} satellites but the "+" lines list more (${slot} is number ${k + 1})`, plusStart, 4, 'make the count in columns 4–6 match the ids listed');
+  }
 
   // ---- Accuracy exponents.
   const accStart = i;
