@@ -21,7 +21,7 @@ const T0_MS = Date.UTC(2027, 2, 1);
 /** The tags we emit; anything else in the output means user text escaped into markup. */
 const ALLOWED_TAGS = new Set([
   'html', 'head', 'meta', 'title', 'style', 'body', 'main', 'header', 'section', 'h1', 'h2', 'p', 'dl', 'dt', 'dd', 'div', 'strong',
-  'figure', 'figcaption', 'table', 'caption', 'thead', 'tbody', 'tr', 'th', 'td', 'footer',
+  'figure', 'figcaption', 'table', 'caption', 'thead', 'tbody', 'tr', 'th', 'td', 'footer', 'ul', 'li', 'br', 'span',
   'svg', 'g', 'defs', 'clippath', 'rect', 'line', 'path', 'circle', 'text', 'tspan',
 ]);
 

@@ -10,6 +10,9 @@ import { LeapSecondTable } from '../src/time/leapSeconds.ts';
 import { TimeSystem } from '../src/time/timeSystem.ts';
 import { InputError } from '../src/errors.ts';
 import { runCli } from './helpers/cli.ts';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 
 const FIXTURE = 'tests/fixtures/iers-leap-seconds/Leap_Second.dat';
 
@@ -35,12 +38,26 @@ describe('IERS Leap_Second.dat', () => {
   });
 
   it('--leap-seconds moves the expiry warning', () => {
-    const before = runCli(['time', '2027-03-01T00:00:00Z']);
-    expect(before.stderr).toMatch(/warning: times past the leap-second table's expiry \(2025-06-28\)/);
-    const after = runCli(['time', '2027-03-01T00:00:00Z', '--leap-seconds', FIXTURE]);
+    // The packaged table expires on 2027-06-28 (IERS Bulletin C 72, July 2026; see data/leap-seconds.json).
+    const before = runCli(['time', '2027-08-01T00:00:00Z']);
+    expect(before.stderr).toMatch(/warning: times past the leap-second table's expiry \(2027-06-28\)/);
+    const dir = mkdtempSync(join(tmpdir(), 'tauplan-leap-'));
+    const later = join(dir, 'later.json');
+    writeFileSync(later, JSON.stringify({ ...readLeapFile(FIXTURE), source: 'test table', expiresUtc: '2028-06-28' }));
+    const after = runCli(['time', '2027-08-01T00:00:00Z', '--leap-seconds', later]);
     expect(after.code).toBe(0);
     expect(after.stderr).toBe('');
-    const late = runCli(['time', '2027-08-01T00:00:00Z', '--leap-seconds', FIXTURE]);
-    expect(late.stderr).toMatch(/expiry \(2027-06-28\)/);
+    const late = runCli(['time', '2028-08-01T00:00:00Z', '--leap-seconds', later]);
+    expect(late.stderr).toMatch(/expiry \(2028-06-28\)/);
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('warns only when a conversion falls past the expiry, once, and carries the warning into the output', () => {
+    const inside = runCli(['time', '2027-03-01T00:00:00Z', '--format', 'json']);
+    expect(inside.stderr).toBe('');
+    expect(JSON.parse(inside.stdout).notes ?? []).toEqual([]);
+    const past = runCli(['time', '2027-08-01T00:00:00Z', '--format', 'json']);
+    expect(past.stderr.match(/warning/g)?.length).toBe(1);
+    expect(JSON.parse(past.stdout).notes.join(' ')).toMatch(/leap-second table expires/);
   });
 });

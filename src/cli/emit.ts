@@ -2,6 +2,9 @@
 import { InputError } from '../errors.ts';
 import { toJsonText, writeFileAtomic } from '../io/output.ts';
 import { escapeUnsafeText } from '../report/safeText.ts';
+import { typographicMinus } from '../report/format.ts';
+import { leapExpiryNote, withNotes } from '../report/notes.ts';
+import type { TimeSystem } from '../time/timeSystem.ts';
 
 export type OutputFormat = 'text' | 'json' | 'csv' | 'html';
 export const OUTPUT_FORMATS: readonly OutputFormat[] = ['text', 'json', 'csv', 'html'];
@@ -12,27 +15,39 @@ export interface Rendered {
   json: () => unknown;
   csv?: () => string;
   html?: () => string;
+  /** Notes and warnings for every format (src/report/notes.ts); writers may place some themselves. */
+  notes?: readonly string[];
 }
 
-/** Render in `format` and write to `out` (atomic) or stdout. Rendering completes before anything is written. */
-export function emit(r: Rendered, format: OutputFormat, out: string | undefined, command: string): void {
-  let body: string;
+function renderOnce(r: Rendered, format: OutputFormat, command: string): string {
   switch (format) {
     case 'json':
-      body = toJsonText(r.json());
-      break;
+      return toJsonText(r.json());
     case 'csv':
       if (r.csv === undefined) throw new InputError(`${command} has no CSV output`, '--format', 'use text or json');
-      body = r.csv();
-      break;
+      return r.csv();
     case 'html':
       if (r.html === undefined) throw new InputError(`${command} has no HTML output`, '--format', 'use text, json or csv');
-      body = r.html();
-      break;
+      return r.html();
     default:
-      // Names from input files reach the terminal: no control or bidirectional characters.
-      body = escapeUnsafeText(r.text());
+      return r.text();
   }
+}
+
+/** A result's notes plus the leap-second note when the run used the table past its expiry. */
+export function runNotes(notes: readonly string[], ts: TimeSystem | undefined): string[] {
+  return ts !== undefined && ts.leap.usedPastExpiry ? [...notes, leapExpiryNote(ts.leap)] : [...notes];
+}
+
+/**
+ * Render in `format` with the result's notes, and write to `out` (atomic) or stdout. Rendering
+ * completes before anything is written. When the run (computing or rendering) converted a UTC time
+ * past the leap-second table's expiry, the output carries that note too.
+ */
+export function emit(r: Rendered, format: OutputFormat, out: string | undefined, command: string, ts?: TimeSystem): void {
+  const rendered = withNotes(format, renderOnce(r, format, command), runNotes(r.notes ?? [], ts));
+  // Names from input files reach the terminal: no control or bidirectional characters in text.
+  const body = format === 'text' ? typographicMinus(escapeUnsafeText(rendered)) : rendered;
   if (out === undefined) process.stdout.write(body);
   else writeFileAtomic(out, body);
 }

@@ -41,7 +41,7 @@ function parser(args: string[]) {
       'time <iso>',
       'Show one instant in UTC, TAI, TT, GPS (week/seconds), GST, BDT and MJD',
       (y) => common(y).positional('iso', { type: 'string', demandOption: true, describe: 'ISO 8601 time, e.g. 2027-01-01T00:00:00Z' }),
-      (a) => emit(runTime(String(a.iso), ts), a.format, a.out, 'time'),
+      (a) => emit(runTime(String(a.iso), ts), a.format, a.out, 'time', ts),
     )
     .command(
       'size',
@@ -51,7 +51,7 @@ function parser(args: string[]) {
         refuseCatalogueOptionsWithoutAll(a);
         if (a.all === true) await runSizeAll(a, ts);
         else if ((a.format as string) === 'jsonl') throw new InputError('jsonl output is for catalogue runs', '--format', 'add --all (with --tle or --omm), or use text, json or csv');
-        else emit(await runSize(a, ts), a.format, a.out, 'size');
+        else emit(await runSize(a, ts), a.format, a.out, 'size', ts);
       },
     )
     .command(
@@ -64,37 +64,37 @@ function parser(args: string[]) {
       'passes <scenario>',
       'Passes over the stations with each onboard clock offset at AOS and LOS',
       (y) => passesOptions(common(y)),
-      async (a) => emit(await runPasses(a, ts), a.format, a.out, 'passes'),
+      async (a) => emit(await runPasses(a, ts), a.format, a.out, 'passes', ts),
     )
     .command(
       'resets <scenario>',
       'When each clock leaves its keep-in limit, and the pass to adjust it in',
       (y) => resetsOptions(common(y)),
-      async (a) => emit(await runResets(a, ts), a.format, a.out, 'resets'),
+      async (a) => emit(await runResets(a, ts), a.format, a.out, 'resets', ts),
     )
     .command(
       'fit <measurements>',
       'Fit offset, rate and drift to measured clock offsets, with stability',
       (y) => fitOptions(common(y)),
-      (a) => emit(runFit(a, ts), a.format, a.out, 'fit'),
+      (a) => emit(runFit(a, ts), a.format, a.out, 'fit', ts),
     )
     .command(
       'compare <scenario>',
       'Compare satellite and station clocks over one window',
       (y) => compareOptions(common(y)),
-      (a) => emit(runCompare(a, ts), a.format, a.out, 'compare'),
+      (a) => emit(runCompare(a, ts), a.format, a.out, 'compare', ts),
     )
     .command(
       'sweep',
       'Mean clock rate and its split against altitude, with the break-even altitude',
       (y) => sweepOptions(common(y)),
-      (a) => emit(runSweep(a, ts), a.format, a.out, 'sweep'),
+      (a) => emit(runSweep(a, ts), a.format, a.out, 'sweep', ts),
     )
     .command(
       'track [scenario]',
       'Sampled states and the clock along them for one satellite',
       (y) => trackOptions(common(y)),
-      (a) => emit(runTrack(a, ts), a.format, a.out, 'track'),
+      (a) => emit(runTrack(a, ts), a.format, a.out, 'track', ts),
     )
     .command(
       'demo',

@@ -62,6 +62,7 @@ export function buildSpec(raw: RawScenario, ctx: Context): ScenarioSpec {
       lonDeg: st.lonDeg,
       heightM: st.heightM,
       geoidHeightM: st.geoidHeightM ?? 0,
+      geoidHeightGiven: st.geoidHeightM !== undefined,
       maskDeg: st.maskDeg ?? 10,
       minPassS: st.minPassS ?? 300,
       path: formatPath(base),

@@ -127,6 +127,8 @@ export interface SatelliteSpec {
 export interface StationSpec extends Station {
   /** JSON path of this entry (`stations[0]`), for messages from later stages. */
   path: string;
+  /** False when the scenario left geoidHeightM out (0 is then assumed; reports carry a note). */
+  geoidHeightGiven: boolean;
 }
 
 /** Policy for keep-in adjustments (contract `resets`, physics.md §7). */

@@ -35,7 +35,7 @@ export function planPasses(runs: readonly SatelliteClockRun[], stations: readonl
   let statesEvaluated = 0;
   const stationEcef = new Map(stations.map((s) => [s.id, geodeticToEcefM(s.latDeg, s.lonDeg, s.heightM)]));
   for (const run of runs) {
-    const found = findPassesMany(run.trajectory, stations, gmstRadAt, fromTtJ2000S, Math.min(toTtJ2000S, run.endTtJ2000S));
+    const found = findPassesMany(run.trajectory, stations, gmstRadAt, Math.max(fromTtJ2000S, run.startTtJ2000S ?? fromTtJ2000S), Math.min(toTtJ2000S, run.endTtJ2000S));
     statesEvaluated += found.statesEvaluated;
     for (const p of found.passes) {
       const atAos = run.clock.offsetNs(p.aosTtJ2000S);

@@ -18,8 +18,10 @@ export interface SatelliteClockRun {
   orbit: OrbitSummary;
   /** Keep-in limit [ns], or null. */
   keepInNs: number | null;
-  /** End of the usable span: the window end, or earlier when the orbit source fails (decay). */
+  /** End of the usable span: the window end, or earlier when the orbit source fails (decay) or a flight lands. */
   endTtJ2000S: number;
+  /** Start of the usable span when later than the window start (a sub-orbital flight launched inside it). */
+  startTtJ2000S?: number;
   /** Why the span ends early, or null. */
   note: string | null;
 }
