@@ -22,11 +22,13 @@ interface DemoSat {
   name: string;
   el: Omit<TleElements, 'epochYear' | 'epochDayOfYear'>;
   clock: string;
+  /** Simulated offset measurements of this clock (scripts/make-demo-measurements.ts), fitted by `tauplan report`. */
+  measurements?: string;
 }
 
 const SATS: DemoSat[] = [
   // Four MEO timing satellites, two planes, GPS-like radius.
-  { id: 'TSR-1', name: 'TESSERA 1', el: { catalogNumber: 90101, designator: '27001A', inclinationDeg: 55, raanDeg: 20, eccentricity: 0.0021, argpDeg: 40, meanAnomalyDeg: 0, meanMotionRevPerDay: revPerDay(26560) }, clock: 'offsetNs: 12.5, hardwareFractionalOffset: -4.4640e-10, agingPerDay: 2.0e-15, keepInNs: 100' },
+  { id: 'TSR-1', name: 'TESSERA 1', el: { catalogNumber: 90101, designator: '27001A', inclinationDeg: 55, raanDeg: 20, eccentricity: 0.0021, argpDeg: 40, meanAnomalyDeg: 0, meanMotionRevPerDay: revPerDay(26560) }, clock: 'offsetNs: 12.5, hardwareFractionalOffset: -4.4640e-10, agingPerDay: 2.0e-15, keepInNs: 100', measurements: 'tsr1-offsets.csv' },
   { id: 'TSR-2', name: 'TESSERA 2', el: { catalogNumber: 90102, designator: '27001B', inclinationDeg: 55, raanDeg: 20, eccentricity: 0.0105, argpDeg: 200, meanAnomalyDeg: 180, meanMotionRevPerDay: revPerDay(26560) }, clock: 'offsetNs: -40.0, hardwareFractionalOffset: -4.4660e-10, agingPerDay: -1.0e-15, keepInNs: 150' },
   { id: 'TSR-3', name: 'TESSERA 3', el: { catalogNumber: 90103, designator: '27002A', inclinationDeg: 55, raanDeg: 140, eccentricity: 0.0045, argpDeg: 90, meanAnomalyDeg: 90, meanMotionRevPerDay: revPerDay(26560) }, clock: 'offsetNs: 0.0, hardwareFractionalOffset: -4.4647e-10, agingPerDay: 5.0e-16, keepInNs: 200' },
   { id: 'TSR-4', name: 'TESSERA 4', el: { catalogNumber: 90104, designator: '27002B', inclinationDeg: 55, raanDeg: 140, eccentricity: 0.0008, argpDeg: 300, meanAnomalyDeg: 270, meanMotionRevPerDay: revPerDay(26560) }, clock: 'offsetNs: 75.0, hardwareFractionalOffset: -4.4640e-10, agingPerDay: 0, keepInNs: 400' },
@@ -54,6 +56,7 @@ function scenarioYaml(): string {
       `        ${l1}`,
       `        ${l2}`,
       `    clock: { epoch: 2027-01-04T00:00:00Z, ${s.clock}, noise: { whiteFmAdev1s: 2.0e-12, flickerFmFloor: 5.0e-15, randomWalkFmAdev1d: 1.0e-15 } }`,
+      ...(s.measurements === undefined ? [] : [`    measurements: ${s.measurements}`]),
     ].join('\n');
   }).join('\n');
   return `# INVENTED demo scenario for tauplan: the "Tessera" timing constellation and its stations do not exist.

@@ -3,7 +3,7 @@ import { InputError } from '../errors.ts';
 import { toJsonText, writeFileAtomic } from '../io/output.ts';
 import { escapeUnsafeText } from '../report/safeText.ts';
 import { typographicMinus } from '../report/format.ts';
-import { leapExpiryNote, withNotes } from '../report/notes.ts';
+import { leapExpiryNote, uniqueNotes, withNotes } from '../report/notes.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 
 export type OutputFormat = 'text' | 'json' | 'csv' | 'html';
@@ -36,7 +36,7 @@ function renderOnce(r: Rendered, format: OutputFormat, command: string): string 
 
 /** A result's notes plus the leap-second note when the run used the table past its expiry. */
 export function runNotes(notes: readonly string[], ts: TimeSystem | undefined): string[] {
-  return ts !== undefined && ts.leap.usedPastExpiry ? [...notes, leapExpiryNote(ts.leap)] : [...notes];
+  return uniqueNotes(notes, ts !== undefined && ts.leap.usedPastExpiry ? [leapExpiryNote(ts.leap)] : []);
 }
 
 /**

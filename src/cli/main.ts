@@ -16,7 +16,7 @@ import { runSizeAll } from './commands/sizeAll.ts';
 import { mergeOptions, runMerge } from './commands/merge.ts';
 import { passesOptions, runPasses } from './commands/passes.ts';
 import { resetsOptions, runResets } from './commands/resets.ts';
-import { demoOptions, runDemo } from './commands/demo.ts';
+import { demoOptions, reportOptions, runDemo, runReport } from './commands/report.ts';
 import { compareOptions, fitOptions, runCompare, runFit, runSweep, runTrack, sweepOptions, trackOptions } from './commands/analysis.ts';
 
 export const EXIT_OK = 0;
@@ -97,12 +97,19 @@ function parser(args: string[]) {
       (a) => emit(runTrack(a, ts), a.format, a.out, 'track', ts),
     )
     .command(
+      'report <scenario>',
+      'Run the whole job on a scenario and write report.html plus text, CSV and JSON files into a folder',
+      (y) => reportOptions(y),
+      (a) => runReport(a, ts),
+    )
+    .command(
       'demo',
-      'Run the whole job on the embedded invented scenario and write the report',
+      'The report of the embedded invented scenario (tauplan report on data/demo/tessera.yaml)',
       (y) => demoOptions(y),
       (a) => runDemo(a, ts),
     )
     .option('leap-seconds', { type: 'string', requiresArg: true, global: true, describe: 'leap-second table to use instead of the packaged one (IERS Leap_Second.dat)' })
+    .example('tauplan report my-scenario.yaml --out out/', 'the whole job on your scenario: report.html plus data files')
     .example('tauplan demo --out ./tauplan-demo', 'the whole job on the invented demo scenario')
     .example('tauplan time 2027-01-01T00:00:00Z', 'one instant in every scale')
     .example('tauplan size --a-km 26561.75 --i-deg 55 --gravity point --format json', 'GPS-like sizing')
@@ -114,7 +121,7 @@ function parser(args: string[]) {
     .example('tauplan compare data/demo/tessera.yaml', 'satellite and station clocks side by side')
     .example('tauplan sweep --from-km 300 --to-km 40000', 'rate against altitude, break-even')
     .example('tauplan track data/demo/tessera.yaml --sat TSR-1 --frame ECEF', 'states and clock for other tools')
-    .demandCommand(1, 'give a command: time, size, passes, resets, fit, compare, sweep, track, demo')
+    .demandCommand(1, 'give a command: time, size, passes, resets, fit, compare, sweep, track, report, demo')
     .recommendCommands()
     .strict()
     .exitProcess(false)
@@ -124,14 +131,14 @@ function parser(args: string[]) {
       checkNumberOptions(argv, args);
     })
     .middleware((argv) => {
-      // Refuse an unusable --out before any work (the demo's --out is a folder it creates). Every
+      // Refuse an unusable --out before any work (the report's and demo's --out is a folder they create). Every
       // file named on the command line is an input that --out must not replace.
       setOutputDefaults({ force: argv.force === true });
       for (const [key, value] of Object.entries(argv)) {
         if (key === 'out' || key === 'update-scenario' || key === '$0' || /[A-Z]/.test(key)) continue;
         for (const v of Array.isArray(value) ? value : [value]) if (typeof v === 'string' && v !== '') noteInputFile(v);
       }
-      if (typeof argv.out === 'string' && argv._[0] !== 'demo') checkOutputTarget(argv.out);
+      if (typeof argv.out === 'string' && argv._[0] !== 'demo' && argv._[0] !== 'report') checkOutputTarget(argv.out);
     })
     .fail((msg, err) => {
       // yargs' own validation faults (YError) are usage errors like the messages it passes alone.
@@ -149,6 +156,7 @@ const POSITIONAL_USAGE: Record<string, string> = {
   resets: 'tauplan resets scenario.yaml',
   fit: 'tauplan fit offsets.csv',
   compare: 'tauplan compare scenario.yaml',
+  report: 'tauplan report scenario.yaml --out out/',
   merge: 'tauplan merge s1.csv s2.csv --out all.csv',
 };
 

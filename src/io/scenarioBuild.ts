@@ -50,7 +50,8 @@ export function buildSpec(raw: RawScenario, ctx: Context): ScenarioSpec {
             },
             keepInNs: c.keepInNs ?? null,
           };
-    return { id: sat.id, name, orbit, clock, path: formatPath(base) };
+    const measurementsFile = sat.measurements === undefined ? null : resolve(dirname(resolve(ctx.fileName)), sat.measurements);
+    return { id: sat.id, name, orbit, clock, measurementsFile, path: formatPath(base) };
   });
 
   const stations = (raw.stations ?? []).map((st, i): StationSpec => {

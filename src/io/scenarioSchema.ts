@@ -77,6 +77,7 @@ const SatelliteSchema = z.strictObject({
   name: z.string().optional(),
   orbit: OrbitSchema,
   clock: ClockSchema.optional(),
+  measurements: text.optional(),
 });
 
 const StationSchema = z.strictObject({

@@ -115,6 +115,11 @@ export interface SatelliteSpec {
   orbit: OrbitSpec;
   /** Null: no oscillator model, offsets are relativistic only. */
   clock: ClockSpec | null;
+  /**
+   * Extra key `measurements`: a CSV of measured offsets of this satellite's clock (`time,offsetNs[,sigmaNs]`),
+   * resolved against the scenario's folder; `tauplan report` fits it. Null when not given.
+   */
+  measurementsFile: string | null;
   /** JSON path of this entry (`satellites[2]`), for messages from later stages. */
   path: string;
 }

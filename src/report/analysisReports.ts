@@ -32,11 +32,23 @@ export function compareToJson(r: CompareResult, ts: TimeSystem, meta: { scenario
   };
 }
 
+/** Clocks, then pairs (kind `pair`, with a, b and the difference over their common interval from–to). */
 export function compareToCsv(r: CompareResult, ts: TimeSystem): string {
   return toCsv(
-    ['id', 'kind', 'meanFractionalOffset', 'driftNsPerDay', 'periodicAmplitudeNs', 'elapsedOffsetNs', 'from', 'to', 'flightEnd'],
-    r.clocks.map((c) => [c.id, c.kind, c.meanFractionalOffset, c.driftNsPerDay, c.periodicAmplitudeNs, c.elapsedOffsetNs, utc(ts, c.fromTtJ2000S), utc(ts, c.toTtJ2000S), c.flightEndTtJ2000S === null ? null : utc(ts, c.flightEndTtJ2000S)]),
+    ['id', 'kind', 'meanFractionalOffset', 'driftNsPerDay', 'periodicAmplitudeNs', 'elapsedOffsetNs', 'from', 'to', 'flightEnd', 'a', 'b', 'elapsedDifferenceNs'],
+    [
+      ...r.clocks.map((c) => [c.id, c.kind, c.meanFractionalOffset, c.driftNsPerDay, c.periodicAmplitudeNs, c.elapsedOffsetNs, utc(ts, c.fromTtJ2000S), utc(ts, c.toTtJ2000S), c.flightEndTtJ2000S === null ? null : utc(ts, c.flightEndTtJ2000S), null, null, null]),
+      ...r.pairs.map((p) => [`${p.a} - ${p.b}`, 'pair', null, null, null, null, utc(ts, p.fromTtJ2000S), utc(ts, p.toTtJ2000S), null, p.a, p.b, p.elapsedDifferenceNs]),
+    ],
   );
+}
+
+/** A pair's interval for tables: the whole window, or the common part when a flight shortens it. */
+export function pairInterval(ts: TimeSystem, p: { fromTtJ2000S: number; toTtJ2000S: number }, meta: { fromTtJ2000S: number; toTtJ2000S: number }): string {
+  const whole = Math.abs(p.fromTtJ2000S - meta.fromTtJ2000S) < 1e-3 && Math.abs(p.toTtJ2000S - meta.toTtJ2000S) < 1e-3;
+  const spanS = p.toTtJ2000S - p.fromTtJ2000S;
+  const span = spanS < 3600 ? `${fixed(spanS / 60, 1)} min` : spanS < 172800 ? `${fixed(spanS / 3600, 2)} h` : `${fixed(spanS / 86400, 2)} d`;
+  return whole ? `window (${span})` : `${utc(ts, p.fromTtJ2000S)} → ${utc(ts, p.toTtJ2000S)} (${span}, flight)`;
 }
 
 export function compareToText(r: CompareResult, ts: TimeSystem, meta: { scenario: string; gravity: string; fromTtJ2000S: number; toTtJ2000S: number }): string {
@@ -61,7 +73,7 @@ export function compareToText(r: CompareResult, ts: TimeSystem, meta: { scenario
     'Pairs (a − b, elapsed proper time over the common interval):',
     textTable(
       ['a', 'b', 'a − b ns', 'interval'],
-      r.pairs.map((p) => [p.a, p.b, signed(p.elapsedDifferenceNs, 4), `${utc(ts, p.fromTtJ2000S)} → ${utc(ts, p.toTtJ2000S)}`]),
+      r.pairs.map((p) => [p.a, p.b, signed(p.elapsedDifferenceNs, 4), pairInterval(ts, p, meta)]),
       [false, false, true, false],
     ),
     '',

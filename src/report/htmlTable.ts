@@ -24,6 +24,8 @@ export interface TableColumn {
   format?: (value: number) => string;
   /** Repeated in every part when a wide table is split (satellite, station, AOS …). */
   key?: boolean;
+  /** Which part (1, 2, …) a non-key column goes to when the table is split; default: an even share. */
+  part?: number;
 }
 
 /** A cell: text, a number (right-aligned), or null (shown as an em dash). */
@@ -78,6 +80,10 @@ export function splitColumns(cols: readonly TableColumn[], maxColumns: number): 
   if (cols.length <= maxColumns) return [cols.map((_, j) => j)];
   const keys = cols.flatMap((c, j) => (c.key === true ? [j] : []));
   const rest = cols.flatMap((c, j) => (c.key === true ? [] : [j]));
+  if (rest.every((j) => cols[j].part !== undefined)) {
+    const parts = [...new Set(rest.map((j) => cols[j].part as number))].sort((a, b) => a - b);
+    return parts.map((p) => [...keys, ...rest.filter((j) => cols[j].part === p)].sort((a, b) => a - b));
+  }
   const room = Math.max(1, maxColumns - keys.length);
   const parts = Math.ceil(rest.length / room);
   const per = Math.ceil(rest.length / parts);

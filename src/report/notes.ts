@@ -2,7 +2,7 @@
  * Notes and warnings that travel with a result into every output format, so that nothing a user
  * should know is printed only to a terminal:
  * - text: `NOTE: …` lines under the title,
- * - JSON: a top-level `notes: [...]` array,
+ * - JSON: a top-level `notes: [...]` array (always present on an object result, maybe empty),
  * - CSV: `# NOTE: …` lines before the header row (spreadsheets and csv-parse's `comment: '#'` skip them),
  * - HTML: a notes box at the top of the page, under the planning caution.
  *
@@ -64,10 +64,10 @@ export function withNotes(format: NoteFormat, body: string, notes: readonly stri
       return missing.map((n) => `# NOTE: ${n}\n`).join('') + body;
     }
     case 'json': {
-      if (list.length === 0) return body;
       const value = JSON.parse(body) as unknown;
       if (value === null || typeof value !== 'object' || Array.isArray(value)) return body;
       const obj = value as Record<string, unknown>;
+      if (list.length === 0 && Array.isArray(obj.notes)) return body;
       const before = Array.isArray(obj.notes) ? (obj.notes as unknown[]).filter((n): n is string => typeof n === 'string') : [];
       return `${JSON.stringify({ ...obj, notes: uniqueNotes(before, list) }, null, 2)}\n`;
     }

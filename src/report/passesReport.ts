@@ -20,6 +20,21 @@ function utc(ts: TimeSystem, t: number): string {
   return ts.format(Instant.fromTtJ2000S(t));
 }
 
+/**
+ * Time of day (HH:MM:SS) of `t`, with ` +1` (or ` +N`) when it falls N UTC days after `dayStart`'s
+ * date, for tables grouped by the AOS date.
+ */
+export function timeOfDay(ts: TimeSystem, t: number, dayOf: number): string {
+  const s = utc(ts, t);
+  const days = Math.round((Date.parse(s.slice(0, 10)) - Date.parse(utc(ts, dayOf).slice(0, 10))) / 86_400_000);
+  return days > 0 ? `${s.slice(11, 19)} +${days}` : s.slice(11, 19);
+}
+
+/** Seconds in the JSON output at the resolution the time coordinate carries (1 µs), without float noise. */
+export function microseconds(s: number): number {
+  return Math.round(s * 1e6) / 1e6;
+}
+
 /** One pass as the contract's JSON object, plus GPS week/seconds of AOS and our extras. */
 export function passToJson(r: PassClockRow, ts: TimeSystem): Record<string, unknown> {
   const aosGps = ts.gpsWeek(Instant.fromTtJ2000S(r.aosTtJ2000S));
@@ -31,7 +46,7 @@ export function passToJson(r: PassClockRow, ts: TimeSystem): Record<string, unkn
     tca: utc(ts, r.tcaTtJ2000S),
     los: utc(ts, r.losTtJ2000S),
     maxElevationDeg: r.maxElevationDeg,
-    durationS: r.durationS,
+    durationS: microseconds(r.durationS),
     truncated: r.truncated,
     clockOffsetAtAosNs: r.clockOffsetAtAosNs,
     clockOffsetAtLosNs: r.clockOffsetAtLosNs,
@@ -42,7 +57,7 @@ export function passToJson(r: PassClockRow, ts: TimeSystem): Record<string, unkn
     shapiroAtTcaNs: r.shapiroAtTcaNs,
     keepInMarginNs: r.keepInMarginNs,
     aosGpsWeek: aosGps.week,
-    aosGpsSecondsOfWeek: aosGps.secondsOfWeek,
+    aosGpsSecondsOfWeek: microseconds(aosGps.secondsOfWeek),
     clockOffsetAtTcaNs: r.clockOffsetAtTcaNs,
   };
 }
@@ -81,7 +96,7 @@ export function passesToText(rows: PassClockRow[], meta: PassesMeta, ts: TimeSys
   const out: string[] = [];
   out.push(`Pass schedule with onboard clock offsets — ${meta.scenario}`);
   out.push(`Window ${utc(ts, meta.fromTtJ2000S)} to ${utc(ts, meta.toTtJ2000S)}; offsets are onboard reading minus ${meta.reference} time [ns], free running; gravity model ${meta.gravity}.`);
-  out.push(`${rows.length} passes. Times UTC; GPS week/seconds of week at AOS. * = cut by the window.`);
+  out.push(`${rows.length} passes. Times UTC; GPS week/seconds of week at AOS. * = cut by the window; +1 = on the next UTC day.`);
   for (const n of meta.notes) out.push(`NOTE: ${n}`);
   out.push('');
   const stations = [...new Set(rows.map((r) => r.stationId))].sort();
@@ -103,8 +118,8 @@ export function passesToText(rows: PassClockRow[], meta: PassesMeta, ts: TimeSys
           return [
             r.satelliteId,
             `${utc(ts, r.aosTtJ2000S).slice(11, 19)}${r.aosTruncated ? '*' : ''}`,
-            utc(ts, r.tcaTtJ2000S).slice(11, 19),
-            `${utc(ts, r.losTtJ2000S).slice(11, 19)}${r.losTruncated ? '*' : ''}`,
+            timeOfDay(ts, r.tcaTtJ2000S, r.aosTtJ2000S),
+            `${timeOfDay(ts, r.losTtJ2000S, r.aosTtJ2000S)}${r.losTruncated ? '*' : ''}`,
             `${g.week}/${Math.floor(g.secondsOfWeek)}`,
             fixed(r.maxElevationDeg, 2),
             fixed(r.durationS / 60, 1),

@@ -25,10 +25,11 @@ export function sizeToJson(r: SizeResult, ts: TimeSystem): Record<string, unknow
     sensitivityPerKm: r.sensitivityPerKm,
     sensitivityMethod: r.sensitivityMethod,
     spanMeanFractionalOffset: r.spanMeanFractionalOffset,
-    orbit: r.orbit,
+    // e of a circular orbit prints as 0, not as the 1e-17 left by the state-to-elements conversion.
+    orbit: { ...r.orbit, e: Math.abs(r.orbit.e) < 1e-12 ? 0 : r.orbit.e },
     integrationStepS: r.integrationStepS,
     statesEvaluated: r.statesEvaluated,
-    elementsNote: 'Keplerian input is osculating at the epoch; a mean-element a differs by up to a few km at GNSS altitude (about 1 ns/day).',
+    ...(isKeplerianInput(r) ? { elementsNote: 'Keplerian input is osculating at the epoch; a mean-element a differs by up to a few km at GNSS altitude (about 1 ns/day).' } : {}),
   };
 }
 
@@ -51,13 +52,18 @@ export function sizeToCsv(results: SizeResult[], ts: TimeSystem): string {
   return toCsv(SIZE_CSV_COLUMNS, results.map((r) => sizeCsvRow(r, ts)));
 }
 
-/** The engineer's worksheet. */
-export function sizeToText(r: SizeResult, ts: TimeSystem): string {
+/** True when the orbit came from Keplerian elements (the osculating caveat applies only then). */
+export function isKeplerianInput(r: SizeResult): boolean {
+  return /keplerian/i.test(r.source);
+}
+
+/** The engineer's worksheet; `title` is the scenario id or the element set's object name. */
+export function sizeToText(r: SizeResult, ts: TimeSystem, title: string = r.satellite): string {
   const from = Instant.fromTtJ2000S(r.fromTtJ2000S);
   const to = from.plusS(r.spanS);
   const perDay = (y: number): string => `${signed(y * 86400e6, 3)} µs/day`;
   const lines = [
-    `Frequency-offset worksheet — ${r.satellite}`,
+    `Frequency-offset worksheet — ${title}`,
     `${'='.repeat(40)}`,
     `Orbit source        ${r.source}; gravity model: ${r.gravity}`,
     `Span                ${ts.format(from)} to ${ts.format(to)} (${fixed(r.spanS / 3600, 2)} h)`,
@@ -84,7 +90,8 @@ export function sizeToText(r: SizeResult, ts: TimeSystem): string {
     `   method: ${r.sensitivityMethod}`,
     '',
     `Integration: Gauss–Legendre, 8 points per ${fixed(r.integrationStepS, 1)} s step; ${r.statesEvaluated} states evaluated.`,
-    'Keplerian input is osculating at its epoch. Sign: positive means the clock runs fast against TT.',
+    ...(isKeplerianInput(r) ? ['Keplerian input is osculating at its epoch: a mean-element a differs by up to a few km at GNSS altitude (about 1 ns/day).'] : []),
+    'Sign: positive means the clock runs fast against TT.',
     '',
     PLANNING_CAUTION,
     '',

@@ -23,6 +23,7 @@ import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
 import { compareSection, fitSection, page, sweepSection, windowMeta } from '../../report/htmlReport.ts';
 import { orbitFromFlags } from '../orbitArgs.ts';
+import { missingGeoidNote } from '../../report/notes.ts';
 import { checkWindowInSpan, oscillatorParams, scenarioGravity, spanWithClockEpoch } from '../scenarioContext.ts';
 
 // ---- compare ----------------------------------------------------------------------------------
@@ -31,32 +32,48 @@ export function compareOptions<T>(y: Argv<T>) {
   return y
     .positional('scenario', { type: 'string', demandOption: true, describe: 'scenario file (JSON or YAML)' })
     .option('from', { type: 'string', requiresArg: true, describe: 'window start (default: scenario window)' })
-    .option('to', { type: 'string', requiresArg: true, describe: 'window end (default: scenario window)' });
+    .option('to', { type: 'string', requiresArg: true, describe: 'window end (default: scenario window)' })
+    .option('against', { type: 'string', requiresArg: true, describe: 'reference clock (satellite or station id): pairs against it only' })
+    .option('pairs', { type: 'string', requiresArg: true, choices: ['all', 'against'], describe: 'with --against: all keeps every pair (default: pairs with the reference only)' });
 }
 
-export function computeCompare(a: { scenario: string; from?: string; to?: string }, ts: TimeSystem) {
+export interface CompareArgs {
+  scenario: string;
+  from?: string;
+  to?: string;
+  against?: string;
+  pairs?: string;
+}
+
+export function computeCompare(a: CompareArgs, ts: TimeSystem) {
   const scenario = loadScenario(a.scenario, ts);
   const gravity = scenarioGravity(scenario, ts, a.scenario);
   const from = a.from === undefined ? scenario.window.start.ttJ2000S : ts.parse(a.from, '--from').ttJ2000S;
   const to = a.to === undefined ? scenario.window.end.ttJ2000S : ts.parse(a.to, '--to').ttJ2000S;
   if (!(to > from)) throw new InputError('the window ends before it starts', a.to !== undefined ? '--to' : `${a.scenario} window`, 'give an end after the start');
+  const ids = [...scenario.satellites.map((s) => s.id), ...scenario.stations.map((s) => s.id)];
+  if (a.against !== undefined && !ids.includes(a.against)) throw new InputError(`no clock ${JSON.stringify(a.against)} in the scenario`, '--against', `use a satellite or station id (${ids.slice(0, 8).join(', ')})`);
   const sats: CompareSatellite[] = scenario.satellites.map((sat) => {
     const { trajectory } = trajectoryForSatellite(sat, scenario, ts, gravity, { fromTtJ2000S: from, toTtJ2000S: to });
     const flightEnd = trajectory instanceof NumericalTrajectory ? trajectory.flightEndTtJ2000S : null;
     return { id: sat.id, trajectory, flight: flightEnd === null ? null : { startTtJ2000S: trajectory.validFromTtJ2000S, endTtJ2000S: flightEnd } };
   });
   const stations = scenario.stations;
-  const result = compareClocks(sats, stations, gravity, from, to);
-  return { result, meta: { scenario: scenario.name, gravity: gravity.name, fromTtJ2000S: from, toTtJ2000S: to } };
+  const all = compareClocks(sats, stations, gravity, from, to);
+  const keepAll = a.against === undefined || a.pairs === 'all';
+  const result = keepAll ? all : { ...all, pairs: all.pairs.filter((p) => p.a === a.against || p.b === a.against) };
+  const notes = stations.filter((s) => !s.geoidHeightGiven).map((s) => missingGeoidNote(s.id));
+  return { result, notes, meta: { scenario: scenario.name, gravity: gravity.name, fromTtJ2000S: from, toTtJ2000S: to, against: a.against ?? null } };
 }
 
-export function runCompare(a: { scenario: string; from?: string; to?: string }, ts: TimeSystem): Rendered {
-  const { result, meta } = computeCompare(a, ts);
+export function runCompare(a: CompareArgs, ts: TimeSystem): Rendered {
+  const { result, meta, notes } = computeCompare(a, ts);
   return {
+    notes,
     json: () => compareToJson(result, ts, meta),
     csv: () => compareToCsv(result, ts),
     text: () => compareToText(result, ts, meta),
-    html: () => page('tauplan — clock comparison', meta.scenario, windowMeta(ts, meta.fromTtJ2000S, meta.toTtJ2000S, 'TT'), [compareSection(result)]),
+    html: () => page('tauplan — clock comparison', meta.scenario, windowMeta(ts, meta.fromTtJ2000S, meta.toTtJ2000S, meta.against ?? 'TT'), [compareSection(ts, result, meta)], notes),
   };
 }
 

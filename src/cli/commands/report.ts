@@ -1,0 +1,210 @@
+/**
+ * `tauplan report SCENARIO [--out DIR] [--from --to] [--horizon]`: the whole job on a scenario —
+ * passes with clock offsets, the keep-in plan, sizing per satellite, the clock comparison, and a
+ * clock fit for every satellite that names `measurements`, and the clock rate against altitude —
+ * as one HTML report plus text, CSV and JSON files. `tauplan demo` is `report` on the embedded
+ * INVENTED scenario (data/demo/tessera.yaml).
+ * Everything is computed before the first file is written; each file is written atomically.
+ */
+import { join, resolve } from 'node:path';
+import type { Argv } from 'yargs';
+import { PREDICTION_RULE_TEXT } from '../../clock/noise.ts';
+import { GNSS_NOMINAL_HZ } from '../../constants.ts';
+import { InputError } from '../../errors.ts';
+import { loadScenario } from '../../io/loadScenario.ts';
+import { toJsonText } from '../../io/output.ts';
+import { prepareOutputFolder, writeOutputFolder } from '../../io/outputFolder.ts';
+import { escapeUnsafeText } from '../../report/safeText.ts';
+import { dataPath } from '../../io/tables.ts';
+import type { FitResult } from '../../plan/fit.ts';
+import { planPasses } from '../../plan/passes.ts';
+import { sizeClock, type SizeResult } from '../../plan/size.ts';
+import { compareToCsv, compareToJson, compareToText, sweepToCsv } from '../../report/analysisReports.ts';
+import { PLANNING_CAUTION } from '../../report/caution.ts';
+import { fitToCsv, fitToJson, fitToText } from '../../report/fitReport.ts';
+import { typographicMinus } from '../../report/format.ts';
+import type { SectionSpec } from '../../report/html.ts';
+import { compareSection, fitSection, modelsSection, page, passesSections, resetsSection, sizeSection, sweepSection, windowMeta } from '../../report/htmlReport.ts';
+import { missingGeoidNote, withNotes, type NoteFormat } from '../../report/notes.ts';
+import { passesToCsv, passesToJson, passesToText } from '../../report/passesReport.ts';
+import { resetsToCsv, resetsToJson, resetsToText } from '../../report/resetsReport.ts';
+import { sizeToCsv, sizeToJson, sizeToText } from '../../report/sizeReport.ts';
+import type { TimeSystem } from '../../time/timeSystem.ts';
+import { runNotes } from '../emit.ts';
+import { loadScenarioContext } from '../scenarioContext.ts';
+import { computeCompare, computeFit, computeSweep } from './analysis.ts';
+import { notesOf } from './passes.ts';
+import { computeResets } from './resets.ts';
+
+export function reportOptions<T>(y: Argv<T>) {
+  return y
+    .positional('scenario', { type: 'string', demandOption: true, describe: 'scenario file (JSON or YAML)' })
+    .option('out', { type: 'string', requiresArg: true, default: './tauplan-report', describe: 'folder for the report and data files' })
+    .option('from', { type: 'string', requiresArg: true, describe: 'window start (default: scenario window)' })
+    .option('to', { type: 'string', requiresArg: true, describe: 'window end (default: scenario window)' })
+    .option('horizon', { type: 'string', requiresArg: true, describe: 'keep-in planning horizon from the window start (default: policy.horizon, else 180d)' })
+    .option('force', { type: 'boolean', default: false, describe: 'replace files in the folder that tauplan did not write' })
+    .option('quiet', { type: 'boolean', default: false, describe: 'print only where the report is' });
+}
+
+export function demoOptions<T>(y: Argv<T>) {
+  return y
+    .option('out', { type: 'string', requiresArg: true, default: './tauplan-demo', describe: 'folder for the report and data files' })
+    .option('force', { type: 'boolean', default: false, describe: 'replace files in the folder that tauplan did not write' })
+    .option('quiet', { type: 'boolean', default: false, describe: 'print only where the report is' });
+}
+
+export interface ReportArgs {
+  scenario: string;
+  out: string;
+  from?: string;
+  to?: string;
+  horizon?: string;
+  quiet: boolean;
+  force?: boolean;
+}
+
+/** Files every report writes (resets and fit files depend on the scenario). */
+const ALWAYS_WRITTEN = ['report.html', 'passes.txt', 'passes.csv', 'passes.json', 'size.txt', 'size.csv', 'size.json', 'compare.txt', 'compare.csv', 'compare.json', 'sweep.csv'];
+
+/** Sizing span per satellite [s]: one day from the window start (or the part of it the orbit covers). */
+const SIZE_SPAN_S = 86400;
+
+/** Nothing in the whole job is sized below this span [s] (a flight that has barely started). */
+const MIN_SIZE_SPAN_S = 60;
+
+interface ReportStyle {
+  title: string;
+  subtitle: string;
+  /** How the scenario is named in the report's meta rows. */
+  scenarioLabel: string;
+}
+
+export function runReport(a: ReportArgs, ts: TimeSystem): void {
+  const scenario = loadScenario(a.scenario, ts);
+  writeReport(a, ts, { title: `tauplan report — ${scenario.name}`, subtitle: 'Passes, keep-in plan, sizing, clock comparison and fits for this scenario.', scenarioLabel: a.scenario });
+}
+
+export function runDemo(a: { out: string; quiet: boolean; force?: boolean }, ts: TimeSystem): void {
+  writeReport(
+    { scenario: dataPath('demo/tessera.yaml'), out: a.out, quiet: a.quiet, force: a.force },
+    ts,
+    { title: 'tauplan demo — Tessera timing constellation (invented)', subtitle: 'Every satellite, station and measurement in this report is invented for the demonstration.', scenarioLabel: 'data/demo/tessera.yaml' },
+  );
+}
+
+function writeReport(a: ReportArgs, ts: TimeSystem, style: ReportStyle): void {
+  // The output folder is checked (and made) before any work, so a bad --out fails at once; files
+  // go in through a temporary folder, never over files another program wrote unless --force.
+  const folderOptions = { force: a.force === true };
+  prepareOutputFolder(a.out, ALWAYS_WRITTEN, folderOptions);
+  const dir = resolve(a.out);
+  const sel = { from: a.from, to: a.to };
+  const ctx = loadScenarioContext(a.scenario, ts, sel);
+  const notes: string[] = [...notesOf(ctx.runs), ...ctx.scenario.stations.filter((s) => !s.geoidHeightGiven).map((s) => missingGeoidNote(s.id))];
+  const passes = planPasses(ctx.runs, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
+  const passMeta = { notes: notesOf(ctx.runs), scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, gravity: ctx.gravity.name };
+
+  const withLimit = ctx.runs.some((r) => r.keepInNs !== null);
+  const resets = withLimit ? computeResets({ scenario: a.scenario, horizon: a.horizon, from: a.from }, ts) : null;
+  if (resets === null) notes.push('no satellite has a keep-in limit (clock.keepInNs): the report has no adjustment plan');
+  else notes.push(...resets.meta.notes);
+
+  const sizes: { result: SizeResult; title: string }[] = [];
+  for (const run of ctx.runs) {
+    const from = Math.max(ctx.fromTtJ2000S, run.startTtJ2000S ?? ctx.fromTtJ2000S);
+    const spanS = Math.min(SIZE_SPAN_S, run.endTtJ2000S - from);
+    if (!(spanS >= MIN_SIZE_SPAN_S)) {
+      notes.push(`${run.id}: not sized (less than ${MIN_SIZE_SPAN_S} s of orbit in the window)`);
+      continue;
+    }
+    if (spanS < SIZE_SPAN_S) notes.push(`${run.id}: sized over ${(spanS / 3600).toFixed(2)} h, the part of the first day its orbit source covers`);
+    sizes.push({ result: sizeClock({ trajectory: run.trajectory, gravity: ctx.gravity, fromTtJ2000S: from, spanS, nominalHz: GNSS_NOMINAL_HZ }), title: run.id });
+  }
+
+  const fits: { satellite: string; result: FitResult }[] = [];
+  for (const sat of ctx.satellites) {
+    if (sat.measurementsFile === null) continue;
+    const { result } = computeFit({ measurements: sat.measurementsFile, degree: 1, scenario: a.scenario, sat: sat.id, clip: 4 }, ts);
+    fits.push({ satellite: sat.id, result });
+  }
+
+  const compare = computeCompare({ scenario: a.scenario, from: a.from, to: a.to }, ts);
+  // The rate against altitude puts the scenario's orbits in context (circular orbits at 55°).
+  const sweep = computeSweep({ fromKm: 300, toKm: 40000, points: 120, e: 0, iDeg: 55, gravity: ctx.gravity.name, epoch: ts.format(ctx.scenario.window.start) }, ts);
+
+  const sections: SectionSpec[] = [
+    ...passesSections(ts, ctx.runs, passes.rows, ctx.stations.map((s) => s.id), ctx.fromTtJ2000S, ctx.toTtJ2000S),
+    ...(resets === null ? [] : [resetsSection(ts, resets.ctx.runs, resets.plans, resets.ctx.fromTtJ2000S, resets.ctx.toTtJ2000S, PREDICTION_RULE_TEXT)]),
+    ...sizes.map((s) => sizeSection(s.result, s.title)),
+    ...fits.map((f) => fitSection(f.result)),
+    compareSection(ts, compare.result, compare.meta),
+    sweepSection(sweep.result, sweep.meta.gravity),
+    modelsSection(),
+  ];
+  const meta = [...windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), { label: 'gravity model', value: ctx.gravity.name }, { label: 'scenario', value: style.scenarioLabel }];
+
+  // Render everything (UTC formatting may still touch the leap-second table), then add the run's notes.
+  const files: [string, NoteFormat, string][] = [
+    ['report.html', 'html', page(style.title, style.subtitle, meta, sections)],
+    ['passes.txt', 'text', passesToText(passes.rows, passMeta, ts)],
+    ['passes.csv', 'csv', passesToCsv(passes.rows, ts)],
+    ['passes.json', 'json', toJsonText(passesToJson(passes.rows, passMeta, ts))],
+    ...(resets === null
+      ? []
+      : ([
+          ['resets.txt', 'text', resetsToText(resets.plans, resets.meta, ts)],
+          ['resets.csv', 'csv', resetsToCsv(resets.plans, ts)],
+          ['resets.json', 'json', toJsonText(resetsToJson(resets.plans, resets.meta, ts))],
+        ] as [string, NoteFormat, string][])),
+    ['size.txt', 'text', sizes.map((s) => sizeToText(s.result, ts, s.title)).join('\n')],
+    ['size.csv', 'csv', sizeToCsv(sizes.map((s) => s.result), ts)],
+    ['size.json', 'json', toJsonText({ satellites: sizes.map((s) => sizeToJson(s.result, ts)) })],
+    ...fits.flatMap(({ satellite, result }): [string, NoteFormat, string][] => {
+      const stem = fits.length === 1 ? 'fit' : `fit-${fileStem(satellite)}`;
+      return [
+        [`${stem}.txt`, 'text', fitToText(result, ts)],
+        [`${stem}.csv`, 'csv', fitToCsv(result)],
+        [`${stem}.json`, 'json', toJsonText(fitToJson(result))],
+      ];
+    }),
+    ['compare.txt', 'text', compareToText(compare.result, ts, compare.meta)],
+    ['compare.csv', 'csv', compareToCsv(compare.result, ts)],
+    ['compare.json', 'json', toJsonText(compareToJson(compare.result, ts, compare.meta))],
+    ['sweep.csv', 'csv', sweepToCsv(sweep.result)],
+  ];
+  const all = runNotes([...notes, ...compare.notes], ts);
+  const finished = files.map(([name, format, body]): [string, string] => {
+    const b = withNotes(format, body, all);
+    return [name, format === 'text' ? typographicMinus(escapeUnsafeText(b)) : b];
+  });
+  writeOutputFolder(dir, finished, folderOptions);
+
+  const adjustments = resets === null ? 0 : resets.plans.reduce((n, p) => n + p.adjustments.length, 0);
+  if (a.quiet) {
+    process.stdout.write(`${join(dir, 'report.html')}\n`);
+    return;
+  }
+  const lines = [
+    `${style.title}`,
+    `  ${ctx.runs.length} satellites, ${ctx.stations.length} stations; ${passes.rows.length} passes in ${((ctx.toTtJ2000S - ctx.fromTtJ2000S) / 86400).toFixed(1)} days`,
+    resets === null ? '  no keep-in plan (no satellite has a keep-in limit)' : `  ${adjustments} keep-in adjustments planned over ${((resets.ctx.toTtJ2000S - resets.ctx.fromTtJ2000S) / 86400).toFixed(0)} days`,
+    ...fits.map((f) => `  ${f.satellite} fit from ${f.result.used} measurements: y = ${f.result.fractionalFrequency === null ? '—' : f.result.fractionalFrequency.toExponential(3)} (hardware + mean relativistic)`),
+    `  break-even altitude ${sweep.result.breakEvenAltitudeKm?.toFixed(1)} km (i = 55°, ${ctx.gravity.name} gravity)`,
+    ...all.map((n) => `  NOTE: ${n}`),
+    '',
+    `Report: ${join(dir, 'report.html')}`,
+    `Data:   ${finished.slice(1).map(([n]) => n).join(', ')} in ${dir}`,
+    '',
+    PLANNING_CAUTION,
+    '',
+  ];
+  process.stdout.write(typographicMinus(escapeUnsafeText(lines.join('\n'))));
+}
+
+/** A satellite id as part of a file name: letters, digits, dot, dash and underscore only. */
+function fileStem(id: string): string {
+  const s = id.replace(/[^A-Za-z0-9._-]+/g, '_').replace(/^[.-]+/, '');
+  if (s === '') throw new InputError(`satellite id ${JSON.stringify(id)} gives no usable file name`, 'satellites[].id', 'use letters and digits in ids with measurements');
+  return s;
+}
