@@ -4,6 +4,7 @@
  * SVG paths drawn, plus a screenshot. Used by the browser check of the HTML report.
  * Chromium comes from the OS (`apt-get install chromium`), not from a playwright download.
  */
+import { execFileSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -35,6 +36,8 @@ export interface RenderResult {
   bodyText: string;
   /** PNG of the full page, in `outDir`. */
   screenshotPath: string;
+  /** The page printed by Chromium (`page.pdf`, print media, CSS page size), when asked for; in `outDir`. */
+  pdfPath: string | null;
   screenshotBytes: number;
   /** Folder holding the HTML file and the screenshot (kept for inspection). */
   outDir: string;
@@ -51,7 +54,7 @@ export function requireChromium(): void {
 }
 
 /** Write `html` to a fresh temp folder, open it in headless Chromium and report what happened. */
-export async function renderInChromium(html: string, opts: { timeoutMs?: number } = {}): Promise<RenderResult> {
+export async function renderInChromium(html: string, opts: { timeoutMs?: number; pdf?: boolean } = {}): Promise<RenderResult> {
   requireChromium();
   const outDir = mkdtempSync(join(tmpdir(), 'tauplan-browser-'));
   const profileDir = mkdtempSync(join(tmpdir(), 'tauplan-chromium-profile-'));
@@ -127,7 +130,14 @@ export async function renderInChromium(html: string, opts: { timeoutMs?: number 
     };
     const screenshotPath = join(outDir, 'report.png');
     await page.screenshot({ path: screenshotPath, fullPage: true });
+    let pdfPath: string | null = null;
+    if (opts.pdf === true) {
+      pdfPath = join(outDir, 'report.pdf');
+      // preferCSSPageSize: the report's own @page rule (A4 landscape) sets the paper.
+      await page.pdf({ path: pdfPath, preferCSSPageSize: true, printBackground: false });
+    }
     return {
+      pdfPath,
       consoleErrors,
       pageErrors,
       networkRequests,
@@ -145,4 +155,16 @@ export async function renderInChromium(html: string, opts: { timeoutMs?: number 
     await context.close();
     rmSync(profileDir, { recursive: true, force: true });
   }
+}
+
+/** Where the printed-report check expects poppler's pdftotext (`apt-get install poppler-utils`). */
+export const PDFTOTEXT_PATH = '/usr/bin/pdftotext';
+
+/** The text of a PDF in reading order (pdftotext), and its page count. Fails, not skips, without poppler-utils. */
+export function pdfText(pdfPath: string): { text: string; pages: number } {
+  if (!existsSync(PDFTOTEXT_PATH)) {
+    throw new Error(`${PDFTOTEXT_PATH} not found: the printed-report check needs poppler-utils (\`apt-get install -y poppler-utils\`; CI does this in .ci/run).`);
+  }
+  const text = execFileSync(PDFTOTEXT_PATH, ['-enc', 'UTF-8', pdfPath, '-'], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
+  return { text, pages: text.split('\f').length - 1 };
 }
