@@ -10,6 +10,7 @@ import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { InternalError } from '../src/errors.ts';
 import { escapeHtml, htmlPage, type HtmlPageOptions } from '../src/report/html.ts';
+import { withNotes } from '../src/report/notes.ts';
 import { escapeXml, linePlot, logLogPlot, timeline } from '../src/report/svg.ts';
 
 const SCRIPT = '<script>alert(1)</script>';
@@ -118,6 +119,38 @@ describe('hostile names in the report', () => {
         expectNoInjectedMarkup(svg);
         expect(svg).toContain(`<title>${escapeXml(name)}</title>`);
       }
+    });
+  }
+
+  for (const name of HOSTILE) {
+    it(`escapes ${JSON.stringify(name)} in the whole-job report's notes box, group rows, units and split tables`, () => {
+      const page = htmlPage({
+        title: 't',
+        caution: 'c',
+        notes: [name],
+        sections: [
+          {
+            heading: name,
+            tables: [
+              {
+                caption: name,
+                maxColumns: 3,
+                columns: [{ label: name, key: true }, { label: 'a', unit: name, part: 1 }, { label: 'b', unit: 'ns', part: 2 }, { label: 'c', part: 2 }],
+                rows: [{ group: name }, [name, 1.5, -2, name]],
+              },
+            ],
+          },
+        ],
+      });
+      // A note added after rendering (as emit and report do) goes into the same box, escaped.
+      const html = withNotes('html', page, [name, `${name} (late)`]);
+      expectNoInjectedMarkup(html);
+      expect(html).toContain(`<li>${escapeHtml(name)}</li>`);
+      expect(html).toContain(`<li>${escapeHtml(name)} (late)</li>`);
+      expect(html.match(/<div class="notes"/g)?.length).toBe(1);
+      expect(html).toContain(`colspan="2">${escapeHtml(name)}</th>`);
+      expect(html.match(/part \d of 2/g)?.length).toBe(2);
+      expect(html).toContain('<td class="num">\u22122</td>'); // one minus sign in HTML: U+2212
     });
   }
 

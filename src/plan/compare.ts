@@ -46,15 +46,35 @@ export interface PairComparison {
   toTtJ2000S: number;
 }
 
+/** One clock's offset against the reference over time (for the comparison figure). */
+export interface CompareSeries {
+  id: string;
+  /** The reference clock's id, or `TT`. */
+  against: string;
+  /** Sample instants, seconds since J2000.0 TT, over the common interval of the clock and the reference. */
+  tTtJ2000S: number[];
+  /** Elapsed proper time of the clock minus that of the reference since the interval start [ns]. */
+  offsetNs: number[];
+}
+
 export interface CompareResult {
   clocks: ClockComparison[];
   pairs: PairComparison[];
+  /** Offset against time per clock (every clock but the reference). */
+  series: CompareSeries[];
 }
+
+/** Samples per clock in {@link CompareSeries}. */
+const SERIES_SAMPLES = 400;
 
 /** ∫ y dt between two instants for a clock. */
 type Elapsed = (from: number, to: number) => number;
 
-export function compareClocks(sats: CompareSatellite[], stations: Station[], gravity: GravityModel, fromTtJ2000S: number, toTtJ2000S: number): CompareResult {
+/**
+ * Compare clocks over [from, to]. `against` names the reference clock of the offset series (a
+ * satellite or station id); without it the series are against TT.
+ */
+export function compareClocks(sats: CompareSatellite[], stations: Station[], gravity: GravityModel, fromTtJ2000S: number, toTtJ2000S: number, against?: string): CompareResult {
   const clocks: ClockComparison[] = [];
   const elapsed = new Map<string, Elapsed>();
   // Orbits are integrated over the window, widened to cover every flight so pairs can be formed.
@@ -121,7 +141,26 @@ export function compareClocks(sats: CompareSatellite[], stations: Station[], gra
       pairs.push({ a: a.id, b: b.id, elapsedDifferenceNs: (ea - eb) * 1e9, fromTtJ2000S: from, toTtJ2000S: to });
     }
   }
-  return { clocks, pairs };
+  const ref = against === undefined ? null : (clocks.find((c) => c.id === against) ?? null);
+  const series: CompareSeries[] = [];
+  for (const c of clocks) {
+    if (ref !== null && c.id === ref.id) continue;
+    // Common interval with the reference (TT covers everything).
+    const from = Math.max(c.fromTtJ2000S, ref?.fromTtJ2000S ?? c.fromTtJ2000S);
+    const to = Math.min(c.toTtJ2000S, ref?.toTtJ2000S ?? c.toTtJ2000S);
+    if (!(to > from)) continue;
+    const ec = elapsed.get(c.id)!;
+    const er = ref === null ? null : elapsed.get(ref.id)!;
+    const tt: number[] = [];
+    const off: number[] = [];
+    for (let k = 0; k <= SERIES_SAMPLES; k++) {
+      const t = from + ((to - from) * k) / SERIES_SAMPLES;
+      tt.push(t);
+      off.push((ec(from, t) - (er === null ? 0 : er(from, t))) * 1e9);
+    }
+    series.push({ id: c.id, against: ref?.id ?? 'TT', tTtJ2000S: tt, offsetNs: off });
+  }
+  return { clocks, pairs, series };
 }
 
 function trackFigures(traj: Trajectory, track: IntegratedTrack, from: number, to: number): { slope: number; periodicNs: number } {

@@ -104,6 +104,17 @@ function sampleTimes(from: number, to: number, n: number): Float64Array {
   return t;
 }
 
+/**
+ * A time-offset axis unit for values given in ns: ns, µs, ms or s, so that tick labels stay short
+ * (`1.5 µs`-style figures rather than `1.5e6 ns`). Returns the unit and the divisor from ns.
+ */
+export function offsetUnit(maxAbsNs: number): { unit: string; perUnitNs: number } {
+  if (maxAbsNs >= 1e10) return { unit: 's', perUnitNs: 1e9 };
+  if (maxAbsNs >= 1e7) return { unit: 'ms', perUnitNs: 1e6 };
+  if (maxAbsNs >= 1e4) return { unit: 'µs', perUnitNs: 1e3 };
+  return { unit: 'ns', perUnitNs: 1 };
+}
+
 /** Clock offset against time per satellite, passes shaded, keep-in limits drawn. */
 export function clockOffsetFigures(ts: TimeSystem, runs: readonly SatelliteClockRun[], rows: readonly PassClockRow[], fromTt: number, toTt: number): string[] {
   const n = 600;
@@ -111,15 +122,16 @@ export function clockOffsetFigures(ts: TimeSystem, runs: readonly SatelliteClock
     const span = runSpan(run, fromTt, toTt);
     const t = sampleTimes(span.from, span.to, n);
     const x = Array.from(t, (tt) => utcMs(ts, tt));
-    const y = Array.from(t, (tt) => run.clock.offsetNs(tt));
+    const yNs = Array.from(t, (tt) => run.clock.offsetNs(tt));
+    const u = offsetUnit(Math.max(...yNs.map(Math.abs), run.keepInNs ?? 0));
     const mine = rows.filter((r) => r.satelliteId === run.id);
     return linePlot({
       title: `${run.id} — clock offset, free running (${run.name})`,
       xKind: 'time',
-      yAxis: { label: 'Clock offset', unit: 'ns' },
-      series: [{ label: `${run.id} offset`, x, y }],
+      yAxis: { label: 'Clock offset', unit: u.unit },
+      series: [{ label: `${run.id} offset`, x, y: yNs.map((v) => v / u.perUnitNs) }],
       shaded: mine.map((p) => ({ from: utcMs(ts, p.aosTtJ2000S), to: utcMs(ts, p.losTtJ2000S), label: 'pass over a station' })),
-      hLines: run.keepInNs === null ? [] : [{ y: run.keepInNs, label: `+${run.keepInNs} ns keep-in` }, { y: -run.keepInNs, label: `−${run.keepInNs} ns keep-in` }],
+      hLines: run.keepInNs === null ? [] : [{ y: run.keepInNs / u.perUnitNs, label: `+${run.keepInNs} ns keep-in` }, { y: -run.keepInNs / u.perUnitNs, label: `−${run.keepInNs} ns keep-in` }],
     });
   });
 }
@@ -147,9 +159,10 @@ export function periodicFigures(ts: TimeSystem, runs: readonly SatelliteClockRun
 /** Pass timeline per station. */
 export function passTimelineFigure(ts: TimeSystem, rows: readonly PassClockRow[], stations: readonly string[], fromTt: number, toTt: number): string {
   return timeline({
-    title: 'Passes per station (above each station’s mask)',
+    title: 'Passes per station, one lane per satellite (above each station’s mask)',
     rows: [...stations],
     bars: rows.map((p) => ({ row: p.stationId, fromMs: utcMs(ts, p.aosTtJ2000S), toMs: utcMs(ts, p.losTtJ2000S), label: p.satelliteId, group: p.satelliteId })),
+    laneByGroup: true,
     fromMs: utcMs(ts, fromTt),
     toMs: utcMs(ts, toTt),
   });
@@ -286,6 +299,31 @@ export function resetsSection(ts: TimeSystem, runs: readonly SatelliteClockRun[]
 }
 
 // ---- compare, sweep, fit ----------------------------------------------------------------------
+
+/**
+ * Offset against time per clock (proper time minus the reference's since the common interval start):
+ * satellites in one plot, stations in another (their rates differ by orders of magnitude), flights apart.
+ */
+export function compareFigures(ts: TimeSystem, r: CompareResult): string[] {
+  const kindOf = new Map(r.clocks.map((c) => [c.id, c.flightEndTtJ2000S !== null ? 'flight' : c.kind]));
+  const groups: [string, string][] = [['satellite', 'satellites'], ['flight', 'sub-orbital flights'], ['station', 'station clocks']];
+  const out: string[] = [];
+  for (const [kind, title] of groups) {
+    const mine = r.series.filter((s) => kindOf.get(s.id) === kind);
+    if (mine.length === 0) continue;
+    const u = offsetUnit(Math.max(...mine.flatMap((s) => s.offsetNs.map(Math.abs))));
+    out.push(
+      linePlot({
+        title: `Clock offset against ${mine[0].against} — ${title}`,
+        xKind: 'time',
+        yAxis: { label: `Offset − ${mine[0].against}`, unit: u.unit },
+        series: mine.map((s) => ({ label: s.id, x: s.tTtJ2000S.map((t) => utcMs(ts, t)), y: s.offsetNs.map((v) => v / u.perUnitNs) })),
+        heightPx: 300,
+      }),
+    );
+  }
+  return out;
+}
 
 export function compareSection(ts: TimeSystem, r: CompareResult, meta: { fromTtJ2000S: number; toTtJ2000S: number }, figures: string[] = []): SectionSpec {
   return {

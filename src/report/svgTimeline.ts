@@ -23,6 +23,11 @@ export interface TimelineOptions {
   fromMs?: number;
   toMs?: number;
   widthPx?: number;
+  /**
+   * One lane per group inside each row (e.g. one per satellite inside a station's band), so bars of
+   * different groups that overlap in time never hide each other. Default false: one lane per row.
+   */
+  laneByGroup?: boolean;
 }
 /**
  * Timeline: one row per station, a bar per pass over a UTC time axis. Bar text is drawn only
@@ -47,7 +52,13 @@ export function timeline(opts: TimelineOptions): string {
   finite(toMs, 'toMs');
   if (toMs <= fromMs) toMs = fromMs + HOUR_MS;
 
-  const rowH = 26;
+  // Lanes per row: the groups that have bars in it, in legend order (or one lane).
+  const lanesOf = rows.map((r) => (opts.laneByGroup === true ? groups.filter((g) => opts.bars.some((b) => b.row === r && b.group === g)) : []));
+  const laneH = 12;
+  const bandH = lanesOf.map((l) => Math.max(26, l.length * laneH + 6));
+  const bandTop: number[] = [];
+  bandH.reduce((y, h, i) => ((bandTop[i] = y), y + h), 0);
+  const totalBandH = bandH.reduce((s, h) => s + h, 0);
   const rowLabels = rows.map((r) => clip(r, 24));
   const left = Math.max(60, Math.max(0, ...rowLabels.map((r) => textWidthPx(r))) + 18);
   const legend = legendLayout(
@@ -55,15 +66,16 @@ export function timeline(opts: TimelineOptions): string {
     widthPx,
     left,
   );
-  const f: Frame = { left, top: 32, right: widthPx - 20, bottom: 32 + Math.max(1, rows.length) * rowH };
+  const f: Frame = { left, top: 32, right: widthPx - 20, bottom: 32 + Math.max(26, totalBandH) };
   const heightPx = f.bottom + 58 + (legend.rows > 0 ? legend.rows * 18 + 8 : 0);
   const xs = scaleLinear().domain([fromMs, toMs]).range([f.left, f.right]);
 
   const out: string[] = [svgOpen(widthPx, heightPx, opts.title)];
   rows.forEach((r, i) => {
-    const y = f.top + i * rowH;
-    if (i % 2 === 1) out.push(`<rect x="${n(f.left)}" y="${n(y)}" width="${n(f.right - f.left)}" height="${rowH}" fill="#f6f6f6"/>`);
-    out.push(`<text x="${n(f.left - 8)}" y="${n(y + rowH / 2 + 4)}" text-anchor="end">${escapeXml(rowLabels[i])}</text>`);
+    const y = f.top + bandTop[i];
+    if (i % 2 === 1) out.push(`<rect x="${n(f.left)}" y="${n(y)}" width="${n(f.right - f.left)}" height="${n(bandH[i])}" fill="#f6f6f6"/>`);
+    if (i > 0 && opts.laneByGroup === true) out.push(`<line x1="${n(f.left)}" y1="${n(y)}" x2="${n(f.right)}" y2="${n(y)}" stroke="#c8c8c8"/>`);
+    out.push(`<text x="${n(f.left - 8)}" y="${n(y + bandH[i] / 2 + 4)}" text-anchor="end">${escapeXml(rowLabels[i])}</text>`);
   });
   for (const t of timeTicks(fromMs, toMs, Math.max(2, Math.floor((f.right - f.left) / 80)))) {
     const x = xs(t.ms);
@@ -82,13 +94,18 @@ export function timeline(opts: TimelineOptions): string {
     if (e < a) continue;
     const x0 = xs(a);
     const w = Math.max(2, xs(e) - x0);
-    const y = f.top + i * rowH + 5;
+    const lane = b.group === undefined ? -1 : lanesOf[i].indexOf(b.group);
+    const laned = lane >= 0;
+    const y = f.top + bandTop[i] + (laned ? 3 + lane * laneH : 5);
+    const h = laned ? laneH - 2 : bandH[i] - 10;
     const c = b.group !== undefined ? colour(groups.indexOf(b.group)) : colour(0);
     const tip = `${b.row}${b.label ? ` — ${b.label}` : ''}: ${utcDateLabel(b.fromMs)} ${utcClockLabel(b.fromMs)}–${utcClockLabel(b.toMs)} UTC`;
-    out.push(`<g><title>${escapeXml(tip)}</title><rect x="${n(x0)}" y="${n(y)}" width="${n(w)}" height="${rowH - 10}" rx="2" fill="${c}"/>`);
+    out.push(`<g><title>${escapeXml(tip)}</title><rect x="${n(x0)}" y="${n(y)}" width="${n(w)}" height="${n(h)}" rx="2" fill="${c}"/>`);
     if (b.label) {
+      // Text only where it fits inside its own bar (bars of one lane never overlap, so neither do labels).
+      const fontPx = laned ? 8 : 10;
       const text = clip(b.label, 16);
-      if (textWidthPx(text, 10) + 6 <= w) out.push(`<text x="${n(x0 + w / 2)}" y="${n(y + rowH / 2)}" text-anchor="middle" font-size="10" fill="#fff">${escapeXml(text)}</text>`);
+      if (textWidthPx(text, fontPx) + 6 <= w) out.push(`<text x="${n(x0 + w / 2)}" y="${n(y + h / 2 + fontPx * 0.35)}" text-anchor="middle" font-size="${fontPx}" fill="#fff">${escapeXml(text)}</text>`);
     }
     out.push('</g>');
   }

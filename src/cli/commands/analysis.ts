@@ -21,7 +21,7 @@ import { fitToCsv, fitToJson, fitToText } from '../../report/fitReport.ts';
 import { parsePositiveDurationS } from '../../time/duration.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
-import { compareSection, fitSection, page, sweepSection, windowMeta } from '../../report/htmlReport.ts';
+import { compareFigures, compareSection, fitSection, page, sweepSection, windowMeta } from '../../report/htmlReport.ts';
 import { orbitFromFlags } from '../orbitArgs.ts';
 import { missingGeoidNote } from '../../report/notes.ts';
 import { checkWindowInSpan, oscillatorParams, scenarioGravity, spanWithClockEpoch } from '../scenarioContext.ts';
@@ -59,7 +59,7 @@ export function computeCompare(a: CompareArgs, ts: TimeSystem) {
     return { id: sat.id, trajectory, flight: flightEnd === null ? null : { startTtJ2000S: trajectory.validFromTtJ2000S, endTtJ2000S: flightEnd } };
   });
   const stations = scenario.stations;
-  const all = compareClocks(sats, stations, gravity, from, to);
+  const all = compareClocks(sats, stations, gravity, from, to, a.against);
   const keepAll = a.against === undefined || a.pairs === 'all';
   const result = keepAll ? all : { ...all, pairs: all.pairs.filter((p) => p.a === a.against || p.b === a.against) };
   const notes = stations.filter((s) => !s.geoidHeightGiven).map((s) => missingGeoidNote(s.id));
@@ -73,7 +73,7 @@ export function runCompare(a: CompareArgs, ts: TimeSystem): Rendered {
     json: () => compareToJson(result, ts, meta),
     csv: () => compareToCsv(result, ts),
     text: () => compareToText(result, ts, meta),
-    html: () => page('tauplan — clock comparison', meta.scenario, windowMeta(ts, meta.fromTtJ2000S, meta.toTtJ2000S, meta.against ?? 'TT'), [compareSection(ts, result, meta)], notes),
+    html: () => page('tauplan — clock comparison', meta.scenario, windowMeta(ts, meta.fromTtJ2000S, meta.toTtJ2000S, meta.against ?? 'TT'), [compareSection(ts, result, meta, compareFigures(ts, result))], notes),
   };
 }
 

@@ -57,7 +57,7 @@ export async function runPasses(a: PassesArgs, ts: TimeSystem): Promise<Rendered
       const rows = replies.flatMap((r) => unwrap(r, ts).rows ?? []);
       rows.sort(comparePassRows);
       const meta = { notes: replies.flatMap((r) => r.notes), scenario: scenario.name, fromTtJ2000S: from, toTtJ2000S: to, reference: scenario.reference, gravity: scenario.gravity };
-      return { json: () => passesToJson(rows, meta, ts), csv: () => passesToCsv(rows, ts), text: () => passesToText(rows, meta, ts) };
+      return { notes: meta.notes, json: () => passesToJson(rows, meta, ts), csv: () => passesToCsv(rows, ts), text: () => passesToText(rows, meta, ts) };
     }
   }
   return runPassesInProcess(a, ts);
@@ -68,10 +68,11 @@ function runPassesInProcess(a: PassesArgs, ts: TimeSystem): Rendered {
   const plan = planPasses(ctx.runs, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
   const meta = { notes: notesOf(ctx.runs), scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, gravity: ctx.gravity.name };
   return {
+    notes: meta.notes,
     json: () => passesToJson(plan.rows, meta, ts),
     csv: () => passesToCsv(plan.rows, ts),
     text: () => passesToText(plan.rows, meta, ts),
     html: () =>
-      page('tauplan — passes and onboard clock offsets', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), [...passesSections(ts, ctx.runs, plan.rows, ctx.stations.map((s) => s.id), ctx.fromTtJ2000S, ctx.toTtJ2000S), modelsSection()]),
+      page('tauplan — passes and onboard clock offsets', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), [...passesSections(ts, ctx.runs, plan.rows, ctx.stations.map((s) => s.id), ctx.fromTtJ2000S, ctx.toTtJ2000S), modelsSection()], meta.notes),
   };
 }

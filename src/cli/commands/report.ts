@@ -24,7 +24,7 @@ import { PLANNING_CAUTION } from '../../report/caution.ts';
 import { fitToCsv, fitToJson, fitToText } from '../../report/fitReport.ts';
 import { typographicMinus } from '../../report/format.ts';
 import type { SectionSpec } from '../../report/html.ts';
-import { compareSection, fitSection, modelsSection, page, passesSections, resetsSection, sizeSection, sweepSection, windowMeta } from '../../report/htmlReport.ts';
+import { compareFigures, compareSection, fitSection, modelsSection, page, passesSections, resetsSection, sizeSection, sweepSection, windowMeta } from '../../report/htmlReport.ts';
 import { missingGeoidNote, withNotes, type NoteFormat } from '../../report/notes.ts';
 import { passesToCsv, passesToJson, passesToText } from '../../report/passesReport.ts';
 import { resetsToCsv, resetsToJson, resetsToText } from '../../report/resetsReport.ts';
@@ -138,7 +138,7 @@ function writeReport(a: ReportArgs, ts: TimeSystem, style: ReportStyle): void {
     ...(resets === null ? [] : [resetsSection(ts, resets.ctx.runs, resets.plans, resets.ctx.fromTtJ2000S, resets.ctx.toTtJ2000S, PREDICTION_RULE_TEXT)]),
     ...sizes.map((s) => sizeSection(s.result, s.title)),
     ...fits.map((f) => fitSection(f.result)),
-    compareSection(ts, compare.result, compare.meta),
+    compareSection(ts, compare.result, compare.meta, compareFigures(ts, compare.result)),
     sweepSection(sweep.result, sweep.meta.gravity),
     modelsSection(),
   ];

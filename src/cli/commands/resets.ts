@@ -86,7 +86,7 @@ export async function runResets(a: ResetsArgs, ts: TimeSystem): Promise<Rendered
       const plans = replies.flatMap((r) => unwrap(r, ts).plans ?? []);
       const policy = scenario.policy;
       const meta: ResetsMeta = { notes: replies.flatMap((r) => r.notes), scenario: scenario.name, fromTtJ2000S: from, toTtJ2000S: to, reference: scenario.reference, marginNs: policy.marginNs, leadTimeS: policy.leadTimeS ?? 0, prefer: policy.prefer };
-      return { json: () => resetsToJson(plans, meta, ts), csv: () => resetsToCsv(plans, ts), text: () => resetsToText(plans, meta, ts) };
+      return { notes: meta.notes, json: () => resetsToJson(plans, meta, ts), csv: () => resetsToCsv(plans, ts), text: () => resetsToText(plans, meta, ts) };
     }
   }
   return runResetsInProcess(a, ts);
@@ -95,7 +95,8 @@ export async function runResets(a: ResetsArgs, ts: TimeSystem): Promise<Rendered
 function runResetsInProcess(a: ResetsArgs, ts: TimeSystem): Rendered {
   const { ctx, plans, meta } = computeResets(a, ts);
   return {
-    html: () => page('tauplan — keep-in adjustment plan', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), [resetsSection(ts, ctx.runs, plans, ctx.fromTtJ2000S, ctx.toTtJ2000S, PREDICTION_RULE_TEXT), modelsSection()]),
+    notes: meta.notes,
+    html: () => page('tauplan — keep-in adjustment plan', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), [resetsSection(ts, ctx.runs, plans, ctx.fromTtJ2000S, ctx.toTtJ2000S, PREDICTION_RULE_TEXT), modelsSection()], meta.notes),
     json: () => resetsToJson(plans, meta, ts),
     csv: () => resetsToCsv(plans, ts),
     text: () => resetsToText(plans, meta, ts),
