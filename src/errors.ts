@@ -99,3 +99,22 @@ export function assertFinite(value: number, quantity: string): number {
   if (!Number.isFinite(value)) throw new InternalError(`non-finite value for ${quantity}: ${value}`, quantity);
   return value;
 }
+
+/** A navigation-message coefficient that does not fit its bits (`tauplan navclock`). */
+export class NavFieldOverflowError extends InputError {
+  constructor(
+    readonly satellite: string,
+    readonly tocUtc: string,
+    readonly field: string,
+    readonly value: number,
+    readonly limit: number,
+    readonly bits: number,
+  ) {
+    super(
+      `${field} ${value.toExponential(6)} does not fit its ${bits} bits (limit ${limit.toExponential(6)})`,
+      `${satellite} set at toc ${tocUtc}`,
+      'the clock is too far off for the message: adjust it first (tauplan resets), or check the clock block of the scenario',
+    );
+    this.name = 'NavFieldOverflowError';
+  }
+}

@@ -17,6 +17,7 @@ import { mergeOptions, runMerge } from './commands/merge.ts';
 import { passesOptions, runPasses } from './commands/passes.ts';
 import { resetsOptions, runResets } from './commands/resets.ts';
 import { demoOptions, reportOptions, runDemo, runReport } from './commands/report.ts';
+import { navclockOptions, runNavclock } from './commands/navclock.ts';
 import { compareOptions, fitOptions, runCompare, runFit, runSweep, runTrack, sweepOptions, trackOptions } from './commands/analysis.ts';
 
 export const EXIT_OK = 0;
@@ -103,6 +104,12 @@ function parser(args: string[]) {
       (a) => runReport(a, ts),
     )
     .command(
+      'navclock [scenario]',
+      'Navigation-message clock parameter sets (af0, af1, af2) with their expected error',
+      (y) => navclockOptions(common(y)),
+      (a) => emit(runNavclock(a, ts), a.format, a.out, 'navclock'),
+    )
+    .command(
       'demo',
       'The report of the embedded invented scenario (tauplan report on data/demo/tessera.yaml)',
       (y) => demoOptions(y),
@@ -120,8 +127,9 @@ function parser(args: string[]) {
     .example('tauplan fit offsets.csv --degree 2', 'clock parameters and stability from measurements')
     .example('tauplan compare data/demo/tessera.yaml', 'satellite and station clocks side by side')
     .example('tauplan sweep --from-km 300 --to-km 40000', 'rate against altitude, break-even')
+    .example('tauplan navclock data/demo/tessera.yaml --sat TSR-1', 'quantised af0/af1/af2 sets every 2 h')
     .example('tauplan track data/demo/tessera.yaml --sat TSR-1 --frame ECEF', 'states and clock for other tools')
-    .demandCommand(1, 'give a command: time, size, passes, resets, fit, compare, sweep, track, report, demo')
+    .demandCommand(1, 'give a command: time, size, passes, resets, fit, compare, sweep, track, navclock, report, demo')
     .recommendCommands()
     .strict()
     .exitProcess(false)
