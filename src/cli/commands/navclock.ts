@@ -14,6 +14,7 @@ import { Instant } from '../../time/instant.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
 import { loadScenarioContext } from '../scenarioContext.ts';
+import { runNavEval } from './navclockEval.ts';
 
 /** Spacing of the prediction samples the polynomial is fitted to [s] (default of --spacing). */
 export const DEFAULT_PREDICTION_SPACING_S = 300;
@@ -27,8 +28,11 @@ export function navclockOptions<T>(y: Argv<T>) {
     .option('interval', { type: 'string', requiresArg: true, default: '2h', describe: 'spacing of successive toc' })
     .option('fit-interval', { type: 'string', requiresArg: true, default: '4h', describe: 'fit interval, centred on toc' })
     .option('spacing', { type: 'string', requiresArg: true, describe: `spacing of the prediction samples (default ${DEFAULT_PREDICTION_SPACING_S} s)` })
-    .option('system', { type: 'string', requiresArg: true, choices: ['gps', 'galileo'], default: 'gps', describe: 'message: GPS LNAV or Galileo I/NAV-F/NAV' })
-    .option('degree', { type: 'number', requiresArg: true, default: 2, describe: 'polynomial degree, 1 or 2' });
+    .option('system', { type: 'string', requiresArg: true, choices: ['gps', 'galileo'], describe: 'message: GPS LNAV (default) or Galileo I/NAV-F/NAV; with --nav, the one system to judge (default both)' })
+    .option('degree', { type: 'number', requiresArg: true, default: 2, describe: 'polynomial degree, 1 or 2' })
+    .option('nav', { type: 'string', requiresArg: true, describe: 'judge a RINEX 3 navigation file (3.02–3.05) against --precise and --orbit' })
+    .option('precise', { type: 'string', requiresArg: true, describe: 'precise clocks (SP3, gzip accepted) for --nav' })
+    .option('orbit', { type: 'string', requiresArg: true, describe: 'precise orbit (SP3) for the −2 r·v/c² term with --nav' });
 }
 
 export interface NavclockArgs {
@@ -39,16 +43,20 @@ export interface NavclockArgs {
   interval: string;
   fitInterval: string;
   spacing?: string;
-  system: string;
+  system?: string;
   degree: number;
+  nav?: string;
+  precise?: string;
+  orbit?: string;
 }
 
 /** The generation options shared by the scenario and measurement modes. */
 export function navClockOptionsFrom(a: NavclockArgs, ts: TimeSystem, fromTtJ2000S: number, toTtJ2000S: number): NavClockOptions {
   if (a.degree !== 1 && a.degree !== 2) throw new InputError(`degree ${a.degree} is not 1 or 2`, '--degree', 'use 1 (offset and rate) or 2 (and drift)');
-  if (a.system !== 'gps' && a.system !== 'galileo') throw new InputError(`system ${JSON.stringify(a.system)}`, '--system', 'use gps or galileo');
+  const system = a.system ?? 'gps';
+  if (system !== 'gps' && system !== 'galileo') throw new InputError(`system ${JSON.stringify(a.system)}`, '--system', 'use gps or galileo');
   return {
-    system: a.system as NavSystem,
+    system: system as NavSystem,
     degree: a.degree,
     intervalS: parsePositiveDurationS(a.interval, '--interval'),
     fitIntervalS: parsePositiveDurationS(a.fitInterval, '--fit-interval'),
@@ -72,6 +80,10 @@ export function computeNavclockScenario(a: NavclockArgs & { scenario: string }, 
 }
 
 export function runNavclock(a: NavclockArgs, ts: TimeSystem): Rendered {
+  if (a.nav !== undefined) {
+    if (a.scenario !== undefined) throw new InputError('both a scenario and --nav given', '--nav', 'judge a navigation file (--nav --precise --orbit) or generate sets from a scenario, one at a time');
+    return runNavEval({ nav: a.nav, precise: a.precise, orbit: a.orbit, system: a.system }, ts);
+  }
   if (a.scenario === undefined) throw new InputError('no scenario given', 'navclock', 'give a scenario file, e.g. tauplan navclock data/demo/tessera.yaml');
   const { result, meta } = computeNavclockScenario({ ...a, scenario: a.scenario }, ts);
   return {
