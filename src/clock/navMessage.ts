@@ -34,8 +34,9 @@ import {
   GPS_MU_M3_PER_S2,
 } from './navConstants.ts';
 
-/** Navigation message whose clock fields are generated. */
-export type NavSystem = 'gps' | 'galileo';
+import type { NavSystem } from '../model/broadcastNav.ts';
+
+export type { NavSystem } from '../model/broadcastNav.ts';
 
 /** One quantised field: scale factor (value of one LSB) and bit width. */
 export interface FieldFormat {

@@ -9,8 +9,7 @@
  * "broadcast orbit" line holds four D19.12 fields from col 5. Exponents may be written with `D`.
  * CRLF line ends, a BOM and trailing blanks are accepted.
  */
-import type { BroadcastClockRecord } from '../clock/broadcast.ts';
-import type { NavSystem } from '../clock/navMessage.ts';
+import type { BroadcastClockRecord, NavSystem } from '../model/broadcastNav.ts';
 import { OrbitFileError } from '../errors.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 
