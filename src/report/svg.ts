@@ -16,3 +16,4 @@ export { decimateMinMax } from './svgDecimate.ts';
 export { linePlot, type HLine, type LinePlotOptions, type LineSeries, type MarkedPoint, type XInterval } from './svgLinePlot.ts';
 export { logLogPlot, type LogLogPlotOptions, type LogLogSeries } from './svgLogLog.ts';
 export { timeline, type TimelineBar, type TimelineOptions } from './svgTimeline.ts';
+export { ageErrorPlot, type AgeCurve } from './svgAgePlot.ts';

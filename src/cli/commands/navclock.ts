@@ -9,6 +9,7 @@ import type { NavSystem } from '../../clock/navMessage.ts';
 import { navigationClockSets, type NavClockOptions, type NavClockResult, type PredictedClock } from '../../plan/navclock.ts';
 import { predictedFromRun } from '../../plan/navclockSources.ts';
 import { navClockToCsv, navClockToJson, navClockToText, type NavClockMeta } from '../../report/navclockReport.ts';
+import { navClockToHtml } from '../../report/navclockHtml.ts';
 import { parsePositiveDurationS } from '../../time/duration.ts';
 import { Instant } from '../../time/instant.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
@@ -87,6 +88,7 @@ export function runNavclock(a: NavclockArgs, ts: TimeSystem): Rendered {
   if (a.scenario === undefined) throw new InputError('no scenario given', 'navclock', 'give a scenario file, e.g. tauplan navclock data/demo/tessera.yaml');
   const { result, meta } = computeNavclockScenario({ ...a, scenario: a.scenario }, ts);
   return {
+    html: () => navClockToHtml(result, meta, ts),
     json: () => navClockToJson(result, meta, ts),
     csv: () => navClockToCsv(result, ts),
     text: () => navClockToText(result, meta, ts),

@@ -15,6 +15,7 @@ import { broadcastEvalToCsv, broadcastEvalToJson, broadcastEvalToText, type Broa
 import { instantFromLabel } from '../../time/instant.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
+import { broadcastEvalToHtml } from '../../report/navclockHtml.ts';
 
 export interface NavEvalArgs {
   nav: string;
@@ -85,5 +86,5 @@ export function computeNavEval(a: NavEvalArgs, ts: TimeSystem): { result: Broadc
 
 export function runNavEval(a: NavEvalArgs, ts: TimeSystem): Rendered {
   const { result, meta } = computeNavEval(a, ts);
-  return { json: () => broadcastEvalToJson(result, meta), csv: () => broadcastEvalToCsv(result), text: () => broadcastEvalToText(result, meta) };
+  return { html: () => broadcastEvalToHtml(result, meta), json: () => broadcastEvalToJson(result, meta), csv: () => broadcastEvalToCsv(result), text: () => broadcastEvalToText(result, meta) };
 }
