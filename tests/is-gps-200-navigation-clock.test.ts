@@ -9,7 +9,13 @@
  *   independent public subframe-1 decoders agree on every width and scale).
  * - Fit interval centred on toc (§20.3.4.4): from memory; the code states it as its convention.
  */
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { computeNavclockMeasured } from '../src/cli/commands/navclockMeasured.ts';
+import { sgp4Trajectory } from '../src/io/orbitSources.ts';
+import { parseTleFile } from '../src/io/tle.ts';
 import { SPEED_OF_LIGHT_M_PER_S } from '../src/constants.ts';
 import { NavFieldOverflowError } from '../src/errors.ts';
 import { clockPolynomialS, GPS_LNAV_FORMAT, quantise, relativisticCorrectionS, weekCrossoverS } from '../src/clock/navMessage.ts';
@@ -194,5 +200,38 @@ describe('IS-GPS-200 §20.3.3.3.3.1 convention on a modelled clock: polynomial +
       }
     }
     expect(worst, `worst error ${worst} ns, allowed ${worstAllowed} ns`).toBeLessThanOrEqual(worstAllowed);
+  });
+});
+
+describe('IS-GPS-200 convention from measurements (navclock --measurements --orbit)', () => {
+  it('noise-free offsets = quadratic + (−2 r·v/c²) along the orbit: the sets give back the quadratic', () => {
+    // Simulated measurements of an invented clock on the invented TSR-1 orbit (data/demo/tsr1.tle):
+    // the estimator must remove the periodic term before fitting, as the message convention asks.
+    const ts = defaultTimeSystem();
+    const rec = parseTleFile(readFileSync('data/demo/tsr1.tle', 'utf8'), 'tsr1.tle')[0];
+    const start = ts.parse('2027-01-04T00:00:00Z', 't').ttJ2000S;
+    const traj = sgp4Trajectory(rec, ts, { fromTtJ2000S: start, toTtJ2000S: start + 3 * 86400 });
+    const quad = (t: number): number => 25 + 1e9 * (3e-12 * (t - start) + 0.5 * (5e-14 / 86400) * (t - start) ** 2);
+    const lines = ['time,offsetNs'];
+    for (let k = 0; k <= 288; k++) {
+      const t = start + k * 300;
+      const s = traj.stateAt(t);
+      const periodicNs = conventionalPeriodicS(s.positionM[0], s.positionM[1], s.positionM[2], s.velocityMPerS[0], s.velocityMPerS[1], s.velocityMPerS[2]) * 1e9;
+      lines.push(`${ts.format(Instant.fromTtJ2000S(t))},${(quad(t) + periodicNs).toFixed(9)}`);
+    }
+    const dir = mkdtempSync(join(tmpdir(), 'navclock-'));
+    const csv = join(dir, 'offsets.csv');
+    writeFileSync(csv, `${lines.join('\n')}\n`);
+    const { result } = computeNavclockMeasured({ measurements: csv, orbit: 'data/demo/tsr1.tle', interval: '2h', fitInterval: '4h', degree: 2 }, ts);
+    rmSync(dir, { recursive: true, force: true });
+    const sets = result.satellites[0].sets;
+    expect(sets.length).toBe(10);
+    for (const s of sets) {
+      for (let dt = -7200; dt <= 7200; dt += 600) {
+        const err = Math.abs(clockPolynomialS(s, dt) * 1e9 - quad(s.tocTtJ2000S + dt));
+        // Quantisation plus the rounding of the simulated offsets (1e-9 ns) and of the fit: 1e-3 ns.
+        expect(err, `toc ${s.tocTtJ2000S} dt ${dt}: ${err} ns`).toBeLessThanOrEqual(s.quantisationErrorMaxNs + s.fitResidualMaxNs + 1e-3);
+      }
+    }
   });
 });

@@ -36,9 +36,10 @@ export function predictedFromRun(run: SatelliteClockRun): PredictedClock {
 }
 
 /**
- * A clock estimated by `fitClock` (with the periodic term removed there) and extrapolated by its
- * polynomial. Band: 1.96 × the 1-σ of the extrapolated polynomial from the parameter covariance,
- * combined (root sum of squares) with the residual RMS — the fit's own evidence, no noise model.
+ * A clock estimated by `fitClock` (with the periodic term removed there, epoch at the last
+ * measurement) and extrapolated by its polynomial. Band: 1.96 × the 1-σ of the extrapolated
+ * polynomial from the parameter covariance, combined (root sum of squares) with the residual RMS —
+ * the fit's own evidence, no noise model. Ages count from the fit epoch.
  */
 export function predictedFromFit(satellite: string, fit: FitResult, endTtJ2000S: number): PredictedClock {
   const y = fit.fractionalFrequency ?? 0;
@@ -46,8 +47,7 @@ export function predictedFromFit(satellite: string, fit: FitResult, endTtJ2000S:
   const sig = [fit.offsetSigmaNs ?? 0, (fit.fractionalFrequencySigma ?? 0) * 1e9, ((fit.driftPerDaySigma ?? 0) / SECONDS_PER_DAY) * 1e9];
   const corr = fit.correlation;
   const sigmaAt = (ageS: number): number => {
-    const dt = fit.spanS + ageS; // the epoch is the first row; ages count from the last row
-    const g = [sig[0], sig[1] * dt, (sig[2] * dt * dt) / 2].slice(0, fit.degree + 1);
+    const g = [sig[0], sig[1] * ageS, (sig[2] * ageS * ageS) / 2].slice(0, fit.degree + 1);
     let v = 0;
     for (let a = 0; a < g.length; a++) for (let b = 0; b < g.length; b++) v += g[a] * g[b] * (corr === null ? (a === b ? 1 : 0) : corr[a][b]);
     return Math.sqrt(Math.max(0, v) + fit.rmsNs * fit.rmsNs);

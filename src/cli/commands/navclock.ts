@@ -16,6 +16,7 @@ import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
 import { loadScenarioContext } from '../scenarioContext.ts';
 import { runNavEval } from './navclockEval.ts';
+import { computeNavclockMeasured } from './navclockMeasured.ts';
 
 /** Spacing of the prediction samples the polynomial is fitted to [s] (default of --spacing). */
 export const DEFAULT_PREDICTION_SPACING_S = 300;
@@ -33,7 +34,8 @@ export function navclockOptions<T>(y: Argv<T>) {
     .option('degree', { type: 'number', requiresArg: true, default: 2, describe: 'polynomial degree, 1 or 2' })
     .option('nav', { type: 'string', requiresArg: true, describe: 'judge a RINEX 3 navigation file (3.02–3.05) against --precise and --orbit' })
     .option('precise', { type: 'string', requiresArg: true, describe: 'precise clocks (SP3, gzip accepted) for --nav' })
-    .option('orbit', { type: 'string', requiresArg: true, describe: 'precise orbit (SP3) for the −2 r·v/c² term with --nav' });
+    .option('orbit', { type: 'string', requiresArg: true, describe: 'orbit for the −2 r·v/c² term: SP3 with --nav; TLE, OMM or SP3 with --measurements' })
+    .option('measurements', { type: 'string', requiresArg: true, describe: 'measured clock offsets (CSV as for fit): fit, predict forward from the last row, make the sets' });
 }
 
 export interface NavclockArgs {
@@ -49,6 +51,7 @@ export interface NavclockArgs {
   nav?: string;
   precise?: string;
   orbit?: string;
+  measurements?: string;
 }
 
 /** The generation options shared by the scenario and measurement modes. */
@@ -85,8 +88,9 @@ export function runNavclock(a: NavclockArgs, ts: TimeSystem): Rendered {
     if (a.scenario !== undefined) throw new InputError('both a scenario and --nav given', '--nav', 'judge a navigation file (--nav --precise --orbit) or generate sets from a scenario, one at a time');
     return runNavEval({ nav: a.nav, precise: a.precise, orbit: a.orbit, system: a.system }, ts);
   }
-  if (a.scenario === undefined) throw new InputError('no scenario given', 'navclock', 'give a scenario file, e.g. tauplan navclock data/demo/tessera.yaml');
-  const { result, meta } = computeNavclockScenario({ ...a, scenario: a.scenario }, ts);
+  if (a.measurements !== undefined && a.scenario !== undefined) throw new InputError('both a scenario and --measurements given', '--measurements', 'generate sets from a scenario or from measurements, one at a time');
+  if (a.measurements === undefined && a.scenario === undefined) throw new InputError('no scenario given', 'navclock', 'give a scenario file (tauplan navclock data/demo/tessera.yaml), or --measurements with --orbit, or --nav');
+  const { result, meta } = a.measurements !== undefined ? computeNavclockMeasured({ ...a, measurements: a.measurements }, ts) : computeNavclockScenario({ ...a, scenario: a.scenario as string }, ts);
   return {
     html: () => navClockToHtml(result, meta, ts),
     json: () => navClockToJson(result, meta, ts),
