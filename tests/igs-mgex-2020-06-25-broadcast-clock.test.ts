@@ -19,7 +19,7 @@ import { InputError } from '../src/errors.ts';
 import { parseRinexNav } from '../src/io/rinexNav.ts';
 import { parseSp3 } from '../src/io/sp3.ts';
 import { defaultTimeSystem } from '../src/io/tables.ts';
-import { readTextMaybeGzip } from '../src/io/textFile.ts';
+import { readInputText } from '../src/io/readInput.ts';
 import { Sp3Trajectory } from '../src/orbit/sp3.ts';
 import { evaluateBroadcastClocks } from '../src/plan/navclockBroadcast.ts';
 
@@ -68,8 +68,8 @@ describe.skipIf(!present)('broadcast minus precise clock, GPS and Galileo, 2020-
   it('Δt_r from the broadcast elements equals −2 r·v/c² from the precise orbit within 0.1 ns', () => {
     // Two forms of the same term from independent orbits; what differs is the short-period J2 part
     // that the two-body form leaves out and the broadcast fit absorbs (well below 0.1 ns at MEO).
-    const nav = parseRinexNav(readTextMaybeGzip(NAV, 'nav'), NAV, ts);
-    const sp3 = parseSp3(readTextMaybeGzip(SP3, 'sp3'), SP3);
+    const nav = parseRinexNav(readInputText(NAV, 'nav', 'orbit'), NAV, ts);
+    const sp3 = parseSp3(readInputText(SP3, 'sp3', 'orbit'), SP3);
     let worst = 0;
     let worstSat = '';
     let largestTermNs = 0;
@@ -92,7 +92,7 @@ describe.skipIf(!present)('broadcast minus precise clock, GPS and Galileo, 2020-
   });
 
   it('refuses precise clocks that cover none of the broadcast epochs', () => {
-    const nav = parseRinexNav(readTextMaybeGzip(NAV, 'nav'), NAV, ts);
+    const nav = parseRinexNav(readInputText(NAV, 'nav', 'orbit'), NAV, ts);
     const dayLater = [{ satellite: 'G05', ttJ2000S: [nav.records[0].tocTtJ2000S + 10 * 86400], clockS: [0] }];
     expect(() => evaluateBroadcastClocks({ records: nav.records, precise: dayLater, periodicS: () => 0, systems: ['gps'], navFile: 'nav', preciseFile: 'sp3' })).toThrow(InputError);
   });

@@ -8,7 +8,7 @@ import { conventionalPeriodicS } from '../../clock/rate.ts';
 import { InputError } from '../../errors.ts';
 import { parseRinexNav } from '../../io/rinexNav.ts';
 import { parseSp3, type Sp3File } from '../../io/sp3.ts';
-import { readTextMaybeGzip } from '../../io/textFile.ts';
+import { readInputText } from '../../io/readInput.ts';
 import { Sp3Trajectory } from '../../orbit/sp3.ts';
 import { evaluateBroadcastClocks, type BroadcastEvalResult, type PreciseClockSeries } from '../../plan/navclockBroadcast.ts';
 import { broadcastEvalToCsv, broadcastEvalToJson, broadcastEvalToText, type BroadcastEvalMeta } from '../../report/navclockEvalReport.ts';
@@ -25,7 +25,7 @@ export interface NavEvalArgs {
 }
 
 function readSp3File(path: string, flag: string): Sp3File {
-  const text = readTextMaybeGzip(path, flag);
+  const text = readInputText(path, flag, 'orbit');
   if (!/^#[cd]/.test(text)) throw new InputError(`${path} is not an SP3-c or SP3-d file`, flag, 'give an SP3 file of precise orbits and clocks (RINEX clock files are not read yet)');
   return parseSp3(text, path);
 }
@@ -53,7 +53,7 @@ export function computeNavEval(a: NavEvalArgs, ts: TimeSystem): { result: Broadc
   if (a.precise === undefined) throw new InputError('--nav without --precise', '--precise', 'give the precise clocks (SP3) of the same day');
   if (a.orbit === undefined) throw new InputError('--nav without --orbit', '--orbit', 'give the precise orbit (SP3) for the −2 r·v/c² term; it may be the same file as --precise');
   const systems: NavSystem[] = a.system === undefined ? ['gps', 'galileo'] : [a.system as NavSystem];
-  const nav = parseRinexNav(readTextMaybeGzip(a.nav, '--nav'), a.nav, ts);
+  const nav = parseRinexNav(readInputText(a.nav, '--nav', 'orbit'), a.nav, ts);
   const preciseFile = readSp3File(a.precise, '--precise');
   const orbitFile = a.orbit === a.precise ? preciseFile : readSp3File(a.orbit, '--orbit');
   const trajectories = new Map<string, Sp3Trajectory | null>();

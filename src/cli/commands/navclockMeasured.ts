@@ -9,7 +9,7 @@ import { InputError } from '../../errors.ts';
 import { parseMeasurementsCsv } from '../../io/measurements.ts';
 import { labelOf, pickElementSet, readElementSets, readTextFile, sgp4Trajectory } from '../../io/orbitSources.ts';
 import { parseSp3 } from '../../io/sp3.ts';
-import { readTextMaybeGzip } from '../../io/textFile.ts';
+import { readInputText } from '../../io/readInput.ts';
 import { Sp3Trajectory } from '../../orbit/sp3.ts';
 import type { Trajectory } from '../../orbit/trajectory.ts';
 import { fitClock } from '../../plan/fit.ts';
@@ -23,7 +23,7 @@ const DAY_S = 86_400;
 
 /** The orbit of --orbit: SP3 (by its `#c`/`#d` start), OMM (by its keywords or markup), else TLE. */
 function orbitFromFile(path: string, sat: string | undefined, ts: TimeSystem, fromTt: number, toTt: number): { trajectory: Trajectory; id: string } {
-  const text = readTextMaybeGzip(path, '--orbit');
+  const text = readInputText(path, '--orbit', 'orbit');
   if (/^#[cd]/.test(text)) {
     const file = parseSp3(text, path);
     const id = sat ?? (file.satelliteIds.length === 1 ? file.satelliteIds[0] : undefined);
@@ -39,7 +39,7 @@ function orbitFromFile(path: string, sat: string | undefined, ts: TimeSystem, fr
 /** Fit the measured clock, predict it forward, and make the sets. */
 export function computeNavclockMeasured(a: NavclockArgs & { measurements: string; orbit?: string }, ts: TimeSystem): { result: NavClockResult; meta: NavClockMeta } {
   if (a.orbit === undefined) throw new InputError('--measurements without --orbit', '--orbit', 'give the orbit of the measured satellite (TLE, OMM or SP3) for the −2 r·v/c² term');
-  const data = parseMeasurementsCsv(readTextFile(a.measurements, '--measurements'), a.measurements, ts);
+  const data = parseMeasurementsCsv(readTextFile(a.measurements, '--measurements', 'measurements'), a.measurements, ts);
   const first = data.rows[0].ttJ2000S;
   const last = data.rows[data.rows.length - 1].ttJ2000S;
   const { trajectory, id } = orbitFromFile(a.orbit, a.sat, ts, first, last);
