@@ -10,7 +10,7 @@
 import { WGS84_A_M, WGS84_INV_F } from '../constants.ts';
 import { InputError } from '../errors.ts';
 import type { GravityModel } from './gravity.ts';
-import { applyMatrix, gcrfToTodMatrix } from './frames.ts';
+import { applyMatrix, gcrfToTodMatrixAtTt } from './frames.ts';
 import { KeplerianTrajectory, keplerState, type KeplerianElements } from './keplerian.ts';
 import { NumericalTrajectory } from './numerical.ts';
 import type { Trajectory } from './trajectory.ts';
@@ -97,7 +97,7 @@ export function trajectoryFromStateVector(p: StateVectorInput): NumericalTraject
   let r: readonly number[] = rIn;
   let v: readonly number[] = vIn;
   if (p.frame === 'GCRF') {
-    const m = gcrfToTodMatrix(p.jdUtcAtEpoch);
+    const m = gcrfToTodMatrixAtTt(p.epochTtJ2000S);
     r = applyMatrix<'GCRF', 'TOD'>(m, rIn) as Vec3<'TOD'>;
     v = applyMatrix<'GCRF', 'TOD'>(m, vIn) as Vec3<'TOD'>;
   }
