@@ -7,7 +7,7 @@
  * - J2 secular nodal regression dΩ/dt = −(3/2)·n·J2·(R/p)²·cos i: Vallado, Fundamentals of
  *   Astrodynamics and Applications, 4th ed., eq. 9-41 (equation number from memory). The formula
  *   itself is confirmed via a quotation of A. E. Roy, Orbital Motion (1978), with n the mean motion.
- * - GCRF → TOD rotation: src/orbit/frames.ts gcrfToTodMatrix (astronomy-engine, IAU 2006/2000B).
+ * - GCRF → TEME-of-date rotation: src/orbit/frames.ts (IAU 2006/2000A; tests/sofa-iau2006.test.ts).
  * - Vertical launch: constant-g flight time 2·v/g (common practice, a sanity bracket only) and the
  *   two-body return time from Kepler's equation (derived).
  * Tolerances are in metres / seconds, each with its reason next to it.
@@ -16,7 +16,7 @@ import { describe, expect, it } from 'vitest';
 import { gravityModel, potentialM2PerS2, type GravityModel } from '../src/orbit/gravity.ts';
 import { EGM2008_J, WGS84_A_M, WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../src/constants.ts';
 import { InputError, InternalError, SpanError } from '../src/errors.ts';
-import { applyMatrix, gcrfToTodMatrix } from '../src/orbit/frames.ts';
+import { applyMatrix, equationOfEquinoxesRadAtTt, gcrfToTemeMatrixAtTt, todToTeme } from '../src/orbit/frames.ts';
 import { elementsFromDegKm, elementsFromState, KeplerianTrajectory, keplerState, type KeplerianElements } from '../src/orbit/keplerian.ts';
 import { NumericalTrajectory, SurfaceImpactError } from '../src/orbit/numerical.ts';
 import { trajectoryFromKeplerian, trajectoryFromStateVector } from '../src/orbit/stateVector.ts';
@@ -230,16 +230,16 @@ describe('state vectors', () => {
   // UTC Julian date of the epoch: TT − UTC = 37 s + 32.184 s in 2027 (physics.md §5, confirmed).
   const jdUtc = 2451545 + (EPOCH - 69.184) / DAY_S;
 
-  it('GCRF input queried at the epoch equals the GCRF → TOD rotated state', () => {
+  it('GCRF input queried at the epoch equals the GCRF → TEME-of-date rotated state', () => {
     const traj = trajectoryFromStateVector({ id: 'g', epochTtJ2000S: EPOCH, frame: 'GCRF', positionKm: rKm, velocityKmPerS: vKmPerS, gravity: ZONAL, fromTtJ2000S: EPOCH - 600, toTtJ2000S: EPOCH + 600, jdUtcAtEpoch: jdUtc });
-    const m = gcrfToTodMatrix(jdUtc);
-    const rTod = applyMatrix<'GCRF', 'TOD'>(m, vec3<'GCRF'>(rKm[0] * 1000, rKm[1] * 1000, rKm[2] * 1000));
-    const vTod = applyMatrix<'GCRF', 'TOD'>(m, vec3<'GCRF'>(vKmPerS[0] * 1000, vKmPerS[1] * 1000, vKmPerS[2] * 1000));
+    const m = gcrfToTemeMatrixAtTt(EPOCH);
+    const rTeme = applyMatrix<'GCRF', 'TEME'>(m, vec3<'GCRF'>(rKm[0] * 1000, rKm[1] * 1000, rKm[2] * 1000));
+    const vTeme = applyMatrix<'GCRF', 'TEME'>(m, vec3<'GCRF'>(vKmPerS[0] * 1000, vKmPerS[1] * 1000, vKmPerS[2] * 1000));
     const s = traj.stateAt(EPOCH);
-    expect(traj.frame).toBe('TOD');
-    // 1 µm / 1 nm/s: the epoch is a node, so only rounding separates them.
-    expect(dist(s.positionM, rTod)).toBeLessThan(1e-6);
-    expect(dist(s.velocityMPerS, vTod)).toBeLessThan(1e-9);
+    expect(traj.frame).toBe('TEME');
+    // 1 mm / 1 µm/s: the served states use the interpolated rotation (< 1e-10 rad from the direct one).
+    expect(dist(s.positionM, rTeme)).toBeLessThan(1e-3);
+    expect(dist(s.velocityMPerS, vTeme)).toBeLessThan(1e-6);
     // The rotation matters: precession since J2000 moves this position by tens of km in 2027.
     expect(dist(s.positionM, rKm.map((x) => x * 1000))).toBeGreaterThan(10_000);
   });
@@ -358,8 +358,10 @@ describe('trajectoryFromKeplerian', () => {
   it('zonal gravity integrates from the osculating state at the epoch', () => {
     const traj = trajectoryFromKeplerian(el, ZONAL, span, 'k');
     expect(traj).toBeInstanceOf(NumericalTrajectory);
-    // 1 µm: at the epoch the state is the osculating Kepler state itself (rounding only).
-    expect(dist(traj.stateAt(EPOCH).positionM, keplerState(el, GM, 0).r)).toBeLessThan(1e-6);
+    // 1 mm: at the epoch the state is the osculating Kepler state (true of date), served in TEME of
+    // date, i.e. turned by the equation of the equinoxes (interpolated rotation: < 1e-10 rad).
+    const rTod = keplerState(el, GM, 0).r;
+    expect(dist(traj.stateAt(EPOCH).positionM, todToTeme(vec3<'TOD'>(rTod[0], rTod[1], rTod[2]), equationOfEquinoxesRadAtTt(EPOCH)))).toBeLessThan(1e-3);
     expect(traj.validFromTtJ2000S).toBe(span.fromTtJ2000S);
     expect(traj.validToTtJ2000S).toBe(span.toTtJ2000S);
   });

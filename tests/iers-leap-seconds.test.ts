@@ -43,6 +43,23 @@ describe('leap-second table', () => {
     expect(ts.parse(`GPSW ${week} ${secondsOfWeek}`).minusS(u)).toBe(0);
   });
 
+  it('an instant before the GPS epoch has no GPS week (IS-GPS-200: GPS time starts 1980-01-06; confirmed)', () => {
+    expect(() => ts.gpsWeek(ts.parse('1979-06-01T00:00:00Z'))).toThrow(/before GPS time began/);
+    expect(() => ts.gpsWeek(ts.parse('1980-01-05T23:59:59.999Z'))).toThrow(TimeError);
+  });
+
+  it('printed times are rounded to the millisecond, carrying into the next second, minute, day and out of a leap second (derived)', () => {
+    expect(ts.format(ts.parse('2016-12-31T23:59:60.9996Z'))).toBe('2017-01-01T00:00:00.000Z');
+    expect(ts.format(ts.parse('2016-12-31T23:59:59.9996Z'))).toBe('2016-12-31T23:59:60.000Z');
+    expect(ts.format(ts.parse('2026-12-31T23:59:59.9996Z'))).toBe('2027-01-01T00:00:00.000Z');
+    expect(ts.format(ts.parse('2026-03-01T10:59:59.9997Z'))).toBe('2026-03-01T11:00:00.000Z');
+    expect(ts.format(ts.parse('2026-03-01T10:00:00.0004Z'))).toBe('2026-03-01T10:00:00.000Z');
+    expect(ts.format(ts.parse('2026-03-01T10:00:00.0006Z'))).toBe('2026-03-01T10:00:00.001Z');
+    // Other scales round on their own label: TT = TAI + 32.184 s (IERS; confirmed).
+    expect(ts.format(ts.parse('2026-12-31T23:58:50.8156 TT'), 'TT')).toBe('2026-12-31T23:58:50.816 TT');
+    expect(ts.format(ts.parse('2026-12-31T23:59:59.9999 TT'), 'TT')).toBe('2027-01-01T00:00:00.000 TT');
+  });
+
   it('round trips UTC → TAI → TT → GPS → UTC within 1 ns', () => {
     for (const text of ['1972-01-01T00:00:00Z', '1999-12-31T23:59:59.999999Z', '2016-12-31T23:59:60.5Z', '2027-03-01T12:34:56.789012Z', '2040-06-30T00:00:00.000001Z']) {
       const t0 = ts.parse(text);

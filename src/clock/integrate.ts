@@ -41,6 +41,18 @@ const NODE_INT = (() => {
   return w;
 })();
 
+/**
+ * Quadrature weights of `count` integration nodes laid out as {@link integrateBulkAlong} lays them
+ * (steps of equal length, GAUSS_POINTS_PER_STEP nodes each), in units of half a step. Σ wᵢ·f(tᵢ)
+ * is then ∫ f dt / (h/2) to the rule's order: the weights a least-squares fit over the nodes needs
+ * to stand for the continuous fit over the span.
+ */
+export function nodeQuadratureWeights(count: number): Float64Array {
+  const w = new Float64Array(count);
+  for (let i = 0; i < count; i++) w[i] = RULE.weights[i % GAUSS_POINTS_PER_STEP];
+  return w;
+}
+
 /** A function of one state: position [m] and inertial velocity [m/s], in true-of-date axes. */
 export type StateFunction = (x: number, y: number, z: number, vx: number, vy: number, vz: number, ttJ2000S: number) => number;
 

@@ -9,8 +9,7 @@
  */
 import { Body, GeoMoon, GeoVector, MakeTime } from 'astronomy-engine';
 import { IAU2012_AU_M, IERS2010_GM_SUN_M3_PER_S2, IERS2010_MOON_EARTH_MASS_RATIO, WGS84_GM_M3_PER_S2 } from '../constants.ts';
-import { applyMatrix, gcrfToTodMatrix } from '../orbit/frames.ts';
-import { vec3 } from '../orbit/vec.ts';
+import { gcrfToTemeInto, rotateInto } from '../orbit/temeOfDate.ts';
 
 /** GM of the Moon [m³/s²], from the IERS mass ratio and the contract's GM of the Earth. */
 export const GM_MOON_M3_PER_S2 = IERS2010_MOON_EARTH_MASS_RATIO * WGS84_GM_M3_PER_S2;
@@ -29,7 +28,7 @@ export function tidalPotentialM2PerS2(gm: number, rx: number, ry: number, rz: nu
   return gm * (diff - dot / (rb2 * rb));
 }
 
-/** Sun and Moon positions [m] in true-of-date axes at an instant. */
+/** Sun and Moon positions [m] in TEME-of-date axes (the states' axes) at an instant. */
 export interface BodyPositions {
   sun: readonly [number, number, number];
   moon: readonly [number, number, number];
@@ -40,20 +39,25 @@ export interface BodyPositions {
  * TT to a UTC Julian date (the edge supplies it from the leap-second table).
  */
 export class TidalField {
+  private readonly matrix = new Float64Array(9);
+
   constructor(private readonly jdUtcAt: (ttJ2000S: number) => number) {}
 
   bodiesAt(ttJ2000S: number): BodyPositions {
     const jd = this.jdUtcAt(ttJ2000S);
     const time = MakeTime(jd - 2451545.0);
-    const m = gcrfToTodMatrix(jd);
+    // Into the satellite states' axes (TEME of date), from the interpolated IAU 2006/2000A chain.
+    const m = gcrfToTemeInto(ttJ2000S, this.matrix);
     const s = GeoVector(Body.Sun, time, false);
     const l = GeoMoon(time);
-    const sun = applyMatrix<'GCRF', 'TOD'>(m, vec3<'GCRF'>(s.x * IAU2012_AU_M, s.y * IAU2012_AU_M, s.z * IAU2012_AU_M));
-    const moon = applyMatrix<'GCRF', 'TOD'>(m, vec3<'GCRF'>(l.x * IAU2012_AU_M, l.y * IAU2012_AU_M, l.z * IAU2012_AU_M));
+    const sun = new Float64Array(3);
+    const moon = new Float64Array(3);
+    rotateInto(m, [s.x * IAU2012_AU_M, s.y * IAU2012_AU_M, s.z * IAU2012_AU_M], 0, sun, 0);
+    rotateInto(m, [l.x * IAU2012_AU_M, l.y * IAU2012_AU_M, l.z * IAU2012_AU_M], 0, moon, 0);
     return { sun: [sun[0], sun[1], sun[2]], moon: [moon[0], moon[1], moon[2]] };
   }
 
-  /** Sun plus Moon tidal potential [m²/s²] at geocentric r [m] (true-of-date axes) at an instant. */
+  /** Sun plus Moon tidal potential [m²/s²] at geocentric r [m] (TEME of date, true pole) at an instant. */
   potentialM2PerS2(ttJ2000S: number, rx: number, ry: number, rz: number): number {
     const b = this.bodiesAt(ttJ2000S);
     return (

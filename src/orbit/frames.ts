@@ -1,32 +1,61 @@
 /**
  * The frame chain, in one place.
  *
- *   GCRF ──(precession + nutation, IAU 2000B via astronomy-engine Rotation_EQJ_EQD)──▶ TOD
- *   TOD  ──(equation of the equinoxes, a rotation about the shared pole)─────────────▶ TEME
- *   TEME ──(GMST, IAU-82 as SGP4 uses it; UT1 ≈ UTC)─────────────────────────────────▶ ECEF
+ *   GCRF ──(N·P·B: frame bias, IAU 2006 precession, IAU 2000A nutation; ./iau)──▶ TOD
+ *   TOD  ──(R3(EE): equation of the equinoxes with its complementary terms)──────▶ TEME
+ *   TEME ──(R3(GMST), IAU-82 as SGP4 uses it; UT1 ≈ UTC)──────────────────────────▶ ECEF
  *
- * - Zonal gravity needs only the true pole of date, which TOD and TEME share, so the clock
- *   rate is evaluated in either. GCRF input is rotated to TOD first.
+ * - GCRF ↔ TOD ↔ TEME follow IERS Conventions 2010 ch. 5 (IAU 2006/2000A, equinox based); the
+ *   matrices meet the SOFA test values to 1e-12 (tests/sofa-iau2006.test.ts). Times are TT.
+ * - TEME's x axis is the mean equinox projected on the true equator: r_TEME = R3(EE)·r_TOD.
+ * - TEME → ECEF keeps the IAU-82 GMST that SGP4 and the element sets are built on. It differs
+ *   from the IAU 2006 GMST by up to ~60 mas in the 2020s (~2 m at the surface); fine for passes.
+ * - Trajectories serve states in TEME of date (the axes of each instant), whatever their input;
+ *   the clock rate needs the true pole, which TEME and TOD share, and the speed, which a rotation
+ *   keeps. Numerical orbits integrate in GCRF (see numerical.ts).
  * - Polar motion (< 15 m at the surface) and UT1 − UTC (< 0.9 s, about 400 m at the equator
  *   for earth-fixed positions) are neglected: fine for passes and look angles, documented in reports.
  * - SP3 files are earth-fixed: their velocities become inertial by `ecefToTeme`, which adds ω × r.
  */
-import { e_tilt, MakeTime, Rotation_EQJ_EQD } from 'astronomy-engine';
 import { WGS84_OMEGA_RAD_PER_S } from '../constants.ts';
+import { biasPrecessionNutationMatrix, equationOfEquinoxesRad as iauEquationOfEquinoxesRad, meanObliquity2006Rad, multiply, nutation2006a, rotZ, type Matrix3 } from './iau/index.ts';
 import { vec3, type Vec3 } from './vec.ts';
+
+export type { Matrix3 } from './iau/index.ts';
 
 /** Julian date of J2000.0. */
 const JD_J2000 = 2451545.0;
+/** Seconds per Julian century. */
+const JULIAN_CENTURY_S = 36525 * 86400;
+
+/** TT Julian centuries since J2000.0 from seconds since J2000.0 TT. */
+export function ttCenturies(ttJ2000S: number): number {
+  return ttJ2000S / JULIAN_CENTURY_S;
+}
 
 /**
  * Greenwich mean sidereal time [rad], IAU-82 form used by SGP4 (Vallado et al. 2006, gstime).
+ * The one GMST of the TEME ↔ ECEF step. For sub-microsecond time resolution use
+ * {@link gmstRadFromUtcJ2000S}.
  * @param jdUt1 Julian date in UT1 (UTC is used as a stand-in by callers).
  */
 export function gmstRad(jdUt1: number): number {
-  const t = (jdUt1 - JD_J2000) / 36525;
-  let s = -6.2e-6 * t * t * t + 0.093104 * t * t + (876600 * 3600 + 8640184.812866) * t + 67310.54841;
-  s = ((s * Math.PI) / 180 / 240) % (2 * Math.PI);
-  return s < 0 ? s + 2 * Math.PI : s;
+  const d = jdUt1 - JD_J2000;
+  const whole = Math.floor(d);
+  return gmstRadFromUtcJ2000S(whole * 86400, (d - whole) * 86400);
+}
+
+/**
+ * GMST [rad], IAU-82, from UT1 (UTC as a stand-in) seconds since 2000-01-01T12:00:00 given as a
+ * whole part and a fraction, so that the angle keeps sub-microsecond time resolution. The
+ * 876600 h·T term equals the elapsed seconds and is taken modulo a day exactly.
+ */
+export function gmstRadFromUtcJ2000S(wholeS: number, fracS: number): number {
+  const tCenturies = (wholeS + fracS) / JULIAN_CENTURY_S;
+  const dayS = (((wholeS % 86400) + 86400) % 86400) + fracS;
+  const s = 67310.54841 + dayS + 8640184.812866 * tCenturies + 0.093104 * tCenturies * tCenturies - 6.2e-6 * tCenturies ** 3;
+  const r = ((s % 86400) * 2 * Math.PI) / 86400;
+  return r < 0 ? r + 2 * Math.PI : r;
 }
 
 /** TEME (or TOD, for positions) to earth-fixed at sidereal angle `gmst`. Position [any length unit]. */
@@ -58,24 +87,39 @@ export function ecefToTeme(r: Vec3<'ECEF'>, v: Vec3<'ECEF'>, gmst: number): { r:
   return { r: ecefToTemePosition(r, gmst), v: ecefToTemePosition(vi, gmst) };
 }
 
-/** 3×3 rotation as rows. */
-export type Matrix3 = readonly [readonly [number, number, number], readonly [number, number, number], readonly [number, number, number]];
-
-/**
- * Rotation GCRF → true-of-date at a UTC Julian date (astronomy-engine's EQJ → EQD: IAU 2006
- * precession and IAU 2000B nutation). The matrix applied as `r_tod = M · r_gcrf`.
- */
-export function gcrfToTodMatrix(jdUtc: number): Matrix3 {
-  const time = MakeTime(jdUtc - JD_J2000);
-  const rot = Rotation_EQJ_EQD(time).rot; // astronomy-engine stores column-major: rot[i][j] maps component i to j
-  return [
-    [rot[0][0], rot[1][0], rot[2][0]],
-    [rot[0][1], rot[1][1], rot[2][1]],
-    [rot[0][2], rot[1][2], rot[2][2]],
-  ];
+/** GCRF → true of date (N·P·B, IAU 2006/2000A) at seconds since J2000.0 TT: `r_tod = M · r_gcrf`. */
+export function gcrfToTodMatrixAtTt(ttJ2000S: number): Matrix3 {
+  return biasPrecessionNutationMatrix(ttCenturies(ttJ2000S));
 }
 
-export function applyMatrix<A extends 'GCRF' | 'TOD', B extends 'GCRF' | 'TOD'>(m: Matrix3, v: Vec3<A>): Vec3<B> {
+/**
+ * GCRF → true of date at a Julian date (IAU 2006/2000A). The date is taken as TT: given UTC,
+ * the 69 s of TT − UTC shift the matrix by about 0.1 mas; prefer {@link gcrfToTodMatrixAtTt}.
+ */
+export function gcrfToTodMatrix(jd: number): Matrix3 {
+  return gcrfToTodMatrixAtTt((jd - JD_J2000) * 86400);
+}
+
+/** Equation of the equinoxes [rad] (GAST − GMST, IAU 2006/2000A with complementary terms) at seconds since J2000.0 TT. */
+export function equationOfEquinoxesRadAtTt(ttJ2000S: number): number {
+  const t = ttCenturies(ttJ2000S);
+  return iauEquationOfEquinoxesRad(t, nutation2006a(t), meanObliquity2006Rad(t));
+}
+
+/** Equation of the equinoxes [rad] at a Julian date taken as TT (see {@link gcrfToTodMatrix}). */
+export function equationOfEquinoxesRad(jd: number): number {
+  return equationOfEquinoxesRadAtTt((jd - JD_J2000) * 86400);
+}
+
+/** GCRF → TEME of date, R3(EE)·N·P·B, at seconds since J2000.0 TT (one nutation evaluation). */
+export function gcrfToTemeMatrixAtTt(ttJ2000S: number): Matrix3 {
+  const t = ttCenturies(ttJ2000S);
+  const n = nutation2006a(t);
+  const ee = iauEquationOfEquinoxesRad(t, n, meanObliquity2006Rad(t));
+  return multiply(rotZ(ee), biasPrecessionNutationMatrix(t, n));
+}
+
+export function applyMatrix<A extends 'GCRF' | 'TOD' | 'TEME', B extends 'GCRF' | 'TOD' | 'TEME'>(m: Matrix3, v: Vec3<A>): Vec3<B> {
   return vec3<B>(
     m[0][0] * v[0] + m[0][1] * v[1] + m[0][2] * v[2],
     m[1][0] * v[0] + m[1][1] * v[1] + m[1][2] * v[2],
@@ -83,30 +127,20 @@ export function applyMatrix<A extends 'GCRF' | 'TOD', B extends 'GCRF' | 'TOD'>(
   );
 }
 
-/**
- * Equation of the equinoxes [rad] (GAST − GMST) at a UTC Julian date, from astronomy-engine's
- * nutation (IAU 2000B). TEME's x axis is the mean equinox projected on the true equator, so
- * r_TEME = Rz(EqEq)·r_TOD.
- */
-export function equationOfEquinoxesRad(jdUtc: number): number {
-  const eeSecondsOfTime = e_tilt(MakeTime(jdUtc - JD_J2000)).ee;
-  return (eeSecondsOfTime * 15 * Math.PI) / (180 * 3600);
-}
-
-function rotZ<A extends 'TOD' | 'TEME', B extends 'TOD' | 'TEME'>(v: readonly number[], angleRad: number): Vec3<B> {
+function rotZVec<B extends 'TOD' | 'TEME'>(v: readonly number[], angleRad: number): Vec3<B> {
   const c = Math.cos(angleRad);
   const s = Math.sin(angleRad);
-  return vec3<B>(c * v[0] + s * v[1], -s * v[0] + c * v[1], v[2]) as Vec3<B> & { __from?: A };
+  return vec3<B>(c * v[0] + s * v[1], -s * v[0] + c * v[1], v[2]);
 }
 
 /** True-of-date to TEME (same pole; rotation by the equation of the equinoxes). */
 export function todToTeme(r: Vec3<'TOD'>, eqEqRad: number): Vec3<'TEME'> {
-  return rotZ<'TOD', 'TEME'>(r, eqEqRad);
+  return rotZVec<'TEME'>(r, eqEqRad);
 }
 
 /** TEME to true-of-date. */
 export function temeToTod(r: Vec3<'TEME'>, eqEqRad: number): Vec3<'TOD'> {
-  return rotZ<'TEME', 'TOD'>(r, -eqEqRad);
+  return rotZVec<'TOD'>(r, -eqEqRad);
 }
 
 /** Transpose of a rotation (its inverse). */

@@ -29,28 +29,14 @@ import type { Sp3File } from '../model/sp3.ts';
 import { daysFromCivil } from '../time/calendar.ts';
 import { Instant } from '../time/instant.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
-import { ecefToTeme } from './frames.ts';
+import { ecefToTeme, gmstRadFromUtcJ2000S } from './frames.ts';
+
+export { gmstRadFromUtcJ2000S } from './frames.ts';
 import { checkSpan, type StateBlock, type Trajectory } from './trajectory.ts';
 import { vec3, type StateM } from './vec.ts';
 
 /** UTC label seconds (since 1970-01-01) of 2000-01-01T12:00:00, the J2000 point of the GMST formula. */
 const J2000_UTC_LABEL_S = daysFromCivil(2000, 1, 1) * 86400 + 43200;
-/** Seconds in a Julian century. */
-const JULIAN_CENTURY_S = 36525 * 86400;
-
-/**
- * GMST [rad], IAU-82 (the formula of {@link gmstRad}), from UT1 (UTC as a stand-in) seconds since
- * 2000-01-01T12:00:00 given as a whole part and a fraction, so that the angle keeps
- * sub-microsecond time resolution. The 876600 h·T term equals the elapsed seconds and is taken
- * modulo a day exactly.
- */
-export function gmstRadFromUtcJ2000S(wholeS: number, fracS: number): number {
-  const tCenturies = (wholeS + fracS) / JULIAN_CENTURY_S;
-  const dayS = (((wholeS % 86400) + 86400) % 86400) + fracS;
-  const s = 67310.54841 + dayS + 8640184.812866 * tCenturies + 0.093104 * tCenturies * tCenturies - 6.2e-6 * tCenturies ** 3;
-  const r = ((s % 86400) * 2 * Math.PI) / 86400;
-  return r < 0 ? r + 2 * Math.PI : r;
-}
 
 /**
  * GMST [rad] at seconds since J2000.0 TT, with UTC from the leap-second table standing in for UT1.

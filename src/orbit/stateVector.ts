@@ -2,19 +2,17 @@
  * Trajectories from a user's state vector (scenario `orbit.state`) or from osculating Keplerian
  * elements, built on {@link NumericalTrajectory} (or the exact two-body path for point gravity).
  *
- * Frames: a GCRF state is rotated to true-of-date of its epoch; a TEME state is used as is. Both
- * share the true pole needed by zonal gravity (see numerical.ts for the pole-of-epoch caveat).
+ * Frames: every state is integrated in GCRF (a TEME state is rotated to GCRF at its epoch) with the
+ * zonal field about the true pole of each instant; states are served in TEME of date (numerical.ts).
  * Times are TT seconds since J2000.0; the UTC Julian date of the epoch is passed in by the caller
  * (the core reads no time tables).
  */
 import { WGS84_A_M, WGS84_INV_F } from '../constants.ts';
 import { InputError } from '../errors.ts';
 import type { GravityModel } from './gravity.ts';
-import { applyMatrix, gcrfToTodMatrix } from './frames.ts';
 import { KeplerianTrajectory, keplerState, type KeplerianElements } from './keplerian.ts';
 import { NumericalTrajectory } from './numerical.ts';
 import type { Trajectory } from './trajectory.ts';
-import { vec3, type Vec3 } from './vec.ts';
 
 /** WGS-84 polar radius [m], a(1 − f) = 6356.752 km: no point of the surface is closer to the centre. */
 const WGS84_POLAR_RADIUS_M = WGS84_A_M * (1 - 1 / WGS84_INV_F);
@@ -35,7 +33,7 @@ export interface StateVectorInput {
   /** Span wanted, TT seconds since J2000.0 (may start before the epoch). */
   fromTtJ2000S: number;
   toTtJ2000S: number;
-  /** UTC Julian date of the epoch, for the GCRF → TOD rotation (unused for TEME). */
+  /** UTC Julian date of the epoch (no longer used: the frame chain runs on TT; kept for callers). */
   jdUtcAtEpoch: number;
   /** Path of the state in the user's input for messages, e.g. `satellites[2].orbit.state`; default `state of <id>`. */
   where?: string;
@@ -59,11 +57,11 @@ export function twoBodyPerigeeRadiusM(r: readonly number[], v: readonly number[]
 }
 
 /**
- * A numerical trajectory from a state vector [km, km/s].
+ * A numerical trajectory from a state vector [km, km/s], integrated in GCRF, served in TEME of date.
  *
- * - GCRF: r and v are rotated to TOD with the precession–nutation matrix of the epoch. The
- *   matrix's own rate (~1e-11 rad/s, i.e. ~1e-4 m/s at GNSS radius) is neglected for v.
- * - TEME: used as is (frame TEME).
+ * - GCRF: integrated as given.
+ * - TEME (of the epoch): rotated to GCRF at the epoch (IAU 2006/2000A with the equation of the
+ *   equinoxes). The velocity is the inertial one expressed in TEME axes, as SGP4 gives it.
  * - A position inside the polar radius 6356.752 km is refused (InputError on `<where>.positionKm`).
  * - Sub-orbital states (bound, two-body perigee below the 6378.137 km equatorial radius) are
  *   followed as a ballistic flight from the epoch until they come back down to their starting
@@ -92,19 +90,13 @@ export function trajectoryFromStateVector(p: StateVectorInput): NumericalTraject
       'give the geocentric position in km (not metres, not altitude)',
     );
   }
-  const rIn = vec3<'GCRF'>(p.positionKm[0] * 1000, p.positionKm[1] * 1000, p.positionKm[2] * 1000);
-  const vIn = vec3<'GCRF'>(p.velocityKmPerS[0] * 1000, p.velocityKmPerS[1] * 1000, p.velocityKmPerS[2] * 1000);
-  let r: readonly number[] = rIn;
-  let v: readonly number[] = vIn;
-  if (p.frame === 'GCRF') {
-    const m = gcrfToTodMatrix(p.jdUtcAtEpoch);
-    r = applyMatrix<'GCRF', 'TOD'>(m, rIn) as Vec3<'TOD'>;
-    v = applyMatrix<'GCRF', 'TOD'>(m, vIn) as Vec3<'TOD'>;
-  }
+  // GCRF states are integrated as given; TEME states are taken to GCRF at their epoch by the
+  // integrator (axes 'gcrf'). Either way the states come out in TEME of date.
+  const r = [p.positionKm[0] * 1000, p.positionKm[1] * 1000, p.positionKm[2] * 1000];
+  const v = [p.velocityKmPerS[0] * 1000, p.velocityKmPerS[1] * 1000, p.velocityKmPerS[2] * 1000];
   const gm = p.gravity.gmM3PerS2;
   const perigeeM = twoBodyPerigeeRadiusM(r, v, gm);
   const subOrbital = perigeeM !== null && perigeeM < WGS84_A_M;
-  const frame = p.frame === 'GCRF' ? 'TOD' : 'TEME';
   const source = `numerical integration (Cowell, ${p.gravity.name} gravity) from a ${p.frame} state vector`;
   if (subOrbital) {
     const rDotV = r[0] * v[0] + r[1] * v[1] + r[2] * v[2];
@@ -119,7 +111,8 @@ export function trajectoryFromStateVector(p: StateVectorInput): NumericalTraject
   // A sub-orbital state is followed from its epoch until it comes back to its starting radius.
   return new NumericalTrajectory({
     id: p.id,
-    frame,
+    frame: p.frame,
+    axes: 'gcrf',
     epochTtJ2000S: p.epochTtJ2000S,
     positionM: r,
     velocityMPerS: v,
@@ -151,6 +144,7 @@ export function trajectoryFromKeplerian(
   return new NumericalTrajectory({
     id,
     frame: 'TOD',
+    axes: 'gcrf',
     epochTtJ2000S: elements.epochTtJ2000S,
     positionM: r,
     velocityMPerS: v,

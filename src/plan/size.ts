@@ -4,7 +4,7 @@
  * sensitivity to the orbit. Contract: `tauplan size`.
  */
 import { InternalError } from '../errors.ts';
-import { clockStepS, GAUSS_POINTS_PER_STEP, integrateBulkAlong } from '../clock/integrate.ts';
+import { clockStepS, GAUSS_POINTS_PER_STEP, integrateBulkAlong, nodeQuadratureWeights } from '../clock/integrate.ts';
 import type { GravityModel } from '../orbit/gravity.ts';
 import { conventionalPeriodicS, SPEED_OF_LIGHT_SQUARED_M2_PER_S2 as C2, totalPotentialM2PerS2 } from '../clock/rate.ts';
 import { IERS2010_L_G, SECONDS_PER_DAY } from '../constants.ts';
@@ -127,9 +127,12 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
     xg[i] = g - 0.5 * pi;
     xv[i] = v - 0.5 * pi;
   }
-  const lt = lineFit(t, xt);
-  const lg = lineFit(t, xg);
-  const lv = lineFit(t, xv);
+  // Weighted by the quadrature weights, so that the node fit is the continuous least-squares line
+  // over the span (unweighted Gauss nodes, crowded at the step ends, bias it by ~1e-17 on a Molniya).
+  const w = nodeQuadratureWeights(m);
+  const lt = lineFit(t, xt, w);
+  const lg = lineFit(t, xg, w);
+  const lv = lineFit(t, xv, w);
   let rMin = Infinity;
   let rMax = -Infinity;
   for (let i = 0; i < m; i++) {
@@ -151,23 +154,30 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
   };
 }
 
-/** Least-squares line through (t, x) with centred time for precision. */
-export function lineFit(t: Float64Array, x: Float64Array): { slope: number; intercept: number; tMean: number } {
+/**
+ * Least-squares line through (t, x) with centred time for precision; with weights w (e.g. the
+ * quadrature weights of the nodes) the weighted fit Σ wᵢ (xᵢ − a − b tᵢ)².
+ */
+export function lineFit(t: Float64Array, x: Float64Array, w?: Float64Array): { slope: number; intercept: number; tMean: number } {
   const n = t.length;
+  let sw = 0;
   let tm = 0;
   let xm = 0;
   for (let i = 0; i < n; i++) {
-    tm += t[i];
-    xm += x[i];
+    const wi = w === undefined ? 1 : w[i];
+    sw += wi;
+    tm += wi * t[i];
+    xm += wi * x[i];
   }
-  tm /= n;
-  xm /= n;
+  tm /= sw;
+  xm /= sw;
   let sxx = 0;
   let sxy = 0;
   for (let i = 0; i < n; i++) {
+    const wi = w === undefined ? 1 : w[i];
     const dt = t[i] - tm;
-    sxx += dt * dt;
-    sxy += dt * (x[i] - xm);
+    sxx += wi * dt * dt;
+    sxy += wi * dt * (x[i] - xm);
   }
   if (!(sxx > 0)) throw new InternalError('line fit over a zero-length span', 'meanFractionalOffset');
   return { slope: sxy / sxx, intercept: xm, tMean: tm };

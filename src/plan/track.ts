@@ -3,7 +3,19 @@
  * ECEF, for analysts' own tools (contract `tauplan track`).
  */
 import { conventionalPeriodicS } from '../clock/rate.ts';
-import { applyMatrix, equationOfEquinoxesRad, gcrfToTodMatrix, temeToEcef, temeToTod, todToTeme, transpose } from '../orbit/frames.ts';
+import { applyMatrix, equationOfEquinoxesRadAtTt, temeToEcef, todToTeme, transpose, type Matrix3 } from '../orbit/frames.ts';
+import { gcrfToTemeInto } from '../orbit/temeOfDate.ts';
+
+const scratch = new Float64Array(9);
+/** GCRF → TEME of date at TT seconds since J2000.0 (interpolated IAU 2006/2000A chain, < 20 µas). */
+function matrixAt(ttJ2000S: number): Matrix3 {
+  const m = gcrfToTemeInto(ttJ2000S, scratch);
+  return [
+    [m[0], m[1], m[2]],
+    [m[3], m[4], m[5]],
+    [m[6], m[7], m[8]],
+  ];
+}
 import { allocStateBlock } from '../orbit/trajectory.ts';
 import { vec3, type Vec3 } from '../orbit/vec.ts';
 import { InputError } from '../errors.ts';
@@ -53,24 +65,19 @@ export function trackSatellite(run: SatelliteClockRun, fromTtJ2000S: number, toT
     const r0 = [p[3 * i], p[3 * i + 1], p[3 * i + 2]];
     const v0 = [v[3 * i], v[3 * i + 1], v[3 * i + 2]];
     const periodicNs = conventionalPeriodicS(r0[0], r0[1], r0[2], v0[0], v0[1], v0[2]) * 1e9;
-    // Bring the state to TEME first (the hub here), then to the wanted frame.
+    // Bring the state to TEME of date first (the hub here), then to the wanted frame.
     let rTeme: Vec3<'TEME'>;
     let vTeme: Vec3<'TEME'>;
-    const jd = earth.jdUtcAt(t[i]);
     if (src === 'TEME') {
       rTeme = vec3<'TEME'>(r0[0], r0[1], r0[2]);
       vTeme = vec3<'TEME'>(v0[0], v0[1], v0[2]);
     } else {
-      let rTod = vec3<'TOD'>(r0[0], r0[1], r0[2]);
-      let vTod = vec3<'TOD'>(v0[0], v0[1], v0[2]);
-      if (src === 'GCRF') {
-        const m = gcrfToTodMatrix(jd);
-        rTod = applyMatrix<'GCRF', 'TOD'>(m, vec3<'GCRF'>(r0[0], r0[1], r0[2]));
-        vTod = applyMatrix<'GCRF', 'TOD'>(m, vec3<'GCRF'>(v0[0], v0[1], v0[2]));
-      }
-      const ee = equationOfEquinoxesRad(jd);
-      rTeme = todToTeme(rTod, ee);
-      vTeme = todToTeme(vTod, ee);
+      // GCRF or TOD: through the IAU 2006/2000A chain at this instant (TT).
+      const gcrf = src === 'GCRF';
+      const toTeme = matrixAt(t[i]);
+      const ee = gcrf ? 0 : equationOfEquinoxesRadAtTt(t[i]);
+      rTeme = gcrf ? applyMatrix<'GCRF', 'TEME'>(toTeme, vec3<'GCRF'>(r0[0], r0[1], r0[2])) : todToTeme(vec3<'TOD'>(r0[0], r0[1], r0[2]), ee);
+      vTeme = gcrf ? applyMatrix<'GCRF', 'TEME'>(toTeme, vec3<'GCRF'>(v0[0], v0[1], v0[2])) : todToTeme(vec3<'TOD'>(v0[0], v0[1], v0[2]), ee);
     }
     let rOut: readonly number[];
     let vOut: readonly number[];
@@ -82,10 +89,9 @@ export function trackSatellite(run: SatelliteClockRun, fromTtJ2000S: number, toT
       rOut = e.r;
       vOut = e.v;
     } else {
-      const ee = equationOfEquinoxesRad(jd);
-      const back = transpose(gcrfToTodMatrix(jd));
-      rOut = applyMatrix<'TOD', 'GCRF'>(back, temeToTod(rTeme, ee));
-      vOut = applyMatrix<'TOD', 'GCRF'>(back, temeToTod(vTeme, ee));
+      const back = transpose(matrixAt(t[i]));
+      rOut = applyMatrix<'TEME', 'GCRF'>(back, rTeme);
+      vOut = applyMatrix<'TEME', 'GCRF'>(back, vTeme);
     }
     rows.push({
       ttJ2000S: t[i],

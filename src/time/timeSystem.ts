@@ -77,16 +77,22 @@ export class TimeSystem {
       c = this.utcCivil(new Instant(t.taiWholeS, rounded, 'UTC'));
     } else {
       const { wholeS, fracS } = t.labelS(scale);
-      c = civilFromSeconds(wholeS, Math.round(fracS * unit) / unit);
+      const rounded = Math.round(fracS * unit) / unit;
+      // A fraction that rounds up to a whole second carries into the label (these scales have no 23:59:60).
+      c = rounded >= 1 ? civilFromSeconds(wholeS + 1, rounded - 1) : civilFromSeconds(wholeS, rounded);
     }
     const text = formatCivil(c, fractionDigits);
     return scale === 'UTC' ? `${text}Z` : `${text} ${scale}`;
   }
 
-  /** GPS week number (not rolled over) and seconds of week. */
-  gpsWeek(t: Instant): { week: number; secondsOfWeek: number } {
+  /**
+   * GPS week number (not rolled over) and seconds of week. An instant before the GPS epoch
+   * (1980-01-06T00:00:00 GPS, IS-GPS-200) has no week: TimeError, never a negative week.
+   */
+  gpsWeek(t: Instant, where = 'time'): { week: number; secondsOfWeek: number } {
     const { wholeS, fracS } = t.labelS('GPS');
     const sinceEpoch = wholeS - GPS_EPOCH_DAY * 86400;
+    if (sinceEpoch < 0) throw new TimeError('instant is before GPS time began (1980-01-06T00:00:00 GPS), so it has no GPS week', where, 'use a time from 1980-01-06 on, or give it in UTC, TAI or TT');
     const week = Math.floor(sinceEpoch / GPS_WEEK_S);
     return { week, secondsOfWeek: sinceEpoch - week * GPS_WEEK_S + fracS };
   }
