@@ -25,7 +25,8 @@ const records = parseTleFile(readFileSync(new URL('sgp4-ver-subset.tle', FIXTURE
 const byCat = (cat: string): Sgp4Trajectory => {
   const rec = records.find((r) => r.catalogNumber === cat);
   if (rec === undefined) throw new Error(`fixture lacks ${cat}`);
-  return new Sgp4Trajectory(rec, ts);
+  // SGP4's own velocity: these checks compare with the published SGP4 output.
+  return new Sgp4Trajectory(rec, ts, { velocity: 'sgp4' });
 };
 
 /** One published unit of the last digit: 1e-8 km = 1e-5 m; 1e-9 km/s = 1e-6 m/s. */
@@ -175,4 +176,27 @@ describe('WASM bulk path (createBulkSgp4) against the plain sgp4() path', () => 
       bulk.dispose();
     }
   });
+});
+
+describe('default velocity: the time derivative of SGP4 position (issue: SGP4 velocity is not dr/dt)', () => {
+  for (const cat of ['00005', '06251', '28057']) {
+    it(`${cat}: stateAt velocity equals a 5-point derivative of SGP4 positions (1e-4 m/s)`, () => {
+      const raw = byCat(cat);
+      const rec = raw.elements;
+      const traj = new Sgp4Trajectory(rec, ts);
+      for (const minutes of [0.5, 360.25, 1440.75]) {
+        const t = traj.epochTtJ2000S + 60 * minutes;
+        const h = 1; // s; 4th-order stencil, truncation (hω)⁴/30 < 1e-14 relative (derived)
+        const p = (dt: number) => raw.stateAtMinutesSinceEpoch(minutes + dt / 60).positionM;
+        const [a, b, c, d] = [p(-2 * h), p(-h), p(h), p(2 * h)];
+        const want = [0, 1, 2].map((k) => (a[k] - 8 * b[k] + 8 * c[k] - d[k]) / (12 * h));
+        const got = traj.stateAt(t).velocityMPerS;
+        const diff = Math.hypot(got[0] - want[0], got[1] - want[1], got[2] - want[2]);
+        expect(diff, `${cat} at ${minutes} min: derivative velocity ${got.join(', ')} vs stencil ${want.join(', ')}`).toBeLessThan(1e-4);
+        const out = allocStateBlock(1);
+        traj.sampleInto(new Float64Array([t]), out);
+        expect(Math.hypot(out.velocityMPerS[0] - got[0], out.velocityMPerS[1] - got[1], out.velocityMPerS[2] - got[2])).toBeLessThan(1e-8); // same stencil, summed in another order
+      }
+    });
+  }
 });
