@@ -28,21 +28,25 @@ interface DemoSat {
 
 const SATS: DemoSat[] = [
   // Four MEO timing satellites, two planes, GPS-like radius.
-  { id: 'TSR-1', name: 'TESSERA 1', el: { catalogNumber: 90101, designator: '27001A', inclinationDeg: 55, raanDeg: 20, eccentricity: 0.0021, argpDeg: 40, meanAnomalyDeg: 0, meanMotionRevPerDay: revPerDay(26560) }, clock: 'offsetNs: 12.5, hardwareFractionalOffset: -4.4640e-10, agingPerDay: 2.0e-15, keepInNs: 100', measurements: 'tsr1-offsets.csv' },
-  { id: 'TSR-2', name: 'TESSERA 2', el: { catalogNumber: 90102, designator: '27001B', inclinationDeg: 55, raanDeg: 20, eccentricity: 0.0105, argpDeg: 200, meanAnomalyDeg: 180, meanMotionRevPerDay: revPerDay(26560) }, clock: 'offsetNs: -40.0, hardwareFractionalOffset: -4.4660e-10, agingPerDay: -1.0e-15, keepInNs: 150' },
+  { id: 'TSR-1', name: 'TESSERA 1', el: { catalogNumber: 90101, designator: '27001A', inclinationDeg: 55, raanDeg: 20, eccentricity: 0.0021, argpDeg: 40, meanAnomalyDeg: 0, meanMotionRevPerDay: revPerDay(26560) }, clock: 'offsetNs: 12.5, hardwareFractionalOffset: -4.4640e-10, agingPerDay: 2.0e-15, keepInNs: 100, steps: { phaseResolutionNs: 0.1, frequencyResolution: 1.0e-15, maxFrequencyStep: 2.0e-12 }', measurements: 'tsr1-offsets.csv' },
+  { id: 'TSR-2', name: 'TESSERA 2', el: { catalogNumber: 90102, designator: '27001B', inclinationDeg: 55, raanDeg: 20, eccentricity: 0.0105, argpDeg: 200, meanAnomalyDeg: 180, meanMotionRevPerDay: revPerDay(26560) }, clock: 'offsetNs: -40.0, hardwareFractionalOffset: -4.4660e-10, agingPerDay: -1.0e-15, keepInNs: 150, steps: { phaseResolutionNs: 0.5, frequencyResolutionHz: 1.0e-8, maxFrequencyStep: 1.0e-12 }, nominalHz: 10.23e6' },
   { id: 'TSR-3', name: 'TESSERA 3', el: { catalogNumber: 90103, designator: '27002A', inclinationDeg: 55, raanDeg: 140, eccentricity: 0.0045, argpDeg: 90, meanAnomalyDeg: 90, meanMotionRevPerDay: revPerDay(26560) }, clock: 'offsetNs: 0.0, hardwareFractionalOffset: -4.4647e-10, agingPerDay: 5.0e-16, keepInNs: 200' },
   { id: 'TSR-4', name: 'TESSERA 4', el: { catalogNumber: 90104, designator: '27002B', inclinationDeg: 55, raanDeg: 140, eccentricity: 0.0008, argpDeg: 300, meanAnomalyDeg: 270, meanMotionRevPerDay: revPerDay(26560) }, clock: 'offsetNs: 75.0, hardwareFractionalOffset: -4.4640e-10, agingPerDay: 0, keepInNs: 400' },
   // One eccentric orbit (12-hour, e = 0.6): large periodic term.
   { id: 'TSR-E1', name: 'TESSERA ECCENTRIC', el: { catalogNumber: 90105, designator: '27003A', inclinationDeg: 63.4, raanDeg: 75, eccentricity: 0.6, argpDeg: 270, meanAnomalyDeg: 10, meanMotionRevPerDay: revPerDay(26560) }, clock: 'offsetNs: 0.0, hardwareFractionalOffset: -4.4620e-10, agingPerDay: 0, keepInNs: 3000' },
   // One low-orbit demonstrator.
-  { id: 'TSR-L1', name: 'TESSERA LOW DEMO', el: { catalogNumber: 90106, designator: '27004A', inclinationDeg: 97.6, raanDeg: 110, eccentricity: 0.0012, argpDeg: 80, meanAnomalyDeg: 0, meanMotionRevPerDay: revPerDay(6378.137 + 560), bstar: 2.1e-5 }, clock: 'offsetNs: 5.0, hardwareFractionalOffset: 2.62e-10, agingPerDay: 1.0e-14, keepInNs: 500' },
+  { id: 'TSR-L1', name: 'TESSERA LOW DEMO', el: { catalogNumber: 90106, designator: '27004A', inclinationDeg: 97.6, raanDeg: 110, eccentricity: 0.0012, argpDeg: 80, meanAnomalyDeg: 0, meanMotionRevPerDay: revPerDay(6378.137 + 560), bstar: 2.1e-5 }, clock: 'offsetNs: 5.0, hardwareFractionalOffset: 2.62e-10, agingPerDay: 1.0e-14, keepInNs: 500, steps: { phaseResolutionNs: 1.0, frequencyResolution: 1.0e-14, maxFrequencyStep: 5.0e-12 }' },
 ];
 
-const STATIONS = `  # Invented ground stations (names and sites made up for the demo).
+const STATIONS = `  # Invented ground stations (names and sites made up for the demo). SERRAT-RIDGE only receives:
+  # it appears in passes but never carries an adjustment.
   - { id: BRINDLEMOOR, latDeg: 53.05, lonDeg: -2.31, heightM: 240, geoidHeightM: 49, maskDeg: 10, minPassS: 300 }
   - { id: QUILLAN-FLATS, latDeg: -31.72, lonDeg: 116.05, heightM: 310, geoidHeightM: -30, maskDeg: 10, minPassS: 300 }
-  - { id: SERRAT-RIDGE, latDeg: 19.62, lonDeg: -155.48, heightM: 2100, geoidHeightM: 10, maskDeg: 15, minPassS: 300 }
+  - { id: SERRAT-RIDGE, latDeg: 19.62, lonDeg: -155.48, heightM: 2100, geoidHeightM: 10, maskDeg: 15, minPassS: 300, uplink: false }
 `;
+
+/** An invented uplink maintenance window for TSR-1 (placed where its best pass would be, to show the plan moving it). */
+const BLACKOUT = { start: '2027-01-13T00:00:00Z', end: '2027-01-14T00:00:00Z' };
 
 function scenarioYaml(): string {
   const sats = SATS.map((s) => {
@@ -69,7 +73,17 @@ reference: GPS
 satellites:
 ${sats}
 stations:
-${STATIONS}policy: { marginNs: 20, leadTime: 2h, prefer: phase, horizon: 28d }
+${STATIONS}# Invented operations constraints: steer to 0 ns with phase and frequency together, at least 12 h
+# between two adjustments of a satellite, and a maintenance blackout of the TSR-1 uplink.
+policy:
+  marginNs: 20
+  leadTime: 2h
+  prefer: combined
+  target: { offsetNs: 0 }
+  minSpacing: 12h
+  horizon: 28d
+  blackouts:
+    - { start: ${BLACKOUT.start}, end: ${BLACKOUT.end}, satellites: [TSR-1] }
 `;
 }
 

@@ -60,12 +60,15 @@ describe('contract JSON fields', () => {
     expect(sats.length).toBeGreaterThan(0);
     let adjustments = 0;
     for (const s of sats) {
-      hasFields(s, { satellite: 'string', limitNs: 'number', firstCrossing: 'object|null', adjustments: 'object' });
-      if (s.firstCrossing !== null) hasFields(s.firstCrossing, { at: 'string', earliest: 'string', latest: 'string' });
+      hasFields(s, { satellite: 'string', limitNs: 'number', firstCrossing: 'object|null', adjustments: 'object', crossingProbabilityWithinHorizon: 'number', strategies: 'object', notes: 'object' });
+      // Version 2: latest is null when the far band edge does not reach the limit within the horizon.
+      if (s.firstCrossing !== null) hasFields(s.firstCrossing, { at: 'string', side: 'string', earliest: 'string', latest: 'string|null' });
+      for (const st of s.strategies as unknown[]) hasFields(st, { prefer: 'string', adjustments: 'number', minMarginNs: 'number', maxPhaseStepNs: 'number', maxFrequencyStep: 'number' });
+      expect((s.strategies as { prefer: string }[]).map((st) => st.prefer)).toEqual(['phase', 'frequency', 'combined']);
       for (const a of s.adjustments as Record<string, unknown>[]) {
         adjustments++;
-        hasFields(a, { at: 'string', station: 'string', passAos: 'string', passLos: 'string', kind: 'string', phaseStepNs: 'number', frequencyStep: 'number', offsetBeforeNs: 'number', offsetAfterNs: 'number' });
-        expect(['phase', 'frequency']).toContain(a.kind);
+        hasFields(a, { at: 'string', station: 'string', passAos: 'string', passLos: 'string', kind: 'string', phaseStepNs: 'number', frequencyStep: 'number', offsetBeforeNs: 'number', offsetAfterNs: 'number', frequencyStepHz: 'number', frequencyStepNsPerDay: 'number', quantisationErrorNs: 'number' });
+        expect(['phase', 'frequency', 'combined']).toContain(a.kind);
         expect((a.at as string) >= (a.passAos as string) && (a.at as string) <= (a.passLos as string)).toBe(true);
       }
     }

@@ -8,6 +8,7 @@ import { defaultTimeSystem, LEAP_SECONDS_ENV } from '../io/tables.ts';
 import { checkOutputTarget, hookSignals, noteInputFile, removePendingTemps, setOutputDefaults, writeFault } from '../io/output.ts';
 import { checkNumberOptions, refuseCatalogueOptionsWithoutAll, refuseRepeatedOptions } from './options.ts';
 import { oneLineText } from '../report/safeText.ts';
+import { withCliNow } from './now.ts';
 import { enableWasmSgp4 } from '../orbit/sgp4.ts';
 import { emit, OUTPUT_FORMATS, type OutputFormat } from './emit.ts';
 import { runTime } from './commands/time.ts';
@@ -34,7 +35,7 @@ function common<T>(y: Argv<T>) {
 }
 
 function parser(args: string[]) {
-  const ts = defaultTimeSystem();
+  const ts = withCliNow(defaultTimeSystem());
   return yargs(args)
     .scriptName('tauplan')
     .usage('tauplan — onboard clock planning for timing engineers (planning aid; verify before uplink)\n\nUsage: tauplan <command> [options]')

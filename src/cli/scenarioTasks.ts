@@ -12,6 +12,8 @@ export interface ScenarioTask {
   task: 'passes' | 'resets';
   /** The command's arguments with `sat` narrowed to one satellite. */
   args: { scenario: string; sat: string } & Record<string, unknown>;
+  /** What `now` means in the arguments (the main thread's reading, s since J2000.0 TT), if it has one. */
+  nowTtJ2000S?: number;
 }
 
 export interface ScenarioReply {

@@ -5,6 +5,8 @@
 import { parentPort } from 'node:worker_threads';
 import { InputError } from '../errors.ts';
 import { defaultTimeSystem } from '../io/tables.ts';
+import { Instant } from '../time/instant.ts';
+import { withCliNow } from './now.ts';
 import { enableWasmSgp4 } from '../orbit/sgp4.ts';
 import { computePassRows } from './commands/passes.ts';
 import { computeResets } from './commands/resets.ts';
@@ -29,6 +31,7 @@ function runTask(task: ScenarioTask, ts: ReturnType<typeof defaultTimeSystem>): 
 if (parentPort !== null) {
   await enableWasmSgp4();
   const port = parentPort;
-  const ts = defaultTimeSystem();
-  port.on('message', (task: ScenarioTask) => port.postMessage(runTask(task, ts)));
+  // `now` as the main thread read it; the worker's own reading only if the main thread never used it.
+  const ts = withCliNow(defaultTimeSystem());
+  port.on('message', (task: ScenarioTask) => port.postMessage(runTask(task, task.nowTtJ2000S === undefined ? ts : ts.withNow(Instant.fromTtJ2000S(task.nowTtJ2000S, 'UTC')))));
 }

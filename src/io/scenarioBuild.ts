@@ -49,6 +49,7 @@ export function buildSpec(raw: RawScenario, ctx: Context): ScenarioSpec {
               randomWalkFmAdev1d: c.noise?.randomWalkFmAdev1d ?? 0,
             },
             keepInNs: c.keepInNs ?? null,
+            ...clockSteps(c, [...base, 'clock'], ctx),
           };
     const measurementsFile = sat.measurements === undefined ? null : resolve(dirname(resolve(ctx.fileName)), sat.measurements);
     return { id: sat.id, name, orbit, clock, measurementsFile, path: formatPath(base) };
@@ -66,6 +67,7 @@ export function buildSpec(raw: RawScenario, ctx: Context): ScenarioSpec {
       geoidHeightGiven: st.geoidHeightM !== undefined,
       maskDeg: st.maskDeg ?? 10,
       minPassS: st.minPassS ?? 300,
+      uplink: st.uplink ?? true,
       path: formatPath(base),
     };
   });
@@ -74,10 +76,23 @@ export function buildSpec(raw: RawScenario, ctx: Context): ScenarioSpec {
   const policy: ResetPolicySpec = {
     marginNs: p?.marginNs ?? 0,
     leadTimeS: p?.leadTime === undefined ? null : ctx.durationS(p.leadTime, ['policy', 'leadTime']),
-    prefer: p?.prefer ?? 'phase',
+    prefer: p?.prefer ?? 'combined',
     horizonS: ctx.durationS(p?.horizon ?? DEFAULT_HORIZON, ['policy', 'horizon']),
+    targetNs: p?.target?.offsetNs ?? 0,
+    blackouts: (p?.blackouts ?? []).map((b, i) => {
+      const at: PathSeg[] = ['policy', 'blackouts', i];
+      const bStart = ctx.time(b.start, [...at, 'start']);
+      const bEnd = ctx.time(b.end, [...at, 'end']);
+      if (!(bEnd.minusS(bStart) > 0)) throw ctx.error([...at, 'end'], `blackout end ${JSON.stringify(b.end)} is not after its start ${JSON.stringify(b.start)}`, 'make each blackout end later than it starts');
+      (b.satellites ?? []).forEach((id, k) => {
+        if (!satellites.some((sat) => sat.id === id)) throw ctx.error([...at, 'satellites', k], `no satellite ${JSON.stringify(id)} in the scenario`, `use one of ${satellites.map((sat) => sat.id).join(', ')}`);
+      });
+      return { start: bStart, end: bEnd, satellites: b.satellites ?? null };
+    }),
+    minSpacingS: p?.minSpacing === undefined ? 0 : ctx.durationS(p.minSpacing, ['policy', 'minSpacing']),
   };
   if (!(policy.horizonS > 0)) throw ctx.error(['policy', 'horizon'], 'the horizon is zero', 'give a span greater than zero, e.g. 180d');
+  if (policy.minSpacingS < 0) throw ctx.error(['policy', 'minSpacing'], `minimum spacing ${p?.minSpacing} is negative`, 'give a span of 0 or more, e.g. 2d');
   for (const sat of satellites) {
     const limit = sat.clock?.keepInNs ?? null;
     if (limit !== null && !(policy.marginNs < limit)) {
@@ -85,6 +100,13 @@ export function buildSpec(raw: RawScenario, ctx: Context): ScenarioSpec {
         ['policy', 'marginNs'],
         `margin ${policy.marginNs} ns is not below the keep-in limit ${limit} ns of ${sat.path}.clock.keepInNs`,
         'make policy.marginNs smaller than every satellite keepInNs',
+      );
+    }
+    if (limit !== null && !(Math.abs(policy.targetNs) < limit - policy.marginNs)) {
+      throw ctx.error(
+        ['policy', 'target', 'offsetNs'],
+        `target ${policy.targetNs} ns is outside the keep-in limit ${limit} ns minus the margin ${policy.marginNs} ns of ${sat.path}`,
+        `give a target between −${limit - policy.marginNs} and ${limit - policy.marginNs} ns (0 steers to the reference)`,
       );
     }
   }
@@ -101,6 +123,24 @@ export function buildSpec(raw: RawScenario, ctx: Context): ScenarioSpec {
     stations,
     policy,
   };
+}
+
+/** Default nominal oscillator frequency [Hz] (contract, `size --nominal-hz` default). */
+const DEFAULT_NOMINAL_HZ = 10.23e6;
+
+/** `clock.steps` and `clock.nominalHz`, frequency steps made fractional, with the cross-field checks. */
+function clockSteps(c: NonNullable<RawScenario['satellites'][number]['clock']>, path: PathSeg[], ctx: Context): Pick<ClockSpec, 'steps' | 'nominalHz'> {
+  const nominalHz = c.nominalHz ?? DEFAULT_NOMINAL_HZ;
+  const s = c.steps;
+  if (s?.frequencyResolution !== undefined && s.frequencyResolutionHz !== undefined) {
+    throw ctx.error([...path, 'steps', 'frequencyResolutionHz'], 'both frequencyResolution and frequencyResolutionHz given', 'give the resolution once: fractional (frequencyResolution) or in Hz (frequencyResolutionHz)');
+  }
+  const frequencyResolution = s?.frequencyResolution ?? (s?.frequencyResolutionHz === undefined ? null : s.frequencyResolutionHz / nominalHz);
+  const maxFrequencyStep = s?.maxFrequencyStep ?? null;
+  if (maxFrequencyStep !== null && frequencyResolution !== null && maxFrequencyStep < frequencyResolution) {
+    throw ctx.error([...path, 'steps', 'maxFrequencyStep'], `largest step ${maxFrequencyStep} is smaller than the resolution ${frequencyResolution}`, 'make maxFrequencyStep at least one resolution step (both fractional)');
+  }
+  return { steps: { phaseResolutionNs: s?.phaseResolutionNs ?? null, frequencyResolution, maxFrequencyStep }, nominalHz };
 }
 
 function buildOrbit(o: RawScenario['satellites'][number]['orbit'], path: PathSeg[], ctx: Context): OrbitSpec {

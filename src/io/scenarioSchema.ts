@@ -70,6 +70,15 @@ const ClockSchema = z.strictObject({
     })
     .optional(),
   keepInNs: z.number().min(MIN_KEEP_IN_NS).max(MAX_CLOCK_OFFSET_NS).optional(),
+  steps: z
+    .strictObject({
+      phaseResolutionNs: z.number().positive().optional(),
+      frequencyResolution: z.number().positive().optional(),
+      frequencyResolutionHz: z.number().positive().optional(),
+      maxFrequencyStep: z.number().positive().optional(),
+    })
+    .optional(),
+  nominalHz: z.number().positive().optional(),
 });
 
 const SatelliteSchema = z.strictObject({
@@ -88,13 +97,17 @@ const StationSchema = z.strictObject({
   geoidHeightM: z.number().min(-GEOID_HEIGHT_LIMIT_M).max(GEOID_HEIGHT_LIMIT_M).optional(),
   maskDeg: z.number().min(-5).lt(90).optional(),
   minPassS: z.number().min(0).optional(),
+  uplink: z.boolean().optional(),
 });
 
 const PolicySchema = z.strictObject({
   marginNs: z.number().min(0).max(MAX_CLOCK_OFFSET_NS).optional(),
   leadTime: text.optional(),
-  prefer: z.enum(['phase', 'frequency']).optional(),
+  prefer: z.enum(['phase', 'frequency', 'combined']).optional(),
   horizon: text.optional(),
+  target: z.strictObject({ offsetNs: z.number() }).optional(),
+  blackouts: z.array(z.strictObject({ start: text, end: text, satellites: z.array(text).optional() })).optional(),
+  minSpacing: text.optional(),
 });
 
 export const ScenarioSchema = z.strictObject({
@@ -137,6 +150,13 @@ export const FIELD_HINTS: Record<string, string> = {
   satellites: 'list at least one satellite under satellites:',
   tle: 'write the TLE as a block text (tle: |) or as a list [line1, line2]',
   omm: 'give CCSDS OMM keys with text or number values, e.g. OBJECT_NAME, EPOCH, MEAN_MOTION',
+  phaseResolutionNs: 'give the smallest phase step in ns, greater than 0',
+  frequencyResolution: 'give the smallest fractional frequency step, greater than 0 (e.g. 1e-15)',
+  frequencyResolutionHz: 'give the smallest frequency step in Hz at clock.nominalHz, greater than 0',
+  maxFrequencyStep: 'give the largest fractional frequency step, greater than 0 and at least the resolution',
+  nominalHz: 'give the nominal oscillator frequency in Hz, greater than 0 (default 10.23e6)',
+  uplink: 'write uplink: true or uplink: false',
+  prefer: 'use phase, frequency or combined',
   id: 'give a non-empty text id; in YAML quote an id that looks like a number, e.g. id: "43873"',
 };
 

@@ -9,8 +9,8 @@ import type { Station } from './station.ts';
 export type GravityModelName = 'point' | 'j2' | 'zonal';
 /** Time scale that `offsetNs` is measured against. All three tick at the geoid rate. */
 export type ReferenceScale = 'GPS' | 'TAI' | 'TT';
-/** Kind of clock adjustment the resets planner prefers. */
-export type AdjustmentKind = 'phase' | 'frequency';
+/** How the resets planner adjusts a clock (phase steps, frequency steps, or both together). */
+export type AdjustmentKind = 'phase' | 'frequency' | 'combined';
 
 /** A TLE, split but not parsed. Lines are kept as written (trailing spaces removed). */
 export interface TleOrbitSpec {
@@ -102,6 +102,20 @@ export interface ClockSpec {
   noise: ClockNoiseSpec;
   /** |offsetNs| must stay below this [ns]; null: no keep-in limit. */
   keepInNs: number | null;
+  /** Extra key `clock.steps`: what the steering hardware can do (null fields: continuous, unlimited). */
+  steps: ClockStepsSpec;
+  /** Extra key `clock.nominalHz`: nominal oscillator frequency [Hz], for steps in Hz. Default 10.23e6. */
+  nominalHz: number;
+}
+
+/** Hardware step sizes; `frequencyResolutionHz` in the file is converted with `nominalHz`. */
+export interface ClockStepsSpec {
+  /** Smallest phase step [ns], > 0. */
+  phaseResolutionNs: number | null;
+  /** Smallest fractional frequency step [1], > 0. */
+  frequencyResolution: number | null;
+  /** Largest fractional frequency step in size [1], ≥ frequencyResolution. */
+  maxFrequencyStep: number | null;
 }
 
 /** One satellite. */
@@ -130,6 +144,8 @@ export interface SatelliteSpec {
  * defaults geoidHeightM 0, maskDeg 10, minPassS 300).
  */
 export interface StationSpec extends Station {
+  /** Extra key `uplink`: the station can send adjustments (default true). Passes list every station. */
+  uplink: boolean;
   /** JSON path of this entry (`stations[0]`), for messages from later stages. */
   path: string;
   /** False when the scenario left geoidHeightM out (0 is then assumed; reports carry a note). */
@@ -142,8 +158,14 @@ export interface ResetPolicySpec {
   marginNs: number;
   /** `policy.leadTime` in seconds, ≥ 0; null when not given (the planner decides). */
   leadTimeS: number | null;
-  /** Preferred adjustment kind. Default phase. */
+  /** Strategy. Default combined. */
   prefer: AdjustmentKind;
+  /** Extra key `policy.target.offsetNs`: the offset to steer toward [ns]. Default 0; inside every limit minus the margin. */
+  targetNs: number;
+  /** Extra key `policy.blackouts`: spans with no adjustment, for the listed satellites (null: all). End after start. */
+  blackouts: { start: Instant; end: Instant; satellites: string[] | null }[];
+  /** Extra key `policy.minSpacing`: shortest time between two adjustments of one satellite [s], ≥ 0. Default 0. */
+  minSpacingS: number;
   /** Extra key `policy.horizon`: how far ahead `resets` looks [s]. Default 180 d; `--horizon` overrides. */
   horizonS: number;
 }

@@ -2,7 +2,7 @@
  * Sizing one keep-in adjustment (physics.md §7).
  * Phase: step the offset to the value x0 in the usable band [−B, B] (B = keepIn − margin) that
  * gives the longest time until the next crossing, for a clock moving as x0 + r·τ + D·τ²/2.
- * Frequency: cancel the current mean fractional rate r.
+ * Combined: set offset and rate together (combinedStart). Frequency sizing is numeric (strategy.ts).
  * The orbit's periodic term (a few ns to tens of ns) is left out of the choice; the planner
  * re-predicts with it after every adjustment.
  */
@@ -49,4 +49,32 @@ export function bestPhaseNs(r: number, d: number, b: number): number {
   const excursion = (r * r) / (2 * Math.abs(d));
   if (excursion <= 2 * b) return dir * (b - excursion);
   return -dir * b;
+}
+
+/**
+ * Longest interval [s] a clock with constant aging d [ns/s²] and no noise can stay inside ±b [ns]
+ * when offset and rate are both set: the parabola that starts on one limit, touches the other at
+ * its vertex and comes back, T = 4·√(b/|d|) (b = |d|·(T/2)²/2 from the vertex). Infinity for d = 0.
+ */
+export function combinedIntervalS(b: number, d: number): number {
+  if (d === 0) return Infinity;
+  return 4 * Math.sqrt(Math.max(0, b) / Math.abs(d));
+}
+
+/**
+ * The offset [ns] and rate [ns/s] the combined strategy sets, for aging d [ns/s²], usable half-band
+ * b [ns], target offset [ns] and the time left to the horizon [s]:
+ * - when the longest parabola would outlast the horizon and a smaller one centred on the target
+ *   (half-width |d|·H²/16) fits, that one (the clock stays as near the target as it can);
+ * - otherwise the longest: start on the limit aging pushes toward, x0 = sign(d)·b, rate −d·T/2.
+ * With d = 0: the target offset and zero rate.
+ */
+export function combinedStart(d: number, b: number, targetNs: number, remainingS: number): { offsetNs: number; rateNsPerS: number; intervalS: number } {
+  if (d === 0) return { offsetNs: targetNs, rateNsPerS: 0, intervalS: Infinity };
+  const t = combinedIntervalS(b, d);
+  const half = (Math.abs(d) * remainingS * remainingS) / 16;
+  if (t >= remainingS && half <= b - Math.abs(targetNs)) {
+    return { offsetNs: targetNs + Math.sign(d) * half, rateNsPerS: (-d * remainingS) / 2, intervalS: remainingS };
+  }
+  return { offsetNs: Math.sign(d) * b, rateNsPerS: (-d * t) / 2, intervalS: t };
 }

@@ -1,73 +1,119 @@
 /**
- * Use case `resets`: when does each onboard clock leave its keep-in limit, and in which real pass
- * should the adjustment go (physics.md §6–7; contract `tauplan resets`).
+ * Use case `resets`: when does each onboard clock leave its keep-in limit, on which side, and in
+ * which real pass should each adjustment go (physics.md §6–7; contract `tauplan resets`).
  *
  * Method:
- * 1. Predict the offset x(t) with every adjustment planned so far (piecewise: phase steps and
- *    frequency steps applied at their instants) on top of the free-running model.
- * 2. Find the first crossing of |x| = L by a coarse scan (step ≤ 10 min and ≤ P/8, so the orbit's
- *    periodic term cannot hide a crossing) and a capped bisection to 0.1 s. The 95 % band shifts
- *    |x| by ±1.96 σx(τ), τ counted from the last adjustment (a fresh measurement is assumed there)
- *    or from the plan start.
- * 3. The adjustment goes in the last qualifying pass (any station, ending before the earliest edge
- *    of the crossing of |x| = L − margin, minus the lead time), at that pass's TCA.
- * 4. Phase: step to the value that maximises the time to the next crossing (adjust.ts), inside the
- *    band narrowed by the margin and the orbit's periodic swing. Frequency:
- *    cancel the mean rate over one orbit. `prefer` chooses which is applied; both sizes are reported.
- * 5. Repeat to the horizon. Every loop is capped.
+ * 1. Predict the offset x(t) with every adjustment planned so far (phase and frequency steps at
+ *    their instants) on top of the free-running model.
+ * 2. Find the next crossing of each limit separately (crossing.ts); the 95 % band (band.ts) counts
+ *    from the last adjustment (a fresh measurement is assumed there) or from the plan start.
+ * 3. Deadline: the first instant the band's edge on that side reaches limit − margin, minus the lead
+ *    time. The adjustment goes at the TCA of the last pass that ends before it at an uplink station,
+ *    outside every blackout and at least `minSpacing` after the previous adjustment; when a better
+ *    pass had to be skipped, the plan says why.
+ * 4. Size it with the chosen strategy (strategy.ts), quantised to the hardware's steps (quantise.ts).
+ * 5. Repeat to the horizon (every loop capped). The other two strategies are planned the same way
+ *    for the comparison.
  */
-import { predictionSigmaNs, Z95 } from '../clock/noise.ts';
-import type { OnboardClock, NoiseLevels } from '../clock/oscillator.ts';
+import { SECONDS_PER_DAY } from '../constants.ts';
+import type { NoiseLevels, OnboardClock } from '../clock/oscillator.ts';
 import { InternalError } from '../errors.ts';
-import { bestPhaseNs } from './adjust.ts';
+import { band95Ns, bandSigmaNs, outsideProbability } from './band.ts';
+import { blackoutOf, blackoutsCover, type Blackout, type Contact } from './contacts.ts';
+import { crossingAfter, firstLevelTimes, signOf, type Crossing } from './crossing.ts';
+import { CONTINUOUS_STEPS, type ClockSteps } from './quantise.ts';
+import { sizeAdjustment, type Strategy } from './strategy.ts';
 
-/** A contact usable for an adjustment (already filtered by mask and minimum length). */
-export interface Contact {
-  station: string;
-  aosTtJ2000S: number;
-  tcaTtJ2000S: number;
-  losTtJ2000S: number;
-}
+export type { Contact, Blackout } from './contacts.ts';
+export type { Crossing, Side } from './crossing.ts';
+export { firstRoot } from './crossing.ts';
+export type { Strategy } from './strategy.ts';
+
+/** Nominal oscillator frequency [Hz] when the clock block gives none (contract, `size --nominal-hz`). */
+export const DEFAULT_NOMINAL_HZ = 10.23e6;
 
 export interface ResetPolicy {
+  /** Act before the band reaches limit − margin [ns]. */
   marginNs: number;
+  /** Act at least this long before that [s]. */
   leadTimeS: number;
-  prefer: 'phase' | 'frequency';
+  prefer: Strategy;
+  /** Offset to steer toward [ns]; default 0. */
+  targetNs?: number;
+  /** Shortest time between two adjustments of one satellite [s]; default 0. */
+  minSpacingS?: number;
+  blackouts?: Blackout[];
 }
 
-export interface Crossing {
-  atTtJ2000S: number;
-  earliestTtJ2000S: number;
-  latestTtJ2000S: number;
-  /** Sign of the offset at the crossing: +1 upper limit, −1 lower. */
-  side: 1 | -1;
+/** A pass skipped for an adjustment: in a blackout, or too soon after the previous adjustment. */
+export interface MovedFrom {
+  station: string;
+  tcaTtJ2000S: number;
+  because: 'blackout' | 'minSpacing';
+  /** The blackout it fell in (for `blackout`). */
+  blackout: Blackout | null;
+  minSpacingS: number;
 }
+
+export type AdjustmentKind = 'phase' | 'frequency' | 'combined';
 
 export interface Adjustment {
   atTtJ2000S: number;
   station: string;
   passAosTtJ2000S: number;
   passLosTtJ2000S: number;
-  kind: 'phase' | 'frequency';
+  kind: AdjustmentKind;
+  /** Applied (quantised) phase step [ns]. */
   phaseStepNs: number;
+  /** Applied (quantised) fractional frequency step. */
   frequencyStep: number;
+  /** The frequency step in Hz at the nominal frequency. */
+  frequencyStepHz: number;
+  /** The frequency step as offset drift [ns/day]. */
+  frequencyStepNsPerDay: number;
+  /** Offset difference [ns] the rounding to hardware steps makes by the next adjustment (or the horizon end). */
+  quantisationErrorNs: number;
+  /** The steps before rounding to the hardware's resolution. */
+  unquantised: { phaseStepNs: number; frequencyStep: number };
   offsetBeforeNs: number;
   offsetAfterNs: number;
   /** The crossing this adjustment pre-empts (predicted with the plan so far). */
   crossing: Crossing;
-  /** True when the offset was already outside the limit at the start. */
+  /** True when the offset was already outside the limit. */
   immediate: boolean;
+  /** The better pass this adjustment could not use, and why; null when it is in the best pass. */
+  moved: MovedFrom | null;
+}
+
+/** One strategy planned over the same horizon. */
+export interface StrategySummary {
+  prefer: Strategy;
+  adjustments: number;
+  /** Smallest limit − |offset| over the horizon with that plan [ns] (negative: it leaves the limit). */
+  minMarginNs: number;
+  maxPhaseStepNs: number;
+  maxFrequencyStep: number;
+  /** True when that plan meets a crossing it cannot pre-empt. */
+  unplannable: boolean;
 }
 
 export interface SatelliteResetPlan {
   satellite: string;
   limitNs: number;
+  prefer: Strategy;
+  targetNs: number;
+  nominalHz: number;
   firstCrossing: Crossing | null;
+  /** Largest probability over the horizon that the free-running offset is outside the limit at an instant (from the band). */
+  crossingProbabilityWithinHorizon: number;
   adjustments: Adjustment[];
-  /** A crossing with no qualifying pass before it: a finding, not an error. Planning stops there. */
+  /** A crossing with no allowed pass before it: a finding, not an error. Planning stops there. */
   unplannable: { crossing: Crossing; reason: string } | null;
-  /** True when the clock starts outside its limit. */
   startsOutside: boolean;
+  /** The three strategies on the same horizon (the preferred one included). */
+  strategies: StrategySummary[];
+  /** Findings worth reading (blackouts covering the horizon, …). */
+  notes: string[];
 }
 
 export interface ResetRequest {
@@ -80,17 +126,20 @@ export interface ResetRequest {
   toTtJ2000S: number;
   /** Orbital period [s], to size the scan step and the rate average. */
   periodS: number;
-  /** Qualifying contacts over all stations, any order. */
+  /** Passes over all stations (uplink or not), any order. */
   contacts: Contact[];
+  steps?: ClockSteps;
+  nominalHz?: number;
+  /** Plan the other strategies too for `strategies` (default true). */
+  compare?: boolean;
 }
 
 /** Cap on adjustments per satellite over a horizon (a clock needing more is a design problem). */
 export const MAX_ADJUSTMENTS = 500;
-const MAX_BISECTIONS = 80;
-/** Headroom on the periodic swing when placing a phase step (its amplitude varies a little from orbit to orbit). */
+/** Headroom on the periodic swing when sizing a step (its amplitude varies a little from orbit to orbit). */
 const PERIODIC_ALLOWANCE = 1.1;
 const PERIODIC_ALLOWANCE_NS = 0.5;
-const CROSSING_RESOLUTION_S = 0.1;
+const STRATEGIES: readonly Strategy[] = ['phase', 'frequency', 'combined'];
 
 interface Step {
   atTtJ2000S: number;
@@ -107,73 +156,61 @@ function stepsEffectNs(steps: readonly Step[], t: number): number {
 
 /** The offset [ns] of `clock` at t with a plan's adjustments applied (for plots and checks). */
 export function offsetWithAdjustmentsNs(clock: OnboardClock, adjustments: readonly Adjustment[], t: number): number {
-  const steps = adjustments.map((a) => ({ atTtJ2000S: a.atTtJ2000S, phaseNs: a.kind === 'phase' ? a.phaseStepNs : 0, fractional: a.kind === 'frequency' ? a.frequencyStep : 0 }));
-  return clock.offsetNs(t) + stepsEffectNs(steps, t);
+  return clock.offsetNs(t) + stepsEffectNs(adjustments.map((a) => ({ atTtJ2000S: a.atTtJ2000S, phaseNs: a.phaseStepNs, fractional: a.frequencyStep })), t);
 }
 
-/** The clock with the plan's steps applied. */
+/**
+ * The clock with the plan's steps applied. Steps are appended in time order; prefix sums make the
+ * steps' effect at t one binary search instead of a loop over every step.
+ */
 class PlannedClock {
-  readonly steps: Step[] = [];
+  private readonly at: number[] = [];
+  private readonly cumPhaseNs: number[] = [];
+  private readonly cumFractional: number[] = [];
+  private readonly cumFractionalAtS: number[] = [];
   constructor(private readonly clock: OnboardClock) {}
-  offsetNs(t: number): number {
-    return this.clock.offsetNs(t) + stepsEffectNs(this.steps, t);
+  push(s: Step): void {
+    const n = this.at.length;
+    if (n > 0 && s.atTtJ2000S < this.at[n - 1]) throw new InternalError('adjustments out of time order', 'adjustments');
+    this.at.push(s.atTtJ2000S);
+    this.cumPhaseNs.push((n > 0 ? this.cumPhaseNs[n - 1] : 0) + s.phaseNs);
+    this.cumFractional.push((n > 0 ? this.cumFractional[n - 1] : 0) + s.fractional);
+    this.cumFractionalAtS.push((n > 0 ? this.cumFractionalAtS[n - 1] : 0) + s.fractional * s.atTtJ2000S);
   }
-  /** Offset averaged over one orbit centred on t (Simpson, 64 intervals): the trend without the periodic swing. */
-  meanOffsetNs(t: number, periodS: number, from: number, to: number): number {
+  offsetNs(t: number): number {
+    // Last step at or before t.
+    let lo = 0;
+    let hi = this.at.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (this.at[mid] <= t) lo = mid + 1;
+      else hi = mid;
+    }
+    const x = this.clock.offsetNs(t);
+    if (lo === 0) return x;
+    const i = lo - 1;
+    return x + this.cumPhaseNs[i] + 1e9 * (this.cumFractional[i] * t - this.cumFractionalAtS[i]);
+  }
+  /** Window of one orbit centred on t, kept inside [from, to]. */
+  private window(t: number, periodS: number, from: number, to: number): [number, number] {
     let a = Math.max(from, t - periodS / 2);
     const b = Math.min(to, a + periodS);
     a = Math.max(from, b - periodS);
+    return b - a < 1 ? [Math.max(from, t - 60), Math.min(to, t + 60)] : [a, b];
+  }
+  /** Offset averaged over one orbit centred on t (Simpson, 64 intervals): the trend without the periodic swing. */
+  meanOffsetNs(t: number, periodS: number, from: number, to: number): number {
+    const [a, b] = this.window(t, periodS, from, to);
     const n = 64;
     let sum = 0;
     for (let k = 0; k <= n; k++) sum += (k === 0 || k === n ? 1 : k % 2 === 1 ? 4 : 2) * this.offsetNs(a + ((b - a) * k) / n);
     return sum / (3 * n);
   }
-  /** Mean fractional rate over [t − P/2, t + P/2] (removes the orbit's periodic term). */
-  meanRate(t: number, periodS: number, from: number, to: number): number {
-    let a = Math.max(from, t - periodS / 2);
-    let b = Math.min(to, a + periodS);
-    a = Math.max(from, b - periodS);
-    if (b - a < 1) {
-      a = Math.max(from, t - 60);
-      b = Math.min(to, t + 60);
-    }
-    // Evaluate the steps' effect consistently: rate = Δx / Δt over the window.
-    return ((this.offsetNs(b) - this.offsetNs(a)) * 1e-9) / (b - a);
+  /** Mean rate [ns/s] over one orbit centred on t (removes the orbit's periodic term). */
+  meanRateNsPerS(t: number, periodS: number, from: number, to: number): number {
+    const [a, b] = this.window(t, periodS, from, to);
+    return (this.offsetNs(b) - this.offsetNs(a)) / (b - a);
   }
-}
-
-/**
- * First time in [from, to] at which g(t) ≥ 0, with g continuous. Coarse scan of `stepS`, then
- * bisection to 0.1 s. Returns null if g stays negative.
- */
-export function firstRoot(g: (t: number) => number, from: number, to: number, stepS: number, enteringOnly = false): number | null {
-  // enteringOnly: a start at or beyond the level does not count; wait until g < 0, then find the next rise.
-  let inside = g(from) < 0;
-  if (!inside && !enteringOnly) return from;
-  const n = Math.ceil((to - from) / stepS);
-  let prev = from;
-  for (let k = 1; k <= n; k++) {
-    const t = Math.min(to, from + k * stepS);
-    const gt = g(t);
-    if (!inside) {
-      inside = gt < 0;
-      prev = t;
-      continue;
-    }
-    if (gt >= 0) {
-      let lo = prev;
-      let hi = t;
-      for (let it = 0; it < MAX_BISECTIONS && hi - lo > CROSSING_RESOLUTION_S; it++) {
-        const mid = 0.5 * (lo + hi);
-        if (g(mid) >= 0) hi = mid;
-        else lo = mid;
-      }
-      if (hi - lo > CROSSING_RESOLUTION_S) throw new InternalError('crossing bisection did not converge', 'crossing time');
-      return hi;
-    }
-    prev = t;
-  }
-  return null;
 }
 
 /**
@@ -195,101 +232,185 @@ export function periodicAmplitudeNs(clock: OnboardClock, from: number, to: numbe
   return (hi - lo) / 2;
 }
 
-/** Plan the adjustments for one satellite. */
-export function planResets(req: ResetRequest): SatelliteResetPlan {
+const scanStepOf = (periodS: number): number => Math.max(10, Math.min(600, periodS / 8));
+
+interface StrategyPlan {
+  adjustments: Adjustment[];
+  unplannable: SatelliteResetPlan['unplannable'];
+  minMarginNs: number;
+}
+
+/** Plan one strategy to the horizon. */
+function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number): StrategyPlan {
   const { limitNs: L, policy, fromTtJ2000S: from, toTtJ2000S: to } = req;
+  const steps = req.steps ?? CONTINUOUS_STEPS;
+  const nominalHz = req.nominalHz ?? DEFAULT_NOMINAL_HZ;
+  const targetNs = policy.targetNs ?? 0;
+  const minSpacingS = policy.minSpacingS ?? 0;
+  const blackouts = policy.blackouts ?? [];
   const planned = new PlannedClock(req.clock);
   const contacts = [...req.contacts].sort((a, b) => a.aosTtJ2000S - b.aosTtJ2000S);
-  const scanStepS = Math.max(10, Math.min(600, req.periodS / 8));
-  const bandNs = (t: number, since: number): number => (req.noise === null ? 0 : Z95 * predictionSigmaNs(req.noise, t - since));
-
-  // The limit itself counts from the start (a clock may begin outside it); the margin level only
-  // when the offset comes back to it from inside, since a phase step lands exactly on it.
-  const crossingAfter = (since: number, level: number, enteringOnly = false): Crossing | null => {
-    const at = firstRoot((t) => Math.abs(planned.offsetNs(t)) - level, since, to, scanStepS, enteringOnly);
-    if (at === null) return null;
-    const earliest = firstRoot((t) => Math.abs(planned.offsetNs(t)) + bandNs(t, since) - level, since, to, scanStepS, enteringOnly) ?? at;
-    const latest = firstRoot((t) => Math.abs(planned.offsetNs(t)) - bandNs(t, since) - level, since, to, scanStepS, enteringOnly) ?? to;
-    return { atTtJ2000S: at, earliestTtJ2000S: Math.min(earliest, at), latestTtJ2000S: Math.max(latest, at), side: planned.offsetNs(at) >= 0 ? 1 : -1 };
-  };
-
-  const periodicNs = periodicAmplitudeNs(req.clock, from, Math.min(to, from + req.periodS));
-  const startsOutside = Math.abs(planned.offsetNs(from)) >= L;
-  const firstCrossing = crossingAfter(from, L);
+  const scanStepS = scanStepOf(req.periodS);
+  const agingNsPerS2 = req.clock.params === null ? 0 : (req.clock.params.agingPerDay / SECONDS_PER_DAY) * 1e9;
+  const usableNs = L - policy.marginNs - PERIODIC_ALLOWANCE * periodicNs - PERIODIC_ALLOWANCE_NS;
+  const offset = (t: number): number => planned.offsetNs(t);
   const adjustments: Adjustment[] = [];
-  let unplannable: SatelliteResetPlan['unplannable'] = null;
+  const exact: { phaseNs: number; fractional: number }[] = [];
+  let unplannable: StrategyPlan['unplannable'] = null;
   let since = from;
-  let contactIndexFloor = 0;
 
-  for (let guard = 0; guard < MAX_ADJUSTMENTS; guard++) {
-    const crossing = crossingAfter(since, L);
+  for (let guard = 0; guard <= MAX_ADJUSTMENTS; guard++) {
+    if (guard === MAX_ADJUSTMENTS) throw new InternalError(`more than ${MAX_ADJUSTMENTS} adjustments planned for ${req.satellite}`, 'adjustments');
+    const band = (t: number): number => band95Ns(req.noise, t - since);
+    const crossing = crossingAfter(offset, band, L, since, to, scanStepS);
     if (crossing === null) break;
-    const outsideNow = Math.abs(planned.offsetNs(since)) >= L;
-    // Deadline: the band's earliest edge at the margin level, minus the lead time.
-    const marginCrossing = policy.marginNs > 0 ? crossingAfter(since, L - policy.marginNs, true) : null;
-    const deadline = Math.min(marginCrossing?.earliestTtJ2000S ?? Infinity, crossing.earliestTtJ2000S) - policy.leadTimeS;
+    const s = signOf(crossing.side);
+    const outsideNow = s * offset(since) >= L;
+    const [marginAt] = policy.marginNs > 0 ? firstLevelTimes(offset, band, [{ sign: s, bandSign: 1, levelNs: L - policy.marginNs }], since, to, scanStepS, true) : [null];
+    const deadline = Math.min(marginAt ?? Infinity, crossing.earliestTtJ2000S) - policy.leadTimeS;
+    const last = adjustments.at(-1);
+    const spacingFloor = last === undefined ? -Infinity : last.atTtJ2000S + minSpacingS;
+    const why = (c: Contact): MovedFrom | null => {
+      const b = blackoutOf(c, req.satellite, blackouts);
+      if (b !== null) return { station: c.station, tcaTtJ2000S: c.tcaTtJ2000S, because: 'blackout', blackout: b, minSpacingS };
+      if (c.tcaTtJ2000S < spacingFloor) return { station: c.station, tcaTtJ2000S: c.tcaTtJ2000S, because: 'minSpacing', blackout: null, minSpacingS };
+      return null;
+    };
+    const uplink = contacts.filter((c) => c.uplink !== false && c.aosTtJ2000S > since && c.tcaTtJ2000S > since);
     let chosen: Contact | undefined;
-    let chosenIndex = -1;
+    let ideal: Contact | undefined;
     if (outsideNow) {
-      // Already outside: the first usable pass from now on.
-      for (let i = contactIndexFloor; i < contacts.length; i++) {
-        if (contacts[i].tcaTtJ2000S > since) {
-          chosen = contacts[i];
-          chosenIndex = i;
-          break;
-        }
-      }
+      ideal = uplink[0];
+      chosen = uplink.find((c) => why(c) === null);
     } else {
-      for (let i = contactIndexFloor; i < contacts.length; i++) {
-        const c = contacts[i];
-        if (c.aosTtJ2000S <= since) continue;
-        if (c.losTtJ2000S > deadline) break;
-        chosen = c;
-        chosenIndex = i;
-      }
+      const before = uplink.filter((c) => c.losTtJ2000S <= deadline);
+      ideal = before.at(-1);
+      chosen = before.filter((c) => why(c) === null).at(-1);
     }
     if (chosen === undefined) {
-      unplannable = {
-        crossing,
-        reason: outsideNow
-          ? 'the clock is outside its limit and no pass follows within the horizon'
-          : 'no qualifying pass ends before the crossing minus the margin and lead time',
-      };
+      let reason: string;
+      if (outsideNow) reason = ideal === undefined ? 'the clock is outside its limit and no uplink pass follows within the horizon' : 'the clock is outside its limit and every later uplink pass is in a blackout or within the minimum spacing';
+      else reason = ideal === undefined ? 'no uplink pass ends before the crossing minus the margin and lead time' : 'every uplink pass before the crossing minus the margin and lead time is in a blackout or within the minimum spacing';
+      unplannable = { crossing, reason };
       break;
     }
+    const moved = chosen === ideal || ideal === undefined ? null : why(ideal);
     const t = chosen.tcaTtJ2000S;
-    const before = planned.offsetNs(t);
-    const rate = planned.meanRate(t, req.periodS, from, to);
-    const agingPerS2 = req.clock.params === null ? 0 : req.clock.params.agingPerDay / 86400;
-    // Leave room for the orbit's periodic swing, so the step does not land the clock on the limit.
-    const band = Math.max(0, L - policy.marginNs - PERIODIC_ALLOWANCE * periodicNs - PERIODIC_ALLOWANCE_NS);
-    // The step moves the trend (the offset averaged over one orbit) to the chosen value; the
-    // periodic swing then stays inside the band around it.
-    const trend = planned.meanOffsetNs(t, req.periodS, from, to);
-    const target = bestPhaseNs(rate * 1e9, agingPerS2 * 1e9, band);
-    const phaseStepNs = target - trend;
-    const frequencyStep = -rate;
-    const kind = policy.prefer;
-    const step: Step = kind === 'phase' ? { atTtJ2000S: t, phaseNs: phaseStepNs, fractional: 0 } : { atTtJ2000S: t, phaseNs: 0, fractional: frequencyStep };
-    planned.steps.push(step);
+    const beforeNs = offset(t);
+    const sizing = sizeAdjustment({
+      strategy,
+      trendNs: planned.meanOffsetNs(t, req.periodS, from, to),
+      rateNsPerS: planned.meanRateNsPerS(t, req.periodS, from, to),
+      agingNsPerS2,
+      usableNs,
+      targetNs,
+      remainingS: to - t,
+      band95Ns: (tau) => band95Ns(req.noise, tau),
+      steps,
+    });
+    planned.push({ atTtJ2000S: t, phaseNs: sizing.phaseStepNs, fractional: sizing.frequencyStep });
+    exact.push({ phaseNs: sizing.exactPhaseStepNs, fractional: sizing.exactFrequencyStep });
+    const kind: AdjustmentKind = strategy !== 'combined' ? strategy : sizing.frequencyStep === 0 ? 'phase' : sizing.phaseStepNs === 0 ? 'frequency' : 'combined';
     adjustments.push({
       atTtJ2000S: t,
       station: chosen.station,
       passAosTtJ2000S: chosen.aosTtJ2000S,
       passLosTtJ2000S: chosen.losTtJ2000S,
       kind,
-      phaseStepNs,
-      frequencyStep,
-      offsetBeforeNs: before,
-      offsetAfterNs: kind === 'phase' ? before + phaseStepNs : before,
+      phaseStepNs: sizing.phaseStepNs,
+      frequencyStep: sizing.frequencyStep,
+      frequencyStepHz: sizing.frequencyStep * nominalHz,
+      frequencyStepNsPerDay: sizing.frequencyStep * SECONDS_PER_DAY * 1e9,
+      quantisationErrorNs: 0,
+      unquantised: { phaseStepNs: sizing.exactPhaseStepNs, frequencyStep: sizing.exactFrequencyStep },
+      offsetBeforeNs: beforeNs,
+      offsetAfterNs: beforeNs + sizing.phaseStepNs,
       crossing,
       immediate: outsideNow,
+      moved,
     });
     since = t;
-    contactIndexFloor = chosenIndex + 1;
   }
-  if (adjustments.length >= MAX_ADJUSTMENTS) {
-    throw new InternalError(`more than ${MAX_ADJUSTMENTS} adjustments planned for ${req.satellite}`, 'adjustments');
+  // What the rounding changed, by the next adjustment (or the horizon end).
+  adjustments.forEach((a, i) => {
+    const next = adjustments[i + 1]?.atTtJ2000S ?? to;
+    a.quantisationErrorNs = a.phaseStepNs - exact[i].phaseNs + (a.frequencyStep - exact[i].fractional) * 1e9 * (next - a.atTtJ2000S);
+  });
+  let minMarginNs = Infinity;
+  const n = Math.ceil((to - from) / scanStepS);
+  for (let k = 0; k <= n; k++) minMarginNs = Math.min(minMarginNs, L - Math.abs(offset(Math.min(to, from + k * scanStepS))));
+  return { adjustments, unplannable, minMarginNs };
+}
+
+/** Largest probability over [from, to] that the free-running offset is outside ±L at one instant. */
+function crossingProbability(req: ResetRequest): number {
+  const { fromTtJ2000S: from, toTtJ2000S: to } = req;
+  const step = scanStepOf(req.periodS);
+  const n = Math.ceil((to - from) / step);
+  let p = 0;
+  for (let k = 0; k <= n; k++) {
+    const t = Math.min(to, from + k * step);
+    p = Math.max(p, outsideProbability(req.clock.offsetNs(t), bandSigmaNs(req.noise, t - from), req.limitNs));
   }
-  return { satellite: req.satellite, limitNs: L, firstCrossing, adjustments, unplannable, startsOutside };
+  return p;
+}
+
+/** Plan the adjustments for one satellite with the preferred strategy, and compare all three. */
+export function planResets(req: ResetRequest): SatelliteResetPlan {
+  const { limitNs: L, fromTtJ2000S: from, toTtJ2000S: to } = req;
+  const periodicNs = periodicAmplitudeNs(req.clock, from, Math.min(to, from + req.periodS));
+  const freeBand = (t: number): number => band95Ns(req.noise, t - from);
+  const firstCrossing = crossingAfter((t) => req.clock.offsetNs(t), freeBand, L, from, to, scanStepOf(req.periodS));
+  const prefer = req.policy.prefer;
+  const main = planStrategy(req, prefer, periodicNs);
+  const summary = (s: Strategy, p: StrategyPlan): StrategySummary => ({
+    prefer: s,
+    adjustments: p.adjustments.length,
+    minMarginNs: p.minMarginNs,
+    maxPhaseStepNs: p.adjustments.reduce((m, a) => Math.max(m, Math.abs(a.phaseStepNs)), 0),
+    maxFrequencyStep: p.adjustments.reduce((m, a) => Math.max(m, Math.abs(a.frequencyStep)), 0),
+    unplannable: p.unplannable !== null,
+  });
+  const strategies = (req.compare ?? true) ? STRATEGIES.map((s) => summary(s, s === prefer ? main : planStrategy(req, s, periodicNs))) : [summary(prefer, main)];
+  const notes: string[] = [];
+  if (blackoutsCover(req.satellite, req.policy.blackouts ?? [], from, to)) notes.push(`blackouts cover the whole horizon for ${req.satellite}: no adjustment can be planned`);
+  return {
+    satellite: req.satellite,
+    limitNs: L,
+    prefer,
+    targetNs: req.policy.targetNs ?? 0,
+    nominalHz: req.nominalHz ?? DEFAULT_NOMINAL_HZ,
+    firstCrossing,
+    crossingProbabilityWithinHorizon: crossingProbability(req),
+    adjustments: main.adjustments,
+    unplannable: main.unplannable,
+    startsOutside: Math.abs(req.clock.offsetNs(from)) >= L,
+    strategies,
+    notes,
+  };
+}
+
+/** Sampled curves for a keep-in plot: offsets and 95 % half-widths [ns] at times [s since J2000.0 TT]. */
+export interface KeepInSeries {
+  tTtJ2000S: number[];
+  freeNs: number[];
+  freeBandNs: number[];
+  plannedNs: number[];
+  plannedBandNs: number[];
+}
+
+/** The free-running and planned offsets with their 95 % bands, n + 1 samples over [from, to]. */
+export function keepInSeries(clock: OnboardClock, noise: NoiseLevels | null, plan: SatelliteResetPlan, from: number, to: number, n: number): KeepInSeries {
+  const out: KeepInSeries = { tTtJ2000S: [], freeNs: [], freeBandNs: [], plannedNs: [], plannedBandNs: [] };
+  for (let k = 0; k <= n; k++) {
+    const t = from + ((to - from) * k) / n;
+    let since = from;
+    for (const a of plan.adjustments) if (a.atTtJ2000S <= t) since = a.atTtJ2000S;
+    out.tTtJ2000S.push(t);
+    out.freeNs.push(clock.offsetNs(t));
+    out.freeBandNs.push(band95Ns(noise, t - from));
+    out.plannedNs.push(offsetWithAdjustmentsNs(clock, plan.adjustments, t));
+    out.plannedBandNs.push(band95Ns(noise, t - since));
+  }
+  return out;
 }

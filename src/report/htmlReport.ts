@@ -4,7 +4,9 @@
  */
 import type { FitResult } from '../plan/fit.ts';
 import type { PassClockRow } from '../plan/passes.ts';
-import { offsetWithAdjustmentsNs, type SatelliteResetPlan } from '../plan/resets.ts';
+import { keepInSeries, type SatelliteResetPlan } from '../plan/resets.ts';
+import { movedText } from './resetsReport.ts';
+import { keepInPlot } from './svgKeepIn.ts';
 import type { SatelliteClockRun } from '../plan/satelliteClock.ts';
 import type { SizeResult } from '../plan/size.ts';
 import type { CompareResult } from '../plan/compare.ts';
@@ -248,51 +250,66 @@ export function passesSections(ts: TimeSystem, runs: readonly SatelliteClockRun[
 
 // ---- resets -----------------------------------------------------------------------------------
 
-export function resetsSection(ts: TimeSystem, runs: readonly SatelliteClockRun[], plans: readonly SatelliteResetPlan[], fromTt: number, toTt: number, rule: string): SectionSpec {
+export function resetsSection(ts: TimeSystem, runs: readonly SatelliteClockRun[], plans: readonly SatelliteResetPlan[], fromTt: number, toTt: number, rule: string, notes: readonly string[] = []): SectionSpec {
   const n = 1500;
   const figures: string[] = [];
+  const fmtNs = (v: number): string => `${v >= 0 ? '+' : '−'}${Math.abs(v).toFixed(1)} ns`;
   for (const plan of plans) {
     const run = runs.find((r) => r.id === plan.satellite);
     if (run === undefined) continue;
-    const x: number[] = [];
-    const free: number[] = [];
-    const planned: number[] = [];
     const span = runSpan(run, fromTt, toTt);
-    for (let k = 0; k <= n; k++) {
-      const t = span.from + ((span.to - span.from) * k) / n;
-      x.push(utcMs(ts, t));
-      free.push(run.clock.offsetNs(t));
-      planned.push(offsetWithAdjustmentsNs(run.clock, plan.adjustments, t));
-    }
+    const s = keepInSeries(run.clock, run.clock.params?.noise ?? null, plan, span.from, span.to, n);
     figures.push(
-      linePlot({
-        title: `${plan.satellite} — keep-in plan (±${plan.limitNs} ns)`,
-        xKind: 'time',
-        yAxis: { label: 'Clock offset', unit: 'ns' },
-        series: [
-          { label: 'free running', x, y: free },
-          { label: 'with planned adjustments', x, y: planned },
+      keepInPlot({
+        title: `${plan.satellite} — keep-in plan (±${plan.limitNs} ns, ${plan.prefer})`,
+        xMs: s.tTtJ2000S.map((t) => utcMs(ts, t)),
+        curves: [
+          { label: 'free running', y: s.freeNs, halfWidth: s.freeBandNs },
+          { label: 'with planned adjustments', y: s.plannedNs, halfWidth: s.plannedBandNs },
         ],
-        hLines: [{ y: plan.limitNs, label: `+${plan.limitNs} ns` }, { y: -plan.limitNs, label: `−${plan.limitNs} ns` }],
-        points: plan.adjustments.map((a, i) => ({ x: utcMs(ts, a.atTtJ2000S), y: a.offsetAfterNs, label: `#${i + 1} ${a.station}` })),
-        shaded: plan.adjustments.map((a) => ({ from: utcMs(ts, a.passAosTtJ2000S), to: utcMs(ts, a.passLosTtJ2000S), label: a.station })),
+        limitNs: plan.limitNs,
+        marks: plan.adjustments.map((a) => ({
+          xMs: utcMs(ts, a.atTtJ2000S),
+          y: a.offsetAfterNs,
+          text: `${fmtUtc(ts, a.atTtJ2000S).slice(0, 16)}Z ${a.station}: ${a.kind}${a.kind === 'frequency' ? '' : ` ${fmtNs(a.phaseStepNs)}`}${a.kind === 'phase' ? '' : ` ${a.frequencyStepNsPerDay >= 0 ? '+' : '−'}${Math.abs(a.frequencyStepNsPerDay).toFixed(2)} ns/day`} (${a.crossing.side} crossing)`,
+        })),
+        passes: plan.adjustments.map((a) => ({ fromMs: utcMs(ts, a.passAosTtJ2000S), toMs: utcMs(ts, a.passLosTtJ2000S) })),
       }),
     );
   }
   const rows = plans.flatMap((p) => [
-    ...p.adjustments.map((a) => [p.satellite, fmtUtc(ts, a.crossing.atTtJ2000S), fmtUtc(ts, a.atTtJ2000S), a.station, a.kind, a.phaseStepNs, a.frequencyStep, a.offsetBeforeNs, a.offsetAfterNs]),
-    ...(p.unplannable === null ? [] : [[p.satellite, fmtUtc(ts, p.unplannable.crossing.atTtJ2000S), null, null, `no pass: ${p.unplannable.reason}`, null, null, null, null]]),
-    ...(p.firstCrossing === null ? [[p.satellite, 'none in horizon', null, null, 'no action', null, null, null, null]] : []),
+    ...p.adjustments.map((a, i) => [p.satellite, i + 1, `${a.crossing.side} ${fmtUtc(ts, a.crossing.atTtJ2000S)}`, fmtUtc(ts, a.atTtJ2000S), a.station, a.kind, a.phaseStepNs, a.frequencyStep, a.frequencyStepHz, a.frequencyStepNsPerDay, a.quantisationErrorNs, a.offsetBeforeNs, a.offsetAfterNs, movedText(a.moved, ts)]),
+    ...(p.unplannable === null ? [] : [[p.satellite, null, `${p.unplannable.crossing.side} ${fmtUtc(ts, p.unplannable.crossing.atTtJ2000S)}`, null, null, `FINDING: ${p.unplannable.reason}`, null, null, null, null, null, null, null, null]]),
+    ...(p.firstCrossing === null ? [[p.satellite, null, 'none in horizon', null, null, 'no action', null, null, null, null, null, null, null, null]] : []),
   ]);
+  const crossingRows = plans.map((p) => {
+    const c = p.firstCrossing;
+    return [p.satellite, c === null ? 'none' : c.side, c === null ? null : fmtUtc(ts, c.atTtJ2000S), c === null ? null : fmtUtc(ts, c.earliestTtJ2000S), c === null || c.latestTtJ2000S === null ? null : fmtUtc(ts, c.latestTtJ2000S), c?.otherSide == null ? null : `${c.otherSide.side} ${fmtUtc(ts, c.otherSide.earliestTtJ2000S)}`, 100 * p.crossingProbabilityWithinHorizon];
+  });
+  const strategyRows = plans.flatMap((p) => p.strategies.map((st) => [p.satellite, `${st.prefer}${st.prefer === p.prefer ? ' (chosen)' : ''}`, st.adjustments, st.minMarginNs, st.maxPhaseStepNs, st.maxFrequencyStep, st.unplannable ? 'meets a crossing it cannot pre-empt' : '']));
   return {
     heading: 'Keep-in limits and planned adjustments',
-    intro: `Each adjustment sits in a real pass before the predicted crossing minus the policy margin and lead time. Band rule: ${rule}.`,
+    intro: [
+      'Each adjustment sits at the closest approach of a real pass at an uplink station, outside every blackout, before the 95 % band on the crossing side reaches the limit minus the policy margin and lead time. The two limits are treated separately: a band touching the other limit is listed, not mixed into the crossing.',
+      `Band rule: ${rule}.`,
+      ...notes.map((x) => `Note: ${x}`),
+    ].join('\n\n'),
     figures,
     tables: [
       {
+        caption: 'Free-running crossings (band: 95 %)',
+        columns: ['satellite', 'side', 'crossing (UTC)', 'earliest', 'latest', 'band touches the other limit', { label: 'probability outside', unit: '%' }],
+        rows: crossingRows,
+      },
+      {
         caption: 'Adjustment plan',
-        columns: ['satellite', 'crossing (UTC)', 'adjust at (UTC)', 'station', 'action', { label: 'phase step', unit: 'ns' }, { label: 'frequency step', unit: '1' }, { label: 'before', unit: 'ns' }, { label: 'after', unit: 'ns' }],
+        columns: ['satellite', '#', 'pre-empts', 'adjust at (UTC)', 'station', 'action', { label: 'phase step', unit: 'ns' }, { label: 'frequency step', unit: '1', format: (v) => v.toExponential(3) }, { label: 'frequency step', unit: 'Hz', format: (v) => v.toExponential(3) }, { label: 'frequency step', unit: 'ns/day' }, { label: 'rounding', unit: 'ns' }, { label: 'before', unit: 'ns' }, { label: 'after', unit: 'ns' }, 'moved'],
         rows,
+      },
+      {
+        caption: 'Strategies compared on the same horizon',
+        columns: ['satellite', 'strategy', 'adjustments', { label: 'smallest margin', unit: 'ns' }, { label: 'largest phase step', unit: 'ns' }, { label: 'largest frequency step', unit: '1', format: (v) => v.toExponential(2) }, 'note'],
+        rows: strategyRows,
       },
     ],
   };

@@ -2,6 +2,7 @@
  * Conversions that need the leap-second table: UTC in and out, ISO 8601 text, GPS week,
  * MJD, and the UT1≈UTC Julian date used for Earth rotation. Built once at the edge.
  */
+import { parseDurationS } from './duration.ts';
 import { TimeError } from '../errors.ts';
 import { civilFromDays, daysFromCivil, daysInMonth, MJD_OF_UNIX_EPOCH } from './calendar.ts';
 import { Instant, instantFromLabel, TIME_SCALES, type TimeScale } from './instant.ts';
@@ -26,7 +27,41 @@ const MAX_YEAR = 9999;
 const MAX_GPS_WEEK = Math.floor((daysFromCivil(MAX_YEAR + 1, 1, 1) - GPS_EPOCH_DAY) / 7) - 1;
 
 export class TimeSystem {
-  constructor(readonly leap: LeapSecondTable) {}
+  private nowCache: Instant | null = null;
+
+  /**
+   * @param leap the leap-second table
+   * @param nowSource what the time word `now` means: an instant, or a function called once on the
+   *   first use of `now` (so a run that never says `now` reads no clock); null (the default) refuses
+   *   `now`. The core never reads a clock: only the command line supplies one (see withNow).
+   */
+  constructor(
+    readonly leap: LeapSecondTable,
+    private readonly nowSource: Instant | (() => Instant) | null = null,
+  ) {}
+
+  /** The same time system, reading the time word `now` from `nowSource`. */
+  withNow(nowSource: Instant | (() => Instant)): TimeSystem {
+    return new TimeSystem(this.leap, nowSource);
+  }
+
+  /** The instant `now` stands for (fixed at its first use), or null when this time system has none. */
+  get nowInstant(): Instant | null {
+    if (this.nowCache === null && this.nowSource !== null) this.nowCache = typeof this.nowSource === 'function' ? this.nowSource() : this.nowSource;
+    return this.nowCache;
+  }
+
+  /** `now` if it has been used in this run, else null (reads nothing). */
+  get nowIfUsed(): Instant | null {
+    return this.nowCache;
+  }
+
+  /** Instant of a POSIX time [ms since 1970-01-01 UTC, leap seconds not counted] (e.g. a system clock reading). */
+  fromPosixMs(ms: number, where = 'system clock'): Instant {
+    const d = new Date(ms);
+    if (Number.isNaN(d.getTime())) throw new TimeError(`time ${ms} ms is not a date`, where, 'check the system clock');
+    return this.fromUtc({ year: d.getUTCFullYear(), month: d.getUTCMonth() + 1, day: d.getUTCDate(), hour: d.getUTCHours(), minute: d.getUTCMinutes(), second: d.getUTCSeconds() + d.getUTCMilliseconds() / 1000 }, where);
+  }
 
   /** Instant from a UTC civil label, 23:59:60 allowed on days that end with a leap second. */
   fromUtc(c: CivilTime, where = 'time'): Instant {
@@ -141,12 +176,15 @@ export class TimeSystem {
    * - ISO 8601 `2027-03-01T00:00:00Z` (UTC) or `2027-03-01T00:00:00 GPS|TAI|TT|GST|BDT|UTC`;
    * - `GPSW 2451 345600.5` (GPS week and seconds of week);
    * - `MJD 61406.25` (UTC) or `MJD 61406.25 TT`.
+   * - the time words `now`, `now+DURATION`, `now-DURATION` (`now+14d`, `now - 36h`), read against
+   *   `nowInstant` (by default the one this time system was given; refused when there is none).
    * A time with neither `Z` nor a scale name is refused rather than guessed. Parts are separated by
    * spaces or tabs only: a time is one line, and a line break inside one is a mistake (and would
    * break the one-line messages that quote it).
    */
-  parse(text: string, where = 'time'): Instant {
+  parse(text: string, where = 'time', nowInstant?: Instant | null): Instant {
     const s = text.trim();
+    if (/^now/i.test(s)) return parseTimeWord(s, text, where, nowInstant === undefined ? this.nowInstant : nowInstant);
     let m = /^GPSW[ \t]+(\d+)[ \t]+(\d+(?:\.\d+)?)$/i.exec(s);
     if (m !== null) return this.fromGpsWeek(Number(m[1]), Number(m[2]), where);
     m = /^MJD[ \t]+(-?\d+(?:\.\d+)?)(?:[ \t]+([A-Za-z]+))?$/i.exec(s);
@@ -170,6 +208,23 @@ export class TimeSystem {
     };
     return scale === 'UTC' ? this.fromUtc(c, where) : this.fromScale(scale, c, where);
   }
+}
+
+/** `now`, `now+DURATION`, `now-DURATION`, against `nowInstant`. */
+function parseTimeWord(s: string, text: string, where: string, nowInstant: Instant | null): Instant {
+  const m = /^now(?:[ \t]*([+-])[ \t]*(\S.*))?$/i.exec(s);
+  const fix = 'write now, now+DURATION or now-DURATION, e.g. now+14d, now-36h, now+P1DT12H';
+  if (m === null) throw new TimeError(`cannot read time word ${JSON.stringify(text)}`, where, fix);
+  if (nowInstant === null) throw new TimeError(`the time word ${JSON.stringify(text)} needs the current time, which is not available here`, where, 'give an ISO 8601 time such as 2027-03-01T00:00:00Z');
+  if (m[1] === undefined) return nowInstant.inScale('UTC');
+  if (/^[+-]/.test(m[2])) throw new TimeError(`time word ${JSON.stringify(text)} has two signs`, where, fix);
+  let spanS: number;
+  try {
+    spanS = parseDurationS(m[2], where);
+  } catch {
+    throw new TimeError(`cannot read the duration in ${JSON.stringify(text)}`, where, fix);
+  }
+  return nowInstant.plusS(m[1] === '-' ? -spanS : spanS).inScale('UTC');
 }
 
 function scaleOf(name: string, where: string): TimeScale {

@@ -53,7 +53,7 @@ export async function runPasses(a: PassesArgs, ts: TimeSystem): Promise<Rendered
     const sats = selectSatellites(scenario, a);
     const { from, to } = resolveWindow(scenario, ts, a, a.scenario);
     if (sats.length > 1 && (a.jobs !== undefined || (sats.length * (to - from)) / 86400 >= MIN_SATELLITE_DAYS_FOR_WORKERS)) {
-      const replies = await runPool<ScenarioTask, ScenarioReply>('scenarioWorker', sats.map((s) => ({ task: 'passes', args: { ...a, sat: s.id, jobs: 1 } })), jobs);
+      const replies = await runPool<ScenarioTask, ScenarioReply>('scenarioWorker', sats.map((s) => ({ task: 'passes', args: { ...a, sat: s.id, jobs: 1 }, nowTtJ2000S: ts.nowIfUsed?.ttJ2000S })), jobs);
       const rows = replies.flatMap((r) => unwrap(r, ts).rows ?? []);
       rows.sort(comparePassRows);
       const meta = { notes: replies.flatMap((r) => r.notes), scenario: scenario.name, fromTtJ2000S: from, toTtJ2000S: to, reference: scenario.reference, gravity: scenario.gravity };

@@ -3,6 +3,7 @@ import type { Argv } from 'yargs';
 import { InputError } from '../../errors.ts';
 import { planPasses } from '../../plan/passes.ts';
 import { planResets, type SatelliteResetPlan } from '../../plan/resets.ts';
+import { clockStepsOf, contactsFor, resetPolicyFrom } from '../../plan/resetsInputs.ts';
 import { resetsToCsv, resetsToJson, resetsToText, type ResetsMeta } from '../../report/resetsReport.ts';
 import { parsePositiveDurationS } from '../../time/duration.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
@@ -48,24 +49,33 @@ export function computeResets(a: ResetsArgs, ts: TimeSystem): ResetsOutcome {
   const withLimit = ctx.runs.filter((r) => r.keepInNs !== null);
   if (withLimit.length === 0) throw new InputError('no satellite has a keep-in limit', `${a.scenario} satellites[].clock.keepInNs`, 'give clock.keepInNs for the satellites to plan');
   const passes = planPasses(withLimit, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
-  const minPass = new Map(ctx.stations.map((s) => [s.id, s.minPassS]));
-  const plans = withLimit.map((run) =>
-    planResets({
+  const chosenStations = ctx.scenario.stations.filter((s) => ctx.stations.some((c) => c.id === s.id));
+  const resetPolicy = resetPolicyFrom(policy);
+  const plans = withLimit.map((run) => {
+    const spec = ctx.scenario.satellites.find((s) => s.id === run.id);
+    const { steps, nominalHz } = clockStepsOf(spec?.clock ?? null, `${a.scenario} ${spec?.path ?? run.id}`);
+    return planResets({
       satellite: run.id,
       clock: run.clock,
       limitNs: run.keepInNs as number,
       noise: run.clock.params?.noise ?? null,
-      policy: { marginNs: policy.marginNs, leadTimeS: policy.leadTimeS ?? 0, prefer: policy.prefer },
+      policy: resetPolicy,
       fromTtJ2000S: Math.max(ctx.fromTtJ2000S, run.startTtJ2000S ?? ctx.fromTtJ2000S),
       toTtJ2000S: Math.min(ctx.toTtJ2000S, run.endTtJ2000S),
       periodS: Number.isFinite(run.orbit.periodS) ? run.orbit.periodS : 86400,
-      contacts: passes.rows
-        .filter((p) => p.satelliteId === run.id && p.durationS >= (minPass.get(p.stationId) ?? 0))
-        .map((p) => ({ station: p.stationId, aosTtJ2000S: p.aosTtJ2000S, tcaTtJ2000S: p.tcaTtJ2000S, losTtJ2000S: p.losTtJ2000S })),
-    }),
-  );
-  const meta: ResetsMeta = { notes: ctx.runs.flatMap((r) => (r.note === null ? [] : [r.note])), scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, marginNs: policy.marginNs, leadTimeS: policy.leadTimeS ?? 0, prefer: policy.prefer };
+      contacts: contactsFor(passes.rows, chosenStations, run.id, `${a.scenario} stations[].uplink`),
+      steps,
+      nominalHz,
+    });
+  });
+  const meta = metaOf(ctx.scenario, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.runs.flatMap((r) => (r.note === null ? [] : [r.note])));
   return { ctx, plans, meta };
+}
+
+/** Header facts of a plan. */
+function metaOf(scenario: ScenarioSpec, fromTtJ2000S: number, toTtJ2000S: number, notes: string[]): ResetsMeta {
+  const p = scenario.policy;
+  return { notes, scenario: scenario.name, fromTtJ2000S, toTtJ2000S, reference: scenario.reference, marginNs: p.marginNs, leadTimeS: p.leadTimeS ?? 0, prefer: p.prefer, targetNs: p.targetNs, minSpacingS: p.minSpacingS, blackouts: p.blackouts.length };
 }
 
 /** The horizon [s]: --horizon, else the scenario's policy.horizon (180 d by default). */
@@ -82,11 +92,10 @@ export async function runResets(a: ResetsArgs, ts: TimeSystem): Promise<Rendered
     const horizonS = horizonOf(a, scenario);
     const { from, to } = resolveWindow(scenario, ts, { ...a, horizonS }, a.scenario);
     if (sats.length > 1 && (a.jobs !== undefined || (sats.length * (to - from)) / 86400 >= MIN_SATELLITE_DAYS_FOR_WORKERS)) {
-      const replies = await runPool<ScenarioTask, ScenarioReply>('scenarioWorker', sats.map((s) => ({ task: 'resets', args: { ...a, sat: s.id, jobs: 1 } })), jobs);
+      const replies = await runPool<ScenarioTask, ScenarioReply>('scenarioWorker', sats.map((s) => ({ task: 'resets', args: { ...a, sat: s.id, jobs: 1 }, nowTtJ2000S: ts.nowIfUsed?.ttJ2000S })), jobs);
       const plans = replies.flatMap((r) => unwrap(r, ts).plans ?? []);
-      const policy = scenario.policy;
-      const meta: ResetsMeta = { notes: replies.flatMap((r) => r.notes), scenario: scenario.name, fromTtJ2000S: from, toTtJ2000S: to, reference: scenario.reference, marginNs: policy.marginNs, leadTimeS: policy.leadTimeS ?? 0, prefer: policy.prefer };
-      return { notes: meta.notes, json: () => resetsToJson(plans, meta, ts), csv: () => resetsToCsv(plans, ts), text: () => resetsToText(plans, meta, ts) };
+      const meta = metaOf(scenario, from, to, replies.flatMap((r) => r.notes));
+      return { notes: meta.notes, json: () => resetsToJson(plans, meta, ts), csv: () => resetsToCsv(plans, ts, meta), text: () => resetsToText(plans, meta, ts) };
     }
   }
   return runResetsInProcess(a, ts);
@@ -96,9 +105,9 @@ function runResetsInProcess(a: ResetsArgs, ts: TimeSystem): Rendered {
   const { ctx, plans, meta } = computeResets(a, ts);
   return {
     notes: meta.notes,
-    html: () => page('tauplan — keep-in adjustment plan', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), [resetsSection(ts, ctx.runs, plans, ctx.fromTtJ2000S, ctx.toTtJ2000S, PREDICTION_RULE_TEXT), modelsSection()], meta.notes),
+    html: () => page('tauplan — keep-in adjustment plan', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), [resetsSection(ts, ctx.runs, plans, ctx.fromTtJ2000S, ctx.toTtJ2000S, PREDICTION_RULE_TEXT, [...meta.notes, ...plans.flatMap((p) => p.notes)]), modelsSection()]),
     json: () => resetsToJson(plans, meta, ts),
-    csv: () => resetsToCsv(plans, ts),
+    csv: () => resetsToCsv(plans, ts, meta),
     text: () => resetsToText(plans, meta, ts),
   };
 }

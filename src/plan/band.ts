@@ -1,0 +1,45 @@
+/**
+ * The prediction band the planner uses (physics.md §6): one function gives the band's 1-σ at a
+ * horizon τ counted from the last known state (the plan start, or the last adjustment, where a
+ * fresh measurement is assumed). Today it is the rule σx(τ) ≈ τ·σy(τ) of `clock/noise.ts`; a band
+ * derived from a characterised noise model plugs in here and nowhere else.
+ *
+ * For white FM and random-walk FM the rule equals the Wiener-process result
+ * σx²(τ) = q1·τ + q2·τ³/3 (Zucca & Tavella 2005, eq. for the two-state clock model; derived), since
+ * σy²(τ) = q1/τ + q2·τ/3 for those two noises; flicker FM has no exact state form and the rule is a
+ * rule of thumb there.
+ */
+import { PREDICTION_RULE_TEXT, predictionSigmaNs, Z95 } from '../clock/noise.ts';
+import type { NoiseLevels } from '../clock/oscillator.ts';
+
+export { Z95 };
+
+/** How the band is computed, as printed in every output that uses it. */
+export const BAND_RULE_TEXT = PREDICTION_RULE_TEXT;
+
+/** 1-σ of the offset prediction [ns] after τ [s] from a known state; 0 without noise or at τ ≤ 0. */
+export function bandSigmaNs(noise: NoiseLevels | null, tauS: number): number {
+  return noise === null ? 0 : predictionSigmaNs(noise, tauS);
+}
+
+/** Half-width [ns] of the 95 % band after τ [s]. */
+export function band95Ns(noise: NoiseLevels | null, tauS: number): number {
+  return Z95 * bandSigmaNs(noise, tauS);
+}
+
+/** Standard normal upper tail Q(z) = P(Z > z) (Abramowitz & Stegun 7.1.26 through erfc; |error| < 1.5e-7). */
+export function normalTail(z: number): number {
+  const x = Math.abs(z) / Math.SQRT2;
+  const t = 1 / (1 + 0.3275911 * x);
+  const erfc = t * (0.254829592 + t * (-0.284496736 + t * (1.421413741 + t * (-1.453152027 + t * 1.061405429)))) * Math.exp(-x * x);
+  return z >= 0 ? 0.5 * erfc : 1 - 0.5 * erfc;
+}
+
+/**
+ * Probability [0, 1] that the offset is outside ±L at one instant, for a predicted offset x [ns]
+ * with normal error of 1-σ `sigmaNs` (both tails). With σ = 0 it is 1 outside and 0 inside.
+ */
+export function outsideProbability(xNs: number, sigmaNs: number, limitNs: number): number {
+  if (!(sigmaNs > 0)) return Math.abs(xNs) >= limitNs ? 1 : 0;
+  return normalTail((limitNs - xNs) / sigmaNs) + normalTail((limitNs + xNs) / sigmaNs);
+}
