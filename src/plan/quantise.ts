@@ -31,17 +31,22 @@ export function checkClockSteps(s: ClockSteps, where: string): void {
   }
 }
 
+/** k whole steps of q, without the binary noise of the product (−57.800000000001 → −57.8). */
+function multiple(k: number, q: number): number {
+  return Number((k * q).toPrecision(12));
+}
+
 /** Nearest multiple of the phase resolution [ns]. */
 export function quantisePhaseNs(stepNs: number, s: ClockSteps): number {
   const q = s.phaseResolutionNs;
-  return q === null ? stepNs : Math.round(stepNs / q) * q;
+  return q === null ? stepNs : multiple(Math.round(stepNs / q), q);
 }
 
 /** Largest allowed frequency step in size: maxFrequencyStep rounded down to whole resolution steps. */
 function maxStep(s: ClockSteps): number {
   if (s.maxFrequencyStep === null) return Infinity;
   const q = s.frequencyResolution;
-  return q === null ? s.maxFrequencyStep : Math.floor(s.maxFrequencyStep / q + 1e-9) * q;
+  return q === null ? s.maxFrequencyStep : multiple(Math.floor(s.maxFrequencyStep / q + 1e-9), q);
 }
 
 /** Clamp a fractional frequency step to the hardware's largest step. */
@@ -58,8 +63,8 @@ export function frequencyCandidates(step: number, s: ClockSteps): number[] {
   const c = clampFrequency(step, s);
   const q = s.frequencyResolution;
   if (q === null) return [c];
-  const lo = Math.floor(c / q) * q;
-  const hi = Math.ceil(c / q) * q;
+  const lo = multiple(Math.floor(c / q), q);
+  const hi = multiple(Math.ceil(c / q), q);
   const m = maxStep(s);
   const inRange = [lo, hi].filter((v) => Math.abs(v) <= m * (1 + 1e-12));
   const sorted = [...new Set(inRange)].sort((a, b) => Math.abs(a - c) - Math.abs(b - c));
