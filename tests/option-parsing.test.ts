@@ -9,7 +9,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { mergeShardTexts } from '../src/cli/commands/merge.ts';
-import { checkNumberOption, nameList, refuseCatalogueOptionsWithoutAll, refuseRepeatedOptions } from '../src/cli/options.ts';
+import { checkEpochNearData, checkNumberOption, nameList, refuseCatalogueOptionsWithoutAll, refuseRepeatedOptions } from '../src/cli/options.ts';
 import { InputError } from '../src/errors.ts';
 import { safeCsvCell, toCsv } from '../src/report/csv.ts';
 import { escapeUnsafeText } from '../src/report/safeText.ts';
@@ -105,6 +105,19 @@ describe('lists and catalogue-only options', () => {
       expect(inputErrorOf(() => refuseCatalogueOptionsWithoutAll(extra)).fix).toContain('--all');
       expect(() => refuseCatalogueOptionsWithoutAll({ ...extra, all: true })).not.toThrow();
     }
+  });
+});
+
+describe('fit --epoch near the data', () => {
+  const day = 86_400;
+  const iso = (t: number): string => `t=${t}`;
+  it('inside the span, or within the span length (at least a day) of it, is fine; further out is refused', () => {
+    expect(() => checkEpochNearData(0.5 * day, 0, day, iso)).not.toThrow();
+    expect(() => checkEpochNearData(1.9 * day, 0, day, iso)).not.toThrow();
+    expect(() => checkEpochNearData(-0.9 * day, 0, 0.1 * day, iso)).not.toThrow();
+    const e = inputErrorOf(() => checkEpochNearData(30 * day, 0, 10 * day, iso));
+    expect(e.what).toContain('20.0 days outside the data');
+    expect(e.where).toBe('--epoch');
   });
 });
 

@@ -1,5 +1,7 @@
 /** `tauplan compare`, `tauplan sweep`, `tauplan track`, `tauplan fit`. */
 import type { Argv } from 'yargs';
+import { checkEpochNearData } from '../options.ts';
+import { Instant } from '../../time/instant.ts';
 import { gravityModel } from '../../orbit/gravity.ts';
 import { InputError } from '../../errors.ts';
 import { loadScenario, scenarioSatellite } from '../../io/loadScenario.ts';
@@ -236,6 +238,9 @@ export function computeFit(a: FitArgs, ts: TimeSystem) {
     const line = t.length >= 2 && t[t.length - 1] > t[0] ? lineFit(t, xc) : { slope: 0, intercept: xc[0], tMean: t[0] };
     periodicNs = (tt) => run.clock.relativisticNs(tt) - (line.intercept + line.slope * (tt - line.tMean));
     meanRelativistic = line.slope * 1e-9;
+  }
+  if (a.epoch !== undefined && data.rows.length > 0) {
+    checkEpochNearData(ts.parse(a.epoch, '--epoch').ttJ2000S, data.rows[0].ttJ2000S, data.rows[data.rows.length - 1].ttJ2000S, (t) => ts.format(Instant.fromTtJ2000S(t)));
   }
   const result = fitClock(data.rows, {
     degree: a.degree,
