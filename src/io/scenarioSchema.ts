@@ -134,7 +134,7 @@ export const FIELD_HINTS: Record<string, string> = {
   geoidHeightM: `give the geoid undulation N in metres (−${GEOID_HEIGHT_LIMIT_M} … ${GEOID_HEIGHT_LIMIT_M}), not a height above the geoid`,
   maskDeg: 'give the elevation mask in degrees, −5 ≤ maskDeg < 90',
   minPassS: 'give the shortest useful pass in seconds, 0 or more',
-  keepInNs: `give the keep-in limit on |offsetNs| in ns, 0.01 … 1e12`,
+  keepInNs: `give the keep-in limit on |offsetNs| in ns, greater than 0 (0.01 … 1e12)`,
   marginNs: 'give the margin in ns, 0 or more (and below every keepInNs)',
   offsetNs: `give the clock offset in ns, within ±1e12 (1000 s)`,
   hardwareFractionalOffset: `give the fractional frequency offset (dimensionless, e.g. -4.464e-10), within ±1e-4`,
