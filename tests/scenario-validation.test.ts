@@ -351,7 +351,7 @@ describe('faults: each is one ScenarioError with the right path', () => {
   it('negative keepInNs and negative noise level', () => {
     const e = editError('keepInNs: 1000', 'keepInNs: -5');
     expect(e.path).toBe('satellites[0].clock.keepInNs');
-    expect(e.what).toContain('must be > 0');
+    expect(e.what).toContain('must be ≥ 0.01'); // the keep-in floor of src/io/scenarioSchema.ts (10 ps)
     expect(editError('whiteFmAdev1s: 1.0e-12', 'whiteFmAdev1s: -1.0e-12').path).toBe('satellites[0].clock.noise.whiteFmAdev1s');
   });
 
