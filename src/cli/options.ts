@@ -54,7 +54,7 @@ export const NUMBER_OPTION_RANGES: Readonly<Record<string, Range>> = {
   'nominal-hz': { min: 0, minExclusive: true, max: MAX_NOMINAL_HZ, what: 'a frequency in Hz', example: '10.23e6' },
   'from-km': { min: 0, max: MAX_SWEEP_KM, what: 'an altitude in km', example: '300' },
   'to-km': { min: 0, minExclusive: true, max: MAX_SWEEP_KM, what: 'an altitude in km', example: '40000' },
-  points: { min: 2, max: MAX_SWEEP_POINTS, integer: true, what: 'a whole number of points', example: '120' },
+  points: { min: 2, max: MAX_SWEEP_POINTS, integer: true, what: 'a whole number of points', example: '200' },
   degree: { min: 0, max: MAX_FIT_DEGREE, integer: true, what: 'a polynomial degree 0, 1 or 2', example: '2' },
   clip: { min: 0, max: MAX_CLIP_SIGMA, what: 'a clipping threshold in standard deviations (0 disables)', example: '4' },
 };
