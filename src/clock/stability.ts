@@ -6,9 +6,13 @@
  * intervals). Phase `x` is in seconds (time deviation), sampled every `tau0S` seconds;
  * fractional frequency `y` is dimensionless. The averaging time is `tauS = m · tau0S`.
  *
- * Leaves out: gap handling, bias corrections, noise identification, total/Theo variances.
+ * The gap-tolerant estimators with intervals and noise types are in deviations.ts, edf.ts,
+ * noiseId.ts and stabilityTable.ts; this file keeps the plain estimators `fit` has always used.
  */
-import { InputError, InternalError } from '../errors.ts';
+import { InputError } from '../errors.ts';
+import { chiSquareQuantile } from './gamma.ts';
+
+export { chiSquareQuantile, gammaP } from './gamma.ts';
 
 /** One stability estimate. */
 export interface StabilityPoint {
@@ -167,82 +171,6 @@ export function chiSquareInterval(deviation: number, edf: number, level = 0.6826
   const lo = chiSquareQuantile(pLo, edf);
   const hi = chiSquareQuantile(1 - pLo, edf);
   return { low: deviation * Math.sqrt(edf / hi), high: deviation * Math.sqrt(edf / lo) };
-}
-
-/**
- * Quantile of the chi-square distribution with `dof` degrees of freedom (dof > 0, 0 < p < 1),
- * by bisection on the regularized lower incomplete gamma function P(dof/2, x/2).
- */
-export function chiSquareQuantile(p: number, dof: number): number {
-  if (!(p > 0 && p < 1 && dof > 0)) throw new InputError(`chi-square quantile p = ${p}, dof = ${dof}`, 'stability', 'use 0 < p < 1 and dof > 0');
-  const a = dof / 2;
-  let lo = 0;
-  let hi = Math.max(1, dof);
-  let guard = 0;
-  while (gammaP(a, hi / 2) < p) {
-    hi *= 2;
-    if (++guard > 200) throw new InternalError('chi-square quantile bracket did not close', 'chiSquareQuantile');
-  }
-  for (let i = 0; i < 200; i++) {
-    const mid = 0.5 * (lo + hi);
-    if (gammaP(a, mid / 2) < p) lo = mid;
-    else hi = mid;
-    if (hi - lo <= 1e-12 * hi) break;
-  }
-  return 0.5 * (lo + hi);
-}
-
-/**
- * Regularized lower incomplete gamma P(a, x): series for x < a + 1, continued fraction
- * otherwise (the usual split; common practice). Iterations are capped.
- */
-export function gammaP(a: number, x: number): number {
-  if (x <= 0) return 0;
-  const lnPrefix = a * Math.log(x) - x - lnGamma(a);
-  if (x < a + 1) {
-    let term = 1 / a;
-    let sum = term;
-    for (let n = 1; n < 1000; n++) {
-      term *= x / (a + n);
-      sum += term;
-      if (Math.abs(term) < Math.abs(sum) * 1e-16) return sum * Math.exp(lnPrefix);
-    }
-    throw new InternalError('incomplete gamma series did not converge', 'gammaP');
-  }
-  // Lentz continued fraction for Q(a, x).
-  const tiny = 1e-300;
-  let b = x + 1 - a;
-  let c = 1 / tiny;
-  let d = 1 / b;
-  let h = d;
-  for (let i = 1; i < 1000; i++) {
-    const an = -i * (i - a);
-    b += 2;
-    d = an * d + b;
-    if (Math.abs(d) < tiny) d = tiny;
-    c = b + an / c;
-    if (Math.abs(c) < tiny) c = tiny;
-    d = 1 / d;
-    const delta = d * c;
-    h *= delta;
-    if (Math.abs(delta - 1) < 1e-16) return 1 - Math.exp(lnPrefix) * h;
-  }
-  throw new InternalError('incomplete gamma continued fraction did not converge', 'gammaP');
-}
-
-/** ln Γ(z) for z > 0, Lanczos approximation (g = 7, 9 terms; common practice, ~1e-15 relative). */
-function lnGamma(z: number): number {
-  const g = 7;
-  const c = [
-    0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059, 12.507343278686905,
-    -0.13857109526572012, 9.9843695780195716e-6, 1.5056327351493116e-7,
-  ];
-  if (z < 0.5) return Math.log(Math.PI / Math.sin(Math.PI * z)) - lnGamma(1 - z);
-  const zz = z - 1;
-  let sum = c[0];
-  for (let i = 1; i < g + 2; i++) sum += c[i] / (zz + i);
-  const t = zz + g + 0.5;
-  return 0.5 * Math.log(2 * Math.PI) + (zz + 0.5) * Math.log(t) - t + Math.log(sum);
 }
 
 function checkArgs(x: readonly number[], tau0S: number, m: number): void {
