@@ -27,6 +27,9 @@
  *                           the default step, up to P/4 (the slope fit needs dense output that
  *                           resolves the orbit); the mean over the sample of 8 × steps per day at
  *                           the largest passing step. (The pipeline's actual spend is printed beside it.)
+ *   stabilityPointsPerSecond phase points per second of the full stability table (OADEV, MDEV,
+ *                           TDEV, OHDEV with EDF and 68/95 % intervals, noise identification) at
+ *                           octave τ on 250 000 invented points (white PM + random-walk phase).
  *
  * Options: --tiny (or TAUPLAN_BENCH_TINY=1) runs a few-second version for the smoke test;
  * --results PATH (default ./bench-results.json); --work-dir DIR (default a new temp folder).
@@ -55,6 +58,7 @@ import { allocStateBlock } from '../src/orbit/trajectory.ts';
 import { vec3 } from '../src/orbit/vec.ts';
 import { orbitSummaryAt, sizeClock } from '../src/plan/size.ts';
 import { makeCatalogue } from './make-catalogue.ts';
+import { stabilityTable } from '../src/clock/stabilityTable.ts';
 
 const THIS_FILE = fileURLToPath(import.meta.url);
 
@@ -66,6 +70,7 @@ export interface BenchResults {
   twoWorkersVsOne: number;
   rssGrowth10x: number;
   statesPerSatelliteDay: number;
+  stabilityPointsPerSecond: number;
 }
 
 // ---------------------------------------------------------------- child mode: one CLI run
@@ -409,6 +414,24 @@ const one = child(runArgs(largeFile, 1, 'large-j1.csv'));
 const two = child(runArgs(largeFile, 2, 'large-j2.csv'));
 const small = child(runArgs(smallFile, 2, 'small-j2.csv'));
 
+// ---------------------------------------------------------------- 6. stability table
+const stabilityPoints = tiny ? 20_000 : 250_000;
+const stabilityPhase = new Float64Array(stabilityPoints);
+{
+  let seed = 987654321;
+  const uniform = (): number => {
+    seed = (16807 * seed) % 2147483647;
+    return seed / 2147483647 - 0.5;
+  };
+  let walk = 0;
+  for (let i = 0; i < stabilityPoints; i++) {
+    walk += 1e-11 * uniform();
+    stabilityPhase[i] = 1e-9 * uniform() + walk;
+  }
+}
+log(`stability table: ${stabilityPoints} points, octave τ`);
+const stabilityMs = best(() => void stabilityTable({ xS: stabilityPhase, tau0S: 1 }), tiny ? 1 : 2);
+
 const results: BenchResults = {
   pipelineVsBulk: pipelineMs / baselineMs,
   pipelineVsNaive: naiveJobMs / pipelineMs,
@@ -416,6 +439,7 @@ const results: BenchResults = {
   twoWorkersVsOne: two.wallMs / one.wallMs,
   rssGrowth10x: two.maxRssKb / small.maxRssKb,
   statesPerSatelliteDay: mean(accuracy.map((a) => a.statesPerDay)),
+  stabilityPointsPerSecond: stabilityPoints / (stabilityMs / 1000),
 };
 writeFileSync(resultsPath, `${JSON.stringify(results, null, 2)}\n`);
 
@@ -429,8 +453,9 @@ const rows: [string, string, string, string][] = [
   ['  (machine control)', f(control2 / (2 * control1)), '0.5 ideal', `same pure-JS work on 2 threads at once takes ${f(control2 / control1, 2)}× one thread's time: the best twoWorkersVsOne here`],
   ['rssGrowth10x', f(results.rssGrowth10x), '< 1.5', `peak RSS ${f(small.maxRssKb / 1024, 0)} MB (${CFG.small}) vs ${f(two.maxRssKb / 1024, 0)} MB (${CFG.large})`],
   ['statesPerSatelliteDay', f(results.statesPerSatelliteDay, 0), '—', `pipeline spends ${f(mean(accuracy.map((a) => a.pipelineStatesPerDay)), 0)} (integration + fit grid)`],
+  ['stabilityPointsPerSecond', f(results.stabilityPointsPerSecond, 0), '—', `${stabilityPoints} points in ${f(stabilityMs / 1000, 2)} s (all statistics with intervals at octave τ)`],
 ];
-const w = [24, 10, 8];
+const w = [26, 10, 8];
 const lines = [`${'figure'.padEnd(w[0])}${'measured'.padStart(w[1])}  ${'goal'.padEnd(w[2])}  detail`];
 for (const r of rows) lines.push(`${r[0].padEnd(w[0])}${r[1].padStart(w[1])}  ${r[2].padEnd(w[2])}  ${r[3]}`);
 lines.push('', 'Allocation (heap bytes per state; fixed per-call allocations cancel out):');

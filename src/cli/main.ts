@@ -19,6 +19,7 @@ import { passesOptions, runPasses } from './commands/passes.ts';
 import { resetsOptions, runResets } from './commands/resets.ts';
 import { demoOptions, reportOptions, runDemo, runReport } from './commands/report.ts';
 import { navclockOptions, runNavclock } from './commands/navclock.ts';
+import { runStability, stabilityOptions } from './commands/stability.ts';
 import { compareOptions, fitOptions, runCompare, runFit, runSweep, runTrack, sweepOptions, trackOptions } from './commands/analysis.ts';
 
 export const EXIT_OK = 0;
@@ -81,6 +82,12 @@ function parser(args: string[]) {
       (a) => emit(runFit(a, ts), a.format, a.out, 'fit', ts),
     )
     .command(
+      'stability <file>',
+      'Allan, modified Allan, time and Hadamard deviations with intervals and noise types',
+      (y) => stabilityOptions(common(y)),
+      (a) => emit(runStability(a, ts), a.format, a.out, 'stability', ts),
+    )
+    .command(
       'compare <scenario>',
       'Compare satellite and station clocks over one window',
       (y) => compareOptions(common(y)),
@@ -126,11 +133,12 @@ function parser(args: string[]) {
     .example('tauplan passes data/demo/tessera.yaml --station BRINDLEMOOR', 'pass schedule with clock offsets')
     .example('tauplan resets data/demo/tessera.yaml --horizon 28d', 'keep-in adjustment plan')
     .example('tauplan fit offsets.csv --degree 2', 'clock parameters and stability from measurements')
+    .example('tauplan stability phase.txt.gz --tau0 1s', 'stability table of a phase record')
     .example('tauplan compare data/demo/tessera.yaml', 'satellite and station clocks side by side')
     .example('tauplan sweep --from-km 300 --to-km 40000', 'rate against altitude, break-even')
     .example('tauplan navclock data/demo/tessera.yaml --sat TSR-1', 'quantised af0/af1/af2 sets every 2 h')
     .example('tauplan track data/demo/tessera.yaml --sat TSR-1 --frame ECEF', 'states and clock for other tools')
-    .demandCommand(1, 'give a command: time, size, passes, resets, fit, compare, sweep, track, navclock, report, demo')
+    .demandCommand(1, 'give a command: time, size, passes, resets, fit, stability, compare, sweep, track, navclock, report, demo')
     .recommendCommands()
     .strict()
     .exitProcess(false)
@@ -164,6 +172,7 @@ const POSITIONAL_USAGE: Record<string, string> = {
   passes: 'tauplan passes scenario.yaml',
   resets: 'tauplan resets scenario.yaml',
   fit: 'tauplan fit offsets.csv',
+  stability: 'tauplan stability phase.txt --tau0 1s',
   compare: 'tauplan compare scenario.yaml',
   report: 'tauplan report scenario.yaml --out out/',
   merge: 'tauplan merge s1.csv s2.csv --out all.csv',
@@ -174,7 +183,7 @@ function usageError(msg: string, args: string[]): InputError {
   const text = msg.replace(/\s+/g, ' ').trim();
   const command = args.find((x) => !x.startsWith('-'));
   if (/^Not enough non-option arguments/.test(text) && command !== undefined && command in POSITIONAL_USAGE) {
-    return new InputError(`tauplan ${command} needs its ${command === 'time' ? 'time' : command === 'fit' ? 'measurement file' : command === 'merge' ? 'files' : 'scenario file'}`, 'command line', `e.g. ${POSITIONAL_USAGE[command]}`);
+    return new InputError(`tauplan ${command} needs its ${command === 'time' ? 'time' : command === 'fit' ? 'measurement file' : command === 'stability' ? 'data file' : command === 'merge' ? 'files' : 'scenario file'}`, 'command line', `e.g. ${POSITIONAL_USAGE[command]}`);
   }
   return new InputError(text, 'command line', 'see tauplan --help');
 }
