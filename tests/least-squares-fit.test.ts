@@ -209,9 +209,9 @@ describe('sigma clipping', () => {
     expect(r.rejected[0].time).toBe(ts.format(ts.parse('2027-03-01T04:10:00Z', 'test')));
     // The outlier no longer pulls the fit: rms back near the 1 ns noise.
     expect(r.rmsNs).toBeLessThan(1.3);
-    // The gap it leaves is bridged for the stability table, and the note says so.
+    // The gap it leaves stays missing in the stability table (NIST SP 1065 §5.15), and the note says so.
     expect(r.stability.length).toBeGreaterThan(0);
-    expect(r.stabilityNote).toMatch(/1 rejected row\(s\) inside the series filled/);
+    expect(r.stabilityNote).toMatch(/1 grid point\(s\) without a used sample/);
     const kept = fitClock(rows, { degree: 2, timeSystem: ts, clipSigma: 0 });
     expect(kept.rejected).toEqual([]);
     expect(kept.rmsNs).toBeGreaterThan(r.rmsNs + 0.5);
@@ -238,12 +238,20 @@ describe('stability of the residuals', () => {
     expect(r.stability.map((s) => s.tauS)).toEqual([1, 2, 4, 8, 16, 32, 64, 128, 256, 512]);
   });
 
-  it('uneven spacing: no table, with a note', () => {
+  it('a missing row: the table is computed on the grid with the gap left missing (SP 1065 §5.15)', () => {
     const rows = simulated({ seed: 6 });
     rows.splice(10, 1);
     const r = fitClock(rows, { degree: 1, timeSystem: ts });
+    expect(r.stability.length).toBeGreaterThan(0);
+    expect(r.stabilityNote).toMatch(/1 grid point\(s\) without a used sample/);
+  });
+
+  it('times on no common grid: no table, with the reason', () => {
+    const rows = simulated({ seed: 6 });
+    rows[10] = { ...rows[10], ttJ2000S: rows[10].ttJ2000S + 17 };
+    const r = fitClock(rows, { degree: 1, timeSystem: ts });
     expect(r.stability).toEqual([]);
-    expect(r.stabilityNote).toMatch(/not evenly spaced/);
+    expect(r.stabilityNote).toMatch(/off the 600 s grid/);
   });
 });
 

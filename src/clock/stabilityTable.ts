@@ -23,6 +23,8 @@ export interface StabilityTableRow {
   alphaForEdf: PowerLawAlpha;
   /** Overlapping Allan deviation (dimensionless). */
   oadev: DeviationInterval | null;
+  /** Terms in the OADEV sum (after gaps). */
+  oadevTerms: number;
   /** Modified Allan deviation (dimensionless). */
   mdev: DeviationInterval | null;
   /** Time deviation, s. */
@@ -99,6 +101,7 @@ export function stabilityTable(grid: PhaseGrid, options: StabilityTableOptions =
       m,
       alpha: id.alpha,
       alphaForEdf,
+      oadevTerms: o.terms,
       oadev: o.value === null ? null : withIntervals(o.value, oadevEdfTable5(o.terms + 2 * m, m, alphaForEdf)),
       mdev: md.value === null ? null : withIntervals(md.value, mdEdf),
       tdevS: td.value === null ? null : withIntervals(td.value, mdEdf),

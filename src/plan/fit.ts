@@ -17,7 +17,11 @@ import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { InputError, InternalError, assertFinite } from '../errors.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import { Instant } from '../time/instant.ts';
-import { evenSpacingS, modifiedAdev, octaveFactors, overlappingAdev } from '../clock/stability.ts';
+import { clipStoppedWarning, clippingExceedsLimit, diagnoseResiduals } from './fitGuard.ts';
+import { fitStabilityRows, offsetStability, type FitStabilityRow } from './fitStability.ts';
+import { detectSteps, type DetectedStep } from './steps.ts';
+
+export type { FitStabilityRow } from './fitStability.ts';
 
 /** One measurement as the fit needs it (a superset of `MeasurementRow` from src/io/measurements.ts works). */
 export interface FitInputRow {
@@ -56,6 +60,8 @@ export interface FitOptions {
   spacingRelTol?: number;
   /** Name of the measurement file, for the location in error messages (default `measurements`). */
   sourceName?: string;
+  /** Orbital period, s, when an orbit is known (names an unremoved periodic term in the fit guard). */
+  orbitalPeriodS?: number;
 }
 
 /** A row left out by sigma clipping. */
@@ -67,18 +73,6 @@ export interface RejectedRow {
   offsetNs: number;
   /** Residual against the final fit, ns (after the periodic term is removed). */
   residualNs: number;
-}
-
-/** One line of the stability table of the residual phase. */
-export interface FitStabilityRow {
-  /** Averaging time, s. */
-  tauS: number;
-  /** Overlapping Allan deviation (dimensionless). */
-  oadev: number;
-  /** Modified Allan deviation (dimensionless). */
-  mdev: number;
-  /** Number of terms in the overlapping Allan variance sum (N − 2m). */
-  count: number;
 }
 
 /** Result of {@link fitClock}. Field names follow the contract (`tauplan fit`). */
@@ -119,6 +113,16 @@ export interface FitResult {
   iterations: number;
   /** Span of the rows used, s. */
   spanS: number;
+  /** Rejected rows ÷ all rows (0 when clipping is off or stopped). */
+  rejectedFraction: number;
+  /** True when clipping would have removed more than 10 % of the rows and was stopped (every row kept). */
+  clipStopped: boolean;
+  /** Warnings to show loudly (stderr and every format). */
+  warnings: string[];
+  /** Phase jumps and frequency steps found in the residuals (src/plan/steps.ts). */
+  steps: (Omit<DetectedStep, 'timeS' | 'index'> & { time: string })[];
+  /** Stability of the raw phase (offsets with only the periodic term removed), same row shape. */
+  rawStability: FitStabilityRow[];
 }
 
 const SECONDS_PER_DAY = 86400;
@@ -178,6 +182,7 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
   const rejectedIdx = new Set<number>();
   let sol = solve(usedIdx, tS, yNs, sigma, degree);
   let iterations = 1;
+  let clipStoppedAt: number | null = null;
   while (clipOn && iterations < maxIterations) {
     const dof = usedIdx.length - p;
     if (dof <= 0) break;
@@ -185,6 +190,14 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
     if (!(scale > 0)) break; // a perfect fit: nothing to clip against
     const out = usedIdx.filter((i, k) => Math.abs(sol.residualNs[k]) > clip * scale * sigma[i]);
     if (out.length === 0) break;
+    if (clippingExceedsLimit(rejectedIdx.size + out.length, rows.length)) {
+      // Runaway clipping means the model does not fit: keep every row and say why (fitGuard.ts).
+      clipStoppedAt = rejectedIdx.size + out.length;
+      rejectedIdx.clear();
+      usedIdx = rows.map((_, i) => i);
+      sol = solve(usedIdx, tS, yNs, sigma, degree);
+      break;
+    }
     for (const i of out) rejectedIdx.add(i);
     usedIdx = usedIdx.filter((i) => !rejectedIdx.has(i));
     if (usedIdx.length < p) {
@@ -231,7 +244,28 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
   for (const r of sol.residualNs) sumSq += r * r;
   const rmsNs = Math.sqrt(sumSq / n);
 
-  const { stability, note } = residualStability(rows, usedIdx, sol.residualNs, options.spacingRelTol ?? 1e-3);
+  const usedTimesS = usedIdx.map((i) => rows[i].ttJ2000S);
+  const residualOnAll = rows.map(() => Number.NaN);
+  usedIdx.forEach((i, k) => (residualOnAll[i] = sol.residualNs[k]));
+  const residualTable = offsetStability(rows.map((r) => r.ttJ2000S), residualOnAll);
+  const stability = fitStabilityRows(residualTable.table);
+  const note = residualTable.note;
+  const rawStability = fitStabilityRows(offsetStability(rows.map((r) => r.ttJ2000S), yNs).table);
+  const steps = detectSteps(usedTimesS, sol.residualNs, usedIdx.map((i) => rows[i].line));
+  const formatTime = (t: number): string => options.timeSystem.format(Instant.fromTtJ2000S(t));
+  const warnings: string[] = [];
+  if (clipStoppedAt !== null) {
+    const diagnosis = diagnoseResiduals({
+      timesS: usedTimesS,
+      residualNs: sol.residualNs,
+      degree,
+      orbitalPeriodS: options.orbitalPeriodS ?? null,
+      periodicRemoved: periodic !== undefined,
+      steps,
+      formatTime,
+    });
+    warnings.push(clipStoppedWarning(clipStoppedAt, rows.length, clip, diagnosis));
+  }
 
   const usedTimes = usedIdx.map((i) => rows[i].ttJ2000S);
   return {
@@ -256,6 +290,11 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
     clipSigma: clipOn ? clip : null,
     iterations,
     spanS: usedTimes[usedTimes.length - 1] - usedTimes[0],
+    rejectedFraction: rejected.length / rows.length,
+    clipStopped: clipStoppedAt !== null,
+    warnings,
+    steps: steps.map(({ timeS, index: _index, ...rest }) => ({ ...rest, time: formatTime(timeS) })),
+    rawStability,
   };
 }
 
@@ -320,57 +359,4 @@ function solve(idx: readonly number[], tS: readonly number[], yNs: readonly numb
   });
   if (!Number.isFinite(chiSquare)) throw new InternalError('least-squares residuals are not finite', 'chiSquare');
   return { params, cov, residualNs, chiSquare };
-}
-
-/**
- * Octave stability table of the residual phase (ns → s). Needs the rows, before clipping, to be
- * evenly spaced. A rejected row inside the series is filled by linear interpolation of its used
- * neighbours' residuals (so one outlier does not void the table); rejected rows at either end
- * are dropped. The note says when that happened.
- */
-function residualStability(
-  rows: readonly FitInputRow[],
-  usedIdx: readonly number[],
-  usedResidualNs: readonly number[],
-  relTol: number,
-): { stability: FitStabilityRow[]; note: string | null } {
-  const tau0S = evenSpacingS(
-    rows.map((r) => r.ttJ2000S),
-    relTol,
-  );
-  if (tau0S === null) return { stability: [], note: 'no stability table: the samples are not evenly spaced' };
-  const first = usedIdx[0];
-  const last = usedIdx[usedIdx.length - 1];
-  const residualByRow = new Map<number, number>();
-  usedIdx.forEach((i, k) => residualByRow.set(i, usedResidualNs[k]));
-  const x: number[] = [];
-  let filled = 0;
-  let prevUsed = first;
-  for (let i = first; i <= last; i++) {
-    const r = residualByRow.get(i);
-    if (r !== undefined) {
-      x.push(r * 1e-9);
-      prevUsed = i;
-      continue;
-    }
-    let nextUsed = i + 1;
-    while (!residualByRow.has(nextUsed)) nextUsed++; // ends at `last`, which is used
-    const a = residualByRow.get(prevUsed) as number;
-    const b = residualByRow.get(nextUsed) as number;
-    x.push((a + ((b - a) * (i - prevUsed)) / (nextUsed - prevUsed)) * 1e-9);
-    filled++;
-  }
-  const dropped = rows.length - (last - first + 1);
-  const factors = octaveFactors(x.length);
-  if (factors.length === 0) return { stability: [], note: 'no stability table: fewer than 3 evenly spaced samples' };
-  const stability = factors.map((m) => {
-    const o = overlappingAdev(x, tau0S, m);
-    const d = modifiedAdev(x, tau0S, m);
-    if (o.deviation === null || d.deviation === null) throw new InternalError(`stability undefined at m = ${m}`, 'stability');
-    return { tauS: o.tauS, oadev: o.deviation, mdev: d.deviation, count: o.count };
-  });
-  const parts: string[] = [];
-  if (filled > 0) parts.push(`${filled} rejected row(s) inside the series filled by linear interpolation of the neighbouring residuals`);
-  if (dropped > 0) parts.push(`${dropped} rejected row(s) at the ends left out`);
-  return { stability, note: parts.length === 0 ? null : parts.join('; ') };
 }

@@ -8,6 +8,8 @@ import type { FitResult } from '../plan/fit.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import { Instant } from '../time/instant.ts';
 import { textTable } from './format.ts';
+import type { DeviationInterval } from '../clock/edf.ts';
+import { noiseTypeName } from './stabilityReport.ts';
 
 /** JSON shape of `tauplan fit`: the fit result without its internal time coordinate. */
 export type FitJson = Omit<FitResult, 'epochTtJ2000S'>;
@@ -28,7 +30,12 @@ export function fitToJson(result: FitResult): FitJson {
     rmsNs: result.rmsNs,
     used: result.used,
     rejected: result.rejected.map((r) => ({ line: r.line, time: r.time, offsetNs: r.offsetNs, residualNs: r.residualNs })),
-    stability: result.stability.map((s) => ({ tauS: s.tauS, oadev: s.oadev, mdev: s.mdev, count: s.count })),
+    stability: result.stability,
+    rawStability: result.rawStability,
+    rejectedFraction: result.rejectedFraction,
+    clipStopped: result.clipStopped,
+    warnings: result.warnings,
+    steps: result.steps,
     degree: result.degree,
     stabilityNote: result.stabilityNote,
     sigmaSource: result.sigmaSource,
@@ -59,6 +66,8 @@ export const FIT_CSV_COLUMNS = [
   'sigmaSource',
   'reducedChiSquare',
   'periodicRemoved',
+  'rejectedFraction',
+  'clipStopped',
 ] as const;
 
 /**
@@ -83,8 +92,11 @@ export function fitToCsv(result: FitResult): string {
     j.sigmaSource,
     j.reducedChiSquare,
     j.periodicRemoved,
+    j.rejectedFraction,
+    j.clipStopped,
   ];
-  return stringify([[...FIT_CSV_COLUMNS], row.map((v) => (v === null ? '' : String(v)))]);
+  const warnings = j.warnings.map((w) => `# WARNING: ${w}\n`).join('');
+  return warnings + stringify([[...FIT_CSV_COLUMNS], row.map((v) => (v === null ? '' : String(v)))]);
 }
 
 /**
@@ -100,6 +112,8 @@ export function fitToText(result: FitResult, timeSystem: TimeSystem): string {
   const ns = (x: number): string => x.toFixed(3);
   const epochGps = timeSystem.format(Instant.fromTtJ2000S(result.epochTtJ2000S), 'GPS');
   const out: string[] = [];
+  for (const w of j.warnings) out.push(`WARNING: ${w}`);
+  if (j.warnings.length > 0) out.push('');
   out.push(`Clock fit, degree ${j.degree} (${['offset', 'offset + frequency', 'offset + frequency + drift'][j.degree]})`);
   out.push(`Model: offset(t) = x0 + y·t + D·t²/2, t from the epoch; y > 0 means the clock runs fast.`);
   out.push('');
@@ -123,7 +137,21 @@ export function fitToText(result: FitResult, timeSystem: TimeSystem): string {
     out.push('  periodic term          the relativistic periodic term along the orbit was removed before fitting,');
     out.push('                         so y is the hardware offset plus the mean relativistic offset');
   }
-  out.push(`  clipping               ${j.clipSigma === null ? 'off' : `${j.clipSigma}σ, ${j.iterations} pass(es)`}`);
+  out.push(`  clipping               ${j.clipSigma === null ? 'off' : `${j.clipSigma}σ, ${j.iterations} pass(es)${j.clipStopped ? ', stopped at the 10 % limit' : ''}`}`);
+  out.push(`  rejected fraction      ${(j.rejectedFraction * 100).toFixed(1)} % (${j.rejected.length} of ${j.used + j.rejected.length} rows)`);
+  if (j.steps.length > 0) {
+    out.push('');
+    out.push(`Steps in the residuals (${j.steps.length}; windowed test on the sample-to-sample frequency):`);
+    out.push(
+      indent(
+        textTable(
+          ['kind', 'line', 'time (UTC)', 'size', 'sigmas'],
+          j.steps.map((st) => [st.kind, String(st.line), st.time, st.sizeNs !== null ? `${st.sizeNs.toFixed(3)} ns` : (st.fractionalStep as number).toExponential(3), st.sigmas.toFixed(1)]),
+          [false, true, false, true, true],
+        ),
+      ),
+    );
+  }
   out.push('');
   if (j.rejected.length === 0) {
     out.push('Rejected rows: none');
@@ -142,19 +170,24 @@ export function fitToText(result: FitResult, timeSystem: TimeSystem): string {
   if (j.stability.length === 0) {
     out.push(`Stability: ${j.stabilityNote ?? 'none'}`);
   } else {
-    out.push('Stability of the residual phase (NIST SP 1065 overlapping and modified Allan deviations):');
-    out.push(
-      indent(
-        textTable(
-          ['tau [s]', 'OADEV', 'MDEV', 'terms'],
-          j.stability.map((s) => [formatTau(s.tauS), s.oadev.toExponential(3), s.mdev.toExponential(3), String(s.count)]),
-        ),
-      ),
-    );
+    out.push('Stability of the fit residuals (NIST SP 1065; noise type by lag-1 autocorrelation; [68 % interval]):');
+    out.push(indent(fitStabilityText(j.stability)));
+    if (j.rawStability.length > 0) {
+      out.push('Stability of the raw phase (offsets with only the periodic term removed):');
+      out.push(indent(fitStabilityText(j.rawStability)));
+    }
     out.push('  The fitted polynomial is removed first, which lowers the values at long tau.');
     if (j.stabilityNote !== null) out.push(`  Note: ${j.stabilityNote}.`);
   }
   return `${out.join('\n')}\n`;
+}
+
+function fitStabilityText(rows: FitResult['stability']): string {
+  const ci = (v: DeviationInterval | null): string => (v === null ? '—' : `${v.value.toExponential(3)} [${v.ci68[0].toExponential(2)}, ${v.ci68[1].toExponential(2)}]`);
+  return textTable(
+    ['tau [s]', 'noise', 'OADEV', 'MDEV', 'TDEV [s]', 'OHDEV', 'terms'],
+    rows.map((s) => [formatTau(s.tauS), noiseTypeName(s.alpha), ci(s.oadevInterval), ci(s.mdevInterval), ci(s.tdevS), ci(s.ohdev), String(s.count)]),
+  );
 }
 
 function formatTau(tauS: number): string {

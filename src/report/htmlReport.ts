@@ -407,9 +407,10 @@ export function fitSection(r: FitResult): SectionSpec {
       }),
     );
   }
+  const warn = r.warnings.map((w) => `WARNING: ${w}`).join('\n\n');
   return {
     heading: 'Clock fit from measurements',
-    intro: `Parameters at ${r.epoch}; 1-σ from the covariance${r.stabilityNote === null ? '' : `. ${r.stabilityNote}`}.`,
+    intro: `${warn === '' ? '' : `${warn}\n\n`}Parameters at ${r.epoch}; 1-σ from the covariance${r.stabilityNote === null ? '' : `. ${r.stabilityNote}`}. Rejected ${(r.rejectedFraction * 100).toFixed(1)} % of the rows${r.clipStopped ? ' (clipping stopped at the 10 % limit)' : ''}.`,
     figures,
     tables: [
       {
@@ -421,6 +422,7 @@ export function fitSection(r: FitResult): SectionSpec {
           ['drift', r.driftPerDay === null ? null : r.driftPerDay.toExponential(4), r.driftPerDaySigma === null ? null : r.driftPerDaySigma.toExponential(2), '1/day'],
           ['rms of residuals', r.rmsNs.toFixed(3), null, 'ns'],
           ['rows used / rejected', `${r.used} / ${r.rejected.length}`, null, ''],
+          ['rejected fraction', (r.rejectedFraction * 100).toFixed(1), null, '%'],
         ],
       },
     ],

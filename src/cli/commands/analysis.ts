@@ -3,6 +3,7 @@ import type { Argv } from 'yargs';
 import { checkEpochNearData } from '../options.ts';
 import { Instant } from '../../time/instant.ts';
 import { gravityModel } from '../../orbit/gravity.ts';
+import { WGS84_GM_M3_PER_S2 } from '../../constants.ts';
 import { InputError } from '../../errors.ts';
 import { loadScenario, scenarioSatellite } from '../../io/loadScenario.ts';
 import { parseMeasurementsCsv } from '../../io/measurements.ts';
@@ -216,6 +217,7 @@ export function computeFit(a: FitArgs, ts: TimeSystem) {
   }
   let periodicNs: ((t: number) => number) | undefined;
   let meanRelativistic = 0;
+  let orbitalPeriodS: number | undefined;
   if (a.scenario !== undefined) {
     const scenario = loadScenario(a.scenario, ts, '--scenario');
     const gravity = scenarioGravity(scenario, ts, a.scenario);
@@ -234,6 +236,7 @@ export function computeFit(a: FitArgs, ts: TimeSystem) {
     resolved.trajectory.sampleInto(t, block);
     const p = block.positionM;
     const v = block.velocityMPerS;
+    orbitalPeriodS = orbitalPeriodFromStateS(p[0], p[1], p[2], v[0], v[1], v[2]);
     const xc = Float64Array.from(data.rows, (r, i) => run.clock.relativisticNs(r.ttJ2000S) - 1e9 * conventionalPeriodicS(p[3 * i], p[3 * i + 1], p[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]));
     const line = t.length >= 2 && t[t.length - 1] > t[0] ? lineFit(t, xc) : { slope: 0, intercept: xc[0], tMean: t[0] };
     periodicNs = (tt) => run.clock.relativisticNs(tt) - (line.intercept + line.slope * (tt - line.tMean));
@@ -249,12 +252,22 @@ export function computeFit(a: FitArgs, ts: TimeSystem) {
     sourceName: a.measurements,
     ...(a.epoch === undefined ? {} : { epochTtJ2000S: ts.parse(a.epoch, '--epoch').ttJ2000S }),
     ...(periodicNs === undefined ? {} : { periodicNs }),
+    ...(orbitalPeriodS === undefined ? {} : { orbitalPeriodS }),
   });
   return { result, meanRelativistic };
 }
 
-export function runFit(a: FitArgs, ts: TimeSystem): Rendered {
+/** Two-body period from one state (m, m/s), s; only to name an unremoved periodic term. */
+function orbitalPeriodFromStateS(x: number, y: number, z: number, vx: number, vy: number, vz: number): number | undefined {
+  const gm = WGS84_GM_M3_PER_S2;
+  const r = Math.hypot(x, y, z);
+  const aM = 1 / (2 / r - (vx * vx + vy * vy + vz * vz) / gm);
+  return aM > 0 ? 2 * Math.PI * Math.sqrt((aM * aM * aM) / gm) : undefined;
+}
+
+export function runFit(a: FitArgs & { quiet?: boolean }, ts: TimeSystem): Rendered {
   const { result, meanRelativistic } = computeFit(a, ts);
+  if (a.quiet !== true) for (const w of result.warnings) process.stderr.write(`tauplan: warning: ${w}\n`);
   if (a.updateScenario !== undefined) {
     if (result.fractionalFrequency === null) throw new InputError('a degree-0 fit has no frequency to write', '--degree', 'use --degree 1 or 2 with --update-scenario');
     // The scenario's model adds relativity itself, so the hardware offset is the fit minus its mean.
