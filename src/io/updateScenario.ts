@@ -10,12 +10,14 @@ import { writeFileAtomic } from './output.ts';
 import { readTextFile } from './orbitSources.ts';
 import { parseScenarioText } from './scenario.ts';
 
-/** The clock keys a fit determines. Other keys of the block (noise, keepInNs) are kept. */
+/** The clock keys a fit determines. Other keys of the block (keepInNs, and noise unless given) are kept. */
 export interface FittedClock {
   epoch: string;
   offsetNs: number;
   hardwareFractionalOffset: number;
   agingPerDay?: number;
+  /** Noise levels estimated from the residual stability (replaces the block's noise). */
+  noise?: { whiteFmAdev1s: number; flickerFmFloor: number; randomWalkFmAdev1d: number };
 }
 
 export function updateScenarioClock(path: string, satelliteId: string, clock: FittedClock, ts: TimeSystem): void {

@@ -20,6 +20,7 @@ import { Instant } from '../time/instant.ts';
 import { clipStoppedWarning, clippingExceedsLimit, diagnoseResiduals } from './fitGuard.ts';
 import { fitStabilityRows, offsetStability, type FitStabilityRow } from './fitStability.ts';
 import { detectSteps, type DetectedStep } from './steps.ts';
+import { estimateNoiseModel, type NoiseModelEstimate } from '../clock/noiseFit.ts';
 
 export type { FitStabilityRow } from './fitStability.ts';
 
@@ -123,6 +124,10 @@ export interface FitResult {
   steps: (Omit<DetectedStep, 'timeS' | 'index'> & { time: string })[];
   /** Stability of the raw phase (offsets with only the periodic term removed), same row shape. */
   rawStability: FitStabilityRow[];
+  /** Noise levels estimated from the residual stability (src/clock/noiseFit.ts), or null. */
+  noiseModel: NoiseModelEstimate | null;
+  /** Why there is no noise model; null when there is one. */
+  noiseModelNote: string | null;
 }
 
 const SECONDS_PER_DAY = 86400;
@@ -251,6 +256,8 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
   const stability = fitStabilityRows(residualTable.table);
   const note = residualTable.note;
   const rawStability = fitStabilityRows(offsetStability(rows.map((r) => r.ttJ2000S), yNs).table);
+  const usedSpanS = usedTimesS[usedTimesS.length - 1] - usedTimesS[0];
+  const noise = residualTable.table === null ? { estimate: null, reason: residualTable.note ?? 'no stability table' } : estimateNoiseModel(residualTable.table.rows, usedSpanS);
   const steps = detectSteps(usedTimesS, sol.residualNs, usedIdx.map((i) => rows[i].line));
   const formatTime = (t: number): string => options.timeSystem.format(Instant.fromTtJ2000S(t));
   const warnings: string[] = [];
@@ -295,6 +302,8 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
     warnings,
     steps: steps.map(({ timeS, index: _index, ...rest }) => ({ ...rest, time: formatTime(timeS) })),
     rawStability,
+    noiseModel: noise.estimate,
+    noiseModelNote: noise.reason,
   };
 }
 

@@ -36,6 +36,8 @@ export function fitToJson(result: FitResult): FitJson {
     clipStopped: result.clipStopped,
     warnings: result.warnings,
     steps: result.steps,
+    noiseModel: result.noiseModel,
+    noiseModelNote: result.noiseModelNote,
     degree: result.degree,
     stabilityNote: result.stabilityNote,
     sigmaSource: result.sigmaSource,
@@ -139,6 +141,14 @@ export function fitToText(result: FitResult, timeSystem: TimeSystem): string {
   }
   out.push(`  clipping               ${j.clipSigma === null ? 'off' : `${j.clipSigma}σ, ${j.iterations} pass(es)${j.clipStopped ? ', stopped at the 10 % limit' : ''}`}`);
   out.push(`  rejected fraction      ${(j.rejectedFraction * 100).toFixed(1)} % (${j.rejected.length} of ${j.used + j.rejected.length} rows)`);
+  if (j.noiseModel !== null) {
+    const nm = j.noiseModel;
+    const lv = (v: number, sd: number | null): string => `${v.toExponential(3)}${sd === null ? '' : ` ± ${sd.toExponential(2)}`}`;
+    out.push(`  noise model            white FM ${lv(nm.whiteFmAdev1s, nm.whiteFmAdev1sSigma)} at 1 s, flicker floor ${lv(nm.flickerFmFloor, nm.flickerFmFloorSigma)},`);
+    out.push(`                         random-walk FM ${lv(nm.randomWalkFmAdev1d, nm.randomWalkFmAdev1dSigma)} at 1 d (${nm.method})`);
+  } else {
+    out.push(`  noise model            none: ${j.noiseModelNote ?? 'no stability table'}`);
+  }
   if (j.steps.length > 0) {
     out.push('');
     out.push(`Steps in the residuals (${j.steps.length}; windowed test on the sample-to-sample frequency):`);

@@ -276,6 +276,9 @@ export function runFit(a: FitArgs & { quiet?: boolean }, ts: TimeSystem): Render
       offsetNs: result.offsetNs,
       hardwareFractionalOffset: result.fractionalFrequency - meanRelativistic,
       ...(result.driftPerDay === null ? {} : { agingPerDay: result.driftPerDay }),
+      ...(result.noiseModel === null
+        ? {}
+        : { noise: { whiteFmAdev1s: result.noiseModel.whiteFmAdev1s, flickerFmFloor: result.noiseModel.flickerFmFloor, randomWalkFmAdev1d: result.noiseModel.randomWalkFmAdev1d } }),
     }, ts);
   }
   return {
