@@ -89,3 +89,25 @@ export function predictionBandAt(noise: NoiseLevels, horizonS: number, fit?: Fit
 /** The band as text for reports. */
 export const PREDICTION_BAND_TEXT =
   'σx²(t) = q1·t + q2·t³/3 (+ (b·t)² for a flicker floor b) from the clock model of Zucca & Tavella 2005, q1 = whiteFmAdev1s²·1 s, q2 = 3·randomWalkFmAdev1d²/1 d; 95 % band = ±1.96·σx';
+
+/**
+ * The 95 % band (±1.96σ) at 60 horizons from 0 to `maxHorizonS`, for plots.
+ * @param sigmas      1σ of (offset ns, fractional frequency, drift per day); nulls (unknown) end the list
+ * @param correlation their correlation matrix, or null (then the fitted state is taken as exact)
+ */
+export function bandSeries(noise: NoiseLevels, sigmas: (number | null)[], correlation: number[][] | null, maxHorizonS: number): { horizonS: number[]; halfWidth95Ns: number[] } {
+  const known: number[] = [];
+  for (const v of sigmas) {
+    if (v === null) break;
+    known.push(v);
+  }
+  const fit = correlation === null || known.length === 0 ? undefined : { sigmas: known, correlation: correlation.slice(0, known.length).map((r) => r.slice(0, known.length)) };
+  const horizonS: number[] = [];
+  const halfWidth95Ns: number[] = [];
+  for (let k = 0; k <= 60; k++) {
+    const t = (maxHorizonS * k) / 60;
+    horizonS.push(t);
+    halfWidth95Ns.push(1.96 * predictionBandAt(noise, t, fit).sigmaNs);
+  }
+  return { horizonS, halfWidth95Ns };
+}

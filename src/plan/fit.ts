@@ -21,6 +21,7 @@ import { clipStoppedWarning, clippingExceedsLimit, diagnoseResiduals } from './f
 import { fitStabilityRows, offsetStability, type FitStabilityRow } from './fitStability.ts';
 import { detectSteps, type DetectedStep } from './steps.ts';
 import { estimateNoiseModel, type NoiseModelEstimate } from '../clock/noiseFit.ts';
+import { bandSeries } from '../clock/predictionBand.ts';
 
 export type { FitStabilityRow } from './fitStability.ts';
 
@@ -128,6 +129,8 @@ export interface FitResult {
   noiseModel: NoiseModelEstimate | null;
   /** Why there is no noise model; null when there is one. */
   noiseModelNote: string | null;
+  /** 95 % prediction band from the noise model and the fitted state's covariance, or null without a noise model. */
+  predictionBand: { horizonS: number[]; halfWidth95Ns: number[] } | null;
 }
 
 const SECONDS_PER_DAY = 86400;
@@ -304,6 +307,7 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
     rawStability,
     noiseModel: noise.estimate,
     noiseModelNote: noise.reason,
+    predictionBand: noise.estimate === null ? null : bandSeries(noise.estimate, [offsetSigmaNs, s1 === null ? null : s1 * nsToFraction, s2 === null ? null : s2 * nsToFraction * SECONDS_PER_DAY], correlation, Math.max(SECONDS_PER_DAY, 4 * usedSpanS)),
   };
 }
 

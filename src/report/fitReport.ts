@@ -38,6 +38,7 @@ export function fitToJson(result: FitResult): FitJson {
     steps: result.steps,
     noiseModel: result.noiseModel,
     noiseModelNote: result.noiseModelNote,
+    predictionBand: result.predictionBand,
     degree: result.degree,
     stabilityNote: result.stabilityNote,
     sigmaSource: result.sigmaSource,

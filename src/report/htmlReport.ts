@@ -392,6 +392,11 @@ export function sweepSection(r: SweepResult, gravity: string): SectionSpec {
   };
 }
 
+/** Short noise-type tag for plot points. */
+function noiseTag(alpha: number | null): string | null {
+  return alpha === null ? null : ({ 2: 'WPM', 1: 'FPM', 0: 'WFM', [-1]: 'FFM', [-2]: 'RWFM' } as Record<number, string>)[alpha] ?? null;
+}
+
 export function fitSection(r: FitResult): SectionSpec {
   const figures: string[] = [];
   if (r.stability.length > 0) {
@@ -401,8 +406,30 @@ export function fitSection(r: FitResult): SectionSpec {
         xAxis: { label: 'Averaging time τ', unit: 's' },
         yAxis: { label: 'Deviation', unit: '1' },
         series: [
-          { label: 'overlapping Allan deviation', x: r.stability.map((s) => s.tauS), y: r.stability.map((s) => s.oadev) },
+          {
+            label: 'overlapping Allan deviation (bars 68 %)',
+            x: r.stability.map((s) => s.tauS),
+            y: r.stability.map((s) => s.oadev),
+            yLow: r.stability.map((s) => (s.oadevInterval.ci68[0] > 0 ? s.oadevInterval.ci68[0] : s.oadev)),
+            yHigh: r.stability.map((s) => s.oadevInterval.ci68[1]),
+            pointLabels: r.stability.map((s) => noiseTag(s.alpha)),
+          },
           { label: 'modified Allan deviation', x: r.stability.map((s) => s.tauS), y: r.stability.map((s) => s.mdev) },
+        ],
+      }),
+    );
+  }
+  if (r.predictionBand !== null) {
+    const band = r.predictionBand;
+    const days = band.horizonS.map((t) => t / 86400);
+    figures.push(
+      linePlot({
+        title: 'Prediction band from the fitted noise model and state (95 %)',
+        xAxis: { label: 'Time since the epoch', unit: 'd' },
+        yAxis: { label: 'Time error', unit: 'ns' },
+        series: [
+          { label: '+1.96σ', x: days, y: band.halfWidth95Ns },
+          { label: '−1.96σ', x: days, y: band.halfWidth95Ns.map((v) => -v) },
         ],
       }),
     );

@@ -30,6 +30,9 @@ export function noiseTypeName(alpha: number | null): string {
   }
 }
 
+/** Short noise-type tags for plots. */
+const SHORT_NOISE: Record<number, string> = { 2: 'WPM', 1: 'FPM', 0: 'WFM', [-1]: 'FFM', [-2]: 'RWFM' };
+
 /** JSON row: the contract's fields plus the α the intervals assume. */
 export interface StabilityJsonRow {
   tauS: number;
@@ -122,6 +125,8 @@ export function stabilitySection(r: StabilityResult, heading = 'Frequency stabil
         return v.ci68[0] > 0 ? v.ci68[0] : v.value;
       }),
       yHigh: rows.map((row) => (row[s] as DeviationInterval).ci68[1]),
+      // Noise type per τ on the first curve only (one label per τ).
+      ...(s === 'oadev' ? { pointLabels: rows.map((row) => (row.alpha === null ? null : SHORT_NOISE[row.alpha])) } : {}),
       label: { oadev: 'overlapping Allan deviation', mdev: 'modified Allan deviation', ohdev: 'overlapping Hadamard deviation' }[s],
       x: rows.map((row) => row.tauS),
       y: rows.map((row) => (row[s] as DeviationInterval).value),
@@ -131,7 +136,7 @@ export function stabilitySection(r: StabilityResult, heading = 'Frequency stabil
   return {
     heading,
     intro: `${r.dataType} data from ${r.source}: τ0 = ${r.tau0S} s, ${r.points} samples, ${r.missing} missing. ${[...r.notes, EDF_NOTE].join('. ')}.`,
-    figures: series.length === 0 ? [] : [logLogPlot({ title: 'Stability (bars: 68 % intervals)', xAxis: { label: 'Averaging time τ', unit: 's' }, yAxis: { label: 'Deviation', unit: '1' }, series })],
+    figures: series.length === 0 ? [] : [logLogPlot({ title: 'Stability (bars: 68 % intervals; noise type: WPM/FPM white/flicker PM, WFM/FFM/RWFM white/flicker/random-walk FM)', xAxis: { label: 'Averaging time τ', unit: 's' }, yAxis: { label: 'Deviation', unit: '1' }, series })],
     tables: [
       {
         caption: 'Deviations with 68 % and 95 % intervals',

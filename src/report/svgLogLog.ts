@@ -14,6 +14,8 @@ export interface LogLogSeries {
   /** Lower and upper ends of the error bar at each point, same unit as y; both > 0. */
   yLow?: ArrayLike<number>;
   yHigh?: ArrayLike<number>;
+  /** Optional short label drawn above each point (e.g. the identified noise type); null for none. */
+  pointLabels?: ArrayLike<string | null>;
 }
 
 /** Options for {@link logLogPlot}. */
@@ -50,7 +52,7 @@ export function logLogPlot(opts: LogLogPlotOptions): string {
       xMin = Math.min(xMin, x[k]); xMax = Math.max(xMax, x[k]);
       yMin = Math.min(yMin, y[k], lo?.[k] ?? Infinity); yMax = Math.max(yMax, y[k], hi?.[k] ?? -Infinity);
     }
-    return { label: s.label, x, y, lo, hi };
+    return { label: s.label, x, y, lo, hi, tags: s.pointLabels };
   });
   if (!Number.isFinite(xMin)) { xMin = 1; xMax = 10; }
   if (!Number.isFinite(yMin)) { yMin = 1; yMax = 10; }
@@ -100,6 +102,8 @@ export function logLogPlot(opts: LogLogPlotOptions): string {
         out.push(`<path d="M${n(x)},${n(y0)}L${n(x)},${n(y1)}M${n(x - 3)},${n(y0)}L${n(x + 3)},${n(y0)}M${n(x - 3)},${n(y1)}L${n(x + 3)},${n(y1)}" stroke="${c}" stroke-width="1"/>`);
       }
       out.push(`<circle cx="${n(x)}" cy="${n(ys(s.y[k]))}" r="3" fill="${c}"/>`);
+      const tag = s.tags?.[k];
+      if (tag !== undefined && tag !== null) out.push(`<text x="${n(x)}" y="${n(ys(s.hi?.[k] ?? s.y[k]) - 6)}" text-anchor="middle" font-size="10" fill="${c}">${escapeXml(tag)}</text>`);
     }
   });
   out.push(`<text x="${n((f.left + f.right) / 2)}" y="${n(f.bottom + 40)}" text-anchor="middle">${escapeXml(axisTitle(opts.xAxis))}</text>`);
