@@ -106,4 +106,17 @@ describe('phase jumps and frequency steps (windowed test on sample-to-sample fre
     expect(r.clipStopped).toBe(true);
     expect(r.warnings[0]).toMatch(/phase jump .* at line 182/);
   });
+
+  it('--segments auto fits the jump jointly with the clock and removes it: size within 3σ of the 25 ns put in, rms back to the noise', () => {
+    const g = gaussian(mulberry32(9));
+    const data = rows(300, 60, (t, i) => 3 + 1e-11 * t * 1e9 + 0.2 * g() + (i >= 180 ? 25 : 0), 0.2);
+    const r = fitClock(data, { degree: 1, timeSystem: ts, clipSigma: 4, segments: 'auto' });
+    expect(r.segmentJumps.length).toBe(1);
+    const j = r.segmentJumps[0];
+    expect(j.line).toBe(182);
+    expect(Math.abs(j.sizeNs - 25), `wanted 25 ns, got ${j.sizeNs} ± ${j.sizeSigmaNs}`).toBeLessThan(3 * j.sizeSigmaNs);
+    expect(r.clipStopped).toBe(false);
+    expect(r.rmsNs).toBeLessThan(0.3);
+    expect(Math.abs((r.fractionalFrequency as number) - 1e-11)).toBeLessThan(5 * (r.fractionalFrequencySigma as number));
+  });
 });

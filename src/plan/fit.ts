@@ -22,6 +22,7 @@ import { fitStabilityRows, offsetStability, type FitStabilityRow } from './fitSt
 import { detectSteps, type DetectedStep } from './steps.ts';
 import { estimateNoiseModel, type NoiseModelEstimate } from '../clock/noiseFit.ts';
 import { bandSeries } from '../clock/predictionBand.ts';
+import { fitWithAutoSegments, type FittedJump } from './segments.ts';
 
 export type { FitStabilityRow } from './fitStability.ts';
 
@@ -64,6 +65,8 @@ export interface FitOptions {
   sourceName?: string;
   /** Orbital period, s, when an orbit is known (names an unremoved periodic term in the fit guard). */
   orbitalPeriodS?: number;
+  /** 'auto': fit the phase jumps found in the residuals jointly and remove them (src/plan/segments.ts). Default 'none'. */
+  segments?: 'none' | 'auto';
 }
 
 /** A row left out by sigma clipping. */
@@ -129,6 +132,8 @@ export interface FitResult {
   noiseModel: NoiseModelEstimate | null;
   /** Why there is no noise model; null when there is one. */
   noiseModelNote: string | null;
+  /** Phase jumps fitted and removed with `segments: 'auto'` (empty otherwise). */
+  segmentJumps: FittedJump[];
   /** 95 % prediction band from the noise model and the fitted state's covariance, or null without a noise model. */
   predictionBand: { horizonS: number[]; halfWidth95Ns: number[] } | null;
 }
@@ -159,6 +164,7 @@ interface Solution {
  *   times cannot separate the parameters, or when an option is out of range
  */
 export function fitClock(rows: readonly FitInputRow[], options: FitOptions): FitResult {
+  if (options.segments === 'auto') return fitWithAutoSegments(rows, options.periodicNs, (r) => fitClock(r, { ...options, segments: 'none' }));
   const degree = options.degree;
   if (degree !== 0 && degree !== 1 && degree !== 2) throw new InputError(`degree ${String(degree)}`, '--degree', 'use 0, 1 or 2');
   const p = degree + 1;
@@ -307,6 +313,7 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
     rawStability,
     noiseModel: noise.estimate,
     noiseModelNote: noise.reason,
+    segmentJumps: [],
     predictionBand: noise.estimate === null ? null : bandSeries(noise.estimate, [offsetSigmaNs, s1 === null ? null : s1 * nsToFraction, s2 === null ? null : s2 * nsToFraction * SECONDS_PER_DAY], correlation, Math.max(SECONDS_PER_DAY, 4 * usedSpanS)),
   };
 }

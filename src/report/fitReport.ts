@@ -39,6 +39,7 @@ export function fitToJson(result: FitResult): FitJson {
     noiseModel: result.noiseModel,
     noiseModelNote: result.noiseModelNote,
     predictionBand: result.predictionBand,
+    segmentJumps: result.segmentJumps,
     degree: result.degree,
     stabilityNote: result.stabilityNote,
     sigmaSource: result.sigmaSource,
@@ -150,6 +151,7 @@ export function fitToText(result: FitResult, timeSystem: TimeSystem): string {
   } else {
     out.push(`  noise model            none: ${j.noiseModelNote ?? 'no stability table'}`);
   }
+  for (const sj of j.segmentJumps) out.push(`  phase jump removed     ${sj.sizeNs.toFixed(3)} ± ${sj.sizeSigmaNs.toFixed(3)} ns from line ${sj.line} (${sj.time}) on (--segments auto; parameter 1σ leave out its uncertainty)`);
   if (j.steps.length > 0) {
     out.push('');
     out.push(`Steps in the residuals (${j.steps.length}; windowed test on the sample-to-sample frequency):`);

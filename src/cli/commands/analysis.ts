@@ -192,7 +192,8 @@ export function fitOptions<T>(y: Argv<T>) {
     .option('degree', { type: 'number', requiresArg: true, default: 2, describe: '0 offset, 1 + frequency, 2 + drift' })
     .option('scenario', { type: 'string', requiresArg: true, describe: 'scenario whose satellite orbit gives the relativistic periodic term to remove' })
     .option('sat', { type: 'string', requiresArg: true, describe: 'satellite id in the scenario' })
-    .option('clip', { type: 'number', requiresArg: true, default: 4, describe: 'sigma-clipping threshold (0 disables)' })
+    .option('clip', { type: 'number', requiresArg: true, default: 4, describe: 'sigma-clipping threshold (0 disables); never removes more than 10 % of the rows' })
+    .option('segments', { type: 'string', requiresArg: true, default: 'none', describe: 'none | auto: fit and remove the phase jumps found in the residuals' })
     .option('epoch', { type: 'string', requiresArg: true, describe: 'epoch the parameters refer to (default: first sample)' })
     .option('update-scenario', { type: 'string', requiresArg: true, describe: 'write the fitted clock block of --sat into this scenario file (atomically)' });
 }
@@ -203,6 +204,7 @@ export interface FitArgs {
   scenario?: string;
   sat?: string;
   clip: number;
+  segments?: string;
   epoch?: string;
   updateScenario?: string;
 }
@@ -210,6 +212,8 @@ export interface FitArgs {
 export function computeFit(a: FitArgs, ts: TimeSystem) {
   if (a.degree !== 0 && a.degree !== 1 && a.degree !== 2) throw new InputError(`degree ${a.degree} is not 0, 1 or 2`, '--degree', 'use 0, 1 or 2');
   if (!(a.clip >= 0)) throw new InputError(`--clip ${a.clip} is negative`, '--clip', 'give a threshold ≥ 0 (0 disables clipping)');
+  const segments = a.segments ?? 'none';
+  if (segments !== 'none' && segments !== 'auto') throw new InputError(`--segments ${JSON.stringify(segments)}`, '--segments', 'use none or auto');
   if (a.sat !== undefined && a.scenario === undefined) throw new InputError('--sat without --scenario', '--sat', 'give --scenario FILE too');
   const data = parseMeasurementsCsv(readTextFile(a.measurements, 'measurements'), a.measurements, ts);
   if (a.updateScenario !== undefined && (a.scenario === undefined || a.sat === undefined)) {
@@ -249,6 +253,7 @@ export function computeFit(a: FitArgs, ts: TimeSystem) {
     degree: a.degree,
     timeSystem: ts,
     clipSigma: a.clip,
+    segments,
     sourceName: a.measurements,
     ...(a.epoch === undefined ? {} : { epochTtJ2000S: ts.parse(a.epoch, '--epoch').ttJ2000S }),
     ...(periodicNs === undefined ? {} : { periodicNs }),
