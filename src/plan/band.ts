@@ -1,8 +1,8 @@
 /**
  * The prediction band the planner uses (physics.md §6): one function gives the band's 1-σ at a
  * horizon τ counted from the last known state (the plan start, or the last adjustment, where a
- * fresh measurement is assumed). Today it is the rule σx(τ) ≈ τ·σy(τ) of `clock/noise.ts`; a band
- * derived from a characterised noise model plugs in here and nowhere else.
+ * fresh measurement is assumed). It is the derived band of `clock/predictionBand.ts` through
+ * `clock/noise.ts` (the old rule σx(τ) ≈ τ·σy(τ) stays there as the documented fallback).
  *
  * For white FM and random-walk FM the rule equals the Wiener-process result
  * σx²(τ) = q1·τ + q2·τ³/3 (Zucca & Tavella 2005, eq. for the two-state clock model; derived), since
