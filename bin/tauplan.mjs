@@ -16,10 +16,17 @@ function newestMtimeMs(dir) {
 }
 
 function bundleIsFresh() {
+  let bundleMs;
   try {
-    return statSync(`${root}dist/cli.mjs`).mtimeMs >= newestMtimeMs(`${root}src`);
+    bundleMs = statSync(`${root}dist/cli.mjs`).mtimeMs;
   } catch {
     return false;
+  }
+  // An installed package ships dist/ without src/.
+  try {
+    return bundleMs >= newestMtimeMs(`${root}src`);
+  } catch {
+    return true;
   }
 }
 

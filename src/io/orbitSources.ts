@@ -111,6 +111,13 @@ function readSp3(path: string, where: string): Sp3File {
   return f;
 }
 
+/** Read and parse every SP3 file a scenario names now, so that resolving its orbits reads nothing. */
+export function preloadScenarioFiles(scenario: ScenarioSpec): void {
+  for (const sat of scenario.satellites) {
+    if (sat.orbit.kind === 'sp3') readSp3(sat.orbit.resolvedFile, `${scenario.fileName} ${sat.path}.orbit.sp3.file`);
+  }
+}
+
 /** Keplerian elements of a scenario satellite. */
 function scenarioElements(sat: SatelliteSpec, deltaAKm: number): KeplerianElements {
   const o = sat.orbit;

@@ -12,7 +12,7 @@ const utc = (ts: TimeSystem, t: number): string => ts.format(Instant.fromTtJ2000
 
 // ---- compare ----------------------------------------------------------------------------------
 
-export function compareToJson(r: CompareResult, ts: TimeSystem, meta: { scenario: string; gravity: string; fromTtJ2000S: number; toTtJ2000S: number }): Record<string, unknown> {
+export function compareToJson(r: CompareResult, ts: TimeSystem, meta: { scenario: string; gravity: string; fromTtJ2000S: number; toTtJ2000S: number }) {
   return {
     scenario: meta.scenario,
     gravity: meta.gravity,
@@ -31,6 +31,9 @@ export function compareToJson(r: CompareResult, ts: TimeSystem, meta: { scenario
     note: 'Relativity only (no oscillator model). Station rates use the scenario gravity model plus the given geoid undulation; tauplan carries no geoid model.',
   };
 }
+
+/** The JSON object `tauplan compare --format json` prints (plain data; times are UTC ISO strings). */
+export type CompareJson = ReturnType<typeof compareToJson>;
 
 /** Clocks, then pairs (kind `pair`, with a, b and the difference over their common interval from–to). */
 export function compareToCsv(r: CompareResult, ts: TimeSystem): string {
@@ -86,7 +89,7 @@ export function compareToText(r: CompareResult, ts: TimeSystem, meta: { scenario
 
 // ---- sweep ------------------------------------------------------------------------------------
 
-export function sweepToJson(r: SweepResult, meta: { gravity: string; e: number; iDeg: number }): Record<string, unknown> {
+export function sweepToJson(r: SweepResult, meta: { gravity: string; e: number; iDeg: number }) {
   return {
     gravity: meta.gravity,
     e: meta.e,
@@ -96,6 +99,9 @@ export function sweepToJson(r: SweepResult, meta: { gravity: string; e: number; 
     note: 'Altitude above the WGS-84 equatorial radius 6378.137 km; elements osculating; each row integrated over two periods (at most one day).',
   };
 }
+
+/** The JSON object `tauplan sweep --format json` prints (plain data; times are UTC ISO strings). */
+export type SweepJson = ReturnType<typeof sweepToJson>;
 
 export function sweepToCsv(r: SweepResult): string {
   return toCsv(['altitudeKm', 'meanFractionalOffset', 'gravitational', 'velocity'], r.rows.map((x) => [x.altitudeKm, x.meanFractionalOffset, x.gravitational, x.velocity]));
@@ -120,7 +126,7 @@ export function sweepToText(r: SweepResult, meta: { gravity: string; e: number; 
 
 // ---- track ------------------------------------------------------------------------------------
 
-export function trackToJson(rows: TrackRow[], ts: TimeSystem, satellite: string, frame: string): Record<string, unknown> {
+export function trackToJson(rows: TrackRow[], ts: TimeSystem, satellite: string, frame: string) {
   return {
     satellite,
     frame,
@@ -138,6 +144,9 @@ export function trackToJson(rows: TrackRow[], ts: TimeSystem, satellite: string,
     })),
   };
 }
+
+/** The JSON object `tauplan track --format json` prints (plain data; times are UTC ISO strings). */
+export type TrackJson = ReturnType<typeof trackToJson>;
 
 const TRACK_COLUMNS = ['time', 'xKm', 'yKm', 'zKm', 'vxKmPerS', 'vyKmPerS', 'vzKmPerS', 'fractionalOffset', 'offsetNs', 'periodicNs'];
 

@@ -36,7 +36,7 @@ export function microseconds(s: number): number {
 }
 
 /** One pass as the contract's JSON object, plus GPS week/seconds of AOS and our extras. */
-export function passToJson(r: PassClockRow, ts: TimeSystem): Record<string, unknown> {
+export function passToJson(r: PassClockRow, ts: TimeSystem) {
   const aosGps = ts.gpsWeek(Instant.fromTtJ2000S(r.aosTtJ2000S));
   return {
     satellite: r.satelliteId,
@@ -62,7 +62,7 @@ export function passToJson(r: PassClockRow, ts: TimeSystem): Record<string, unkn
   };
 }
 
-export function passesToJson(rows: PassClockRow[], meta: PassesMeta, ts: TimeSystem): Record<string, unknown> {
+export function passesToJson(rows: PassClockRow[], meta: PassesMeta, ts: TimeSystem) {
   return {
     scenario: meta.scenario,
     from: utc(ts, meta.fromTtJ2000S),
@@ -75,6 +75,9 @@ export function passesToJson(rows: PassClockRow[], meta: PassesMeta, ts: TimeSys
   };
 }
 
+/** The JSON object `tauplan passes --format json` prints (plain data; times are UTC ISO strings). */
+export type PassesJson = ReturnType<typeof passesToJson>;
+
 const CSV_COLUMNS = [
   'satellite', 'satelliteName', 'station', 'aos', 'tca', 'los', 'aosGpsWeek', 'aosGpsSecondsOfWeek', 'maxElevationDeg', 'durationS', 'truncated',
   'clockOffsetAtAosNs', 'clockOffsetAtLosNs', 'driftDuringPassNs', 'relativisticPeriodicAtTcaNs', 'lightTimeAtTcaNs', 'sagnacAtTcaNs',
@@ -85,7 +88,7 @@ export function passesToCsv(rows: PassClockRow[], ts: TimeSystem): string {
   return toCsv(
     CSV_COLUMNS,
     rows.map((r) => {
-      const j = passToJson(r, ts);
+      const j: Record<string, unknown> = passToJson(r, ts);
       return CSV_COLUMNS.map((c) => j[c] as string | number | boolean | null);
     }),
   );

@@ -115,6 +115,9 @@ export function resetsToJson(plans: SatelliteResetPlan[], meta: ResetsMeta, ts: 
   };
 }
 
+/** The JSON object `tauplan resets --format json` prints (plain data; times are UTC ISO strings). */
+export type ResetsJson = ReturnType<typeof resetsToJson>;
+
 const COLUMNS = [
   'satellite', 'limitNs', 'crossingSide', 'crossingAt', 'crossingEarliest', 'crossingLatest', 'at', 'station', 'passAos', 'passLos', 'kind',
   'phaseStepNs', 'frequencyStep', 'frequencyStepHz', 'frequencyStepNsPerDay', 'quantisationErrorNs', 'offsetBeforeNs', 'offsetAfterNs', 'note',

@@ -7,7 +7,7 @@ import { toCsv, type CsvCell } from './csv.ts';
 import { fixed, sci, signed } from './format.ts';
 
 /** The contract's JSON object, plus our extras (never renamed). */
-export function sizeToJson(r: SizeResult, ts: TimeSystem): Record<string, unknown> {
+export function sizeToJson(r: SizeResult, ts: TimeSystem) {
   return {
     satellite: r.satellite,
     source: r.source,
@@ -32,6 +32,9 @@ export function sizeToJson(r: SizeResult, ts: TimeSystem): Record<string, unknow
     ...(isKeplerianInput(r) ? { elementsNote: 'Keplerian input is osculating at the epoch; a mean-element a differs by up to a few km at GNSS altitude (about 1 ns/day).' } : {}),
   };
 }
+
+/** The JSON object `tauplan size --format json` prints (plain data; times are UTC ISO strings). */
+export type SizeJson = ReturnType<typeof sizeToJson>;
 
 export const SIZE_CSV_COLUMNS = [
   'satellite', 'source', 'gravity', 'from', 'spanS', 'aKm', 'e', 'iDeg', 'meanFractionalOffset', 'driftNsPerDay',

@@ -1,0 +1,89 @@
+/** Library use case: frequency-offset sizing for one orbit (command `size`). */
+import { GNSS_NOMINAL_HZ } from '../constants.ts';
+import { InputError } from '../errors.ts';
+import type { ElementSetRecord } from '../model/elementSet.ts';
+import type { SatelliteSpec, ScenarioSpec } from '../model/scenario.ts';
+import type { GravityModelName } from '../orbit/gravity.ts';
+import type { ResolvedOrbit } from '../orbit/source.ts';
+import { checkKeplerianInput, orbitFromElementSet, orbitFromKeplerian, type KeplerianInput } from '../plan/orbitInput.ts';
+import type { SizeResult } from '../plan/size.ts';
+import { sizeResolvedOrbit, spanStart } from '../plan/sizeOrbit.ts';
+import { sizeToJson, type SizeJson } from '../report/sizeReport.ts';
+import { durationArg, gravityArg, timeArg, timeSystemOf, type CommonOptions, type DurationInput, type TimeInput } from './common.ts';
+import { resolveOrbit } from './scenario.ts';
+
+/** Osculating Keplerian elements with their epoch (default 2027-01-01T00:00:00Z), as the `size` flags give them. */
+export interface KeplerianOrbit extends KeplerianInput {
+  /** Epoch of the elements. */
+  epoch?: TimeInput;
+}
+
+/** A satellite of a loaded scenario; `scenario` names it in messages (and resolves SP3 files). */
+export interface ScenarioSatellite {
+  satellite: SatelliteSpec;
+  scenario: ScenarioSpec;
+}
+
+/** What {@link sizeOrbit} sizes: Keplerian elements, a parsed TLE/OMM element set, or a scenario satellite. */
+export type OrbitInput = KeplerianOrbit | ElementSetRecord | ScenarioSatellite;
+
+/** Options of {@link sizeOrbit}: the `size` flags in camelCase. */
+export interface SizeOptions extends CommonOptions {
+  /** Gravity model: point, j2 or zonal (default zonal: EGM2008 J2…J6). */
+  gravity?: GravityModelName;
+  /** Add the solar and lunar tidal potential (below 1e-15 up to GNSS altitude). Default false. */
+  tides?: boolean;
+  /** Start of the span (default: the orbit's epoch). */
+  from?: TimeInput;
+  /** Length of the span (default 1 d). */
+  span?: DurationInput;
+  /** Nominal oscillator frequency [Hz] (default 10.23e6). */
+  nominalHz?: number;
+}
+
+/** Default epoch of Keplerian elements (contract `size --epoch`). */
+export const DEFAULT_ELEMENTS_EPOCH = '2027-01-01T00:00:00Z';
+
+function isElementSet(o: OrbitInput): o is ElementSetRecord {
+  return 'kind' in o && (o.kind === 'tle' || o.kind === 'omm');
+}
+
+function isScenarioSatellite(o: OrbitInput): o is ScenarioSatellite {
+  return 'satellite' in o && 'scenario' in o;
+}
+
+/** Size the clock on an orbit (the writers' input; {@link sizeOrbit} gives the JSON). */
+export function runSize(orbit: OrbitInput, options?: SizeOptions): SizeResult {
+  const ts = timeSystemOf(options);
+  const gravity = gravityArg(options?.gravity ?? 'zonal', options?.tides === true, ts);
+  const spanS = durationArg(options?.span ?? '1d', '--span');
+  const nominalHz = options?.nominalHz ?? GNSS_NOMINAL_HZ;
+  if (!(nominalHz > 0)) throw new InputError(`nominal frequency ${nominalHz} Hz is not positive`, '--nominal-hz', 'give e.g. 10.23e6');
+  const fromGiven = timeArg(ts, options?.from, '--from');
+  const spanFor = (epoch: number | null) => {
+    const start = spanStart(fromGiven, epoch);
+    return { fromTtJ2000S: start, toTtJ2000S: start + spanS };
+  };
+  let resolved: ResolvedOrbit;
+  if (isElementSet(orbit)) resolved = orbitFromElementSet(orbit, ts, spanFor);
+  else if (isScenarioSatellite(orbit)) {
+    const o = orbit.satellite.orbit;
+    const epoch = o.kind === 'keplerian' || o.kind === 'state' ? o.epoch.ttJ2000S : orbit.scenario.window.start.ttJ2000S;
+    resolved = resolveOrbit(orbit.satellite, orbit.scenario, ts, gravity, spanFor(epoch));
+  } else {
+    checkKeplerianInput(orbit);
+    const epoch = timeArg(ts, orbit.epoch ?? DEFAULT_ELEMENTS_EPOCH, '--epoch') as number;
+    resolved = orbitFromKeplerian(orbit, epoch, gravity, spanFor);
+  }
+  return sizeResolvedOrbit(resolved, gravity, fromGiven, spanS, nominalHz, ts);
+}
+
+/**
+ * Frequency-offset sizing: the mean fractional offset [1] of the onboard clock against TT with the
+ * conventional −2r·v/c² term removed, its gravitational and velocity parts, the drift [ns/day], the
+ * frequency to set on the ground [Hz], the eccentricity amplitude [ns] and the sensitivity to the
+ * semi-major axis [1/km]: the object `tauplan size --format json` prints.
+ */
+export function sizeOrbit(orbit: OrbitInput, options?: SizeOptions): SizeJson {
+  return sizeToJson(runSize(orbit, options), timeSystemOf(options));
+}
