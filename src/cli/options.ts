@@ -116,16 +116,8 @@ export function checkNumberOptions(argv: Record<string, unknown>, args: readonly
   }
 }
 
-/**
- * A comma-separated list of names (`--station A,B`); refuses one that names nothing (`--station ,`).
- */
-export function nameList(value: string, flag: string, what: string): string[] {
-  const names = value.split(',').map((s) => s.trim());
-  const kept = names.filter((s) => s.length > 0);
-  if (kept.length === 0) throw new InputError(`${flag} ${JSON.stringify(value)} names no ${what}`, flag, `give one or more ${what} ids separated by commas`);
-  if (kept.length < names.length) throw new InputError(`${flag} ${JSON.stringify(value)} has an empty name`, flag, `give ${what} ids separated by single commas`);
-  return kept;
-}
+/** Comma-separated names (`--station A,B`); kept with the scenario selection in src/plan. */
+export { nameList } from '../plan/scenarioRuns.ts';
 
 /** `size` options that only mean something for a catalogue run refuse to be given without `--all`. */
 export function refuseCatalogueOptionsWithoutAll(argv: { all?: unknown; jobs?: unknown; shard?: unknown; strict?: unknown }): void {

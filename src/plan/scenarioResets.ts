@@ -21,7 +21,7 @@ export function planScenarioResets(ctx: ScenarioContext, path: string): Satellit
       limitNs: run.keepInNs as number,
       noise: run.clock.params?.noise ?? null,
       policy: { marginNs: policy.marginNs, leadTimeS: policy.leadTimeS ?? 0, prefer: policy.prefer },
-      fromTtJ2000S: ctx.fromTtJ2000S,
+      fromTtJ2000S: Math.max(ctx.fromTtJ2000S, run.startTtJ2000S ?? ctx.fromTtJ2000S),
       toTtJ2000S: Math.min(ctx.toTtJ2000S, run.endTtJ2000S),
       periodS: Number.isFinite(run.orbit.periodS) ? run.orbit.periodS : 86400,
       contacts: passes.rows

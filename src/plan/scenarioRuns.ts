@@ -14,6 +14,7 @@ import type { ClockSpec, SatelliteSpec, ScenarioSpec } from '../model/scenario.t
 import type { OrbitResolver } from '../orbit/source.ts';
 import { gmstRadAtTt } from '../orbit/sp3.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
+import { NumericalTrajectory } from '../orbit/numerical.ts';
 import { Sgp4Trajectory, SGP4_DEFAULT_HALF_SPAN_S } from '../orbit/sgp4.ts';
 import { prepareSatelliteClock, usableEnd, type SatelliteClockRun } from './satelliteClock.ts';
 import { Instant } from '../time/instant.ts';
@@ -60,13 +61,24 @@ export function oscillatorParams(c: ClockSpec | null): OscillatorParams | null {
   };
 }
 
+/**
+ * A comma-separated list of names (`--station A,B`); refuses one that names nothing (`--station ,`).
+ */
+export function nameList(value: string, flag: string, what: string): string[] {
+  const names = value.split(',').map((s) => s.trim());
+  const kept = names.filter((s) => s.length > 0);
+  if (kept.length === 0) throw new InputError(`${flag} ${JSON.stringify(value)} names no ${what}`, flag, `give one or more ${what} ids separated by commas`);
+  if (kept.length < names.length) throw new InputError(`${flag} ${JSON.stringify(value)} has an empty name`, flag, `give ${what} ids separated by single commas`);
+  return kept;
+}
+
 /** Items named in a comma-separated list (all when none is given), in list order; an unknown name is an input error. */
 export function pick<T>(items: T[], wanted: string | undefined, keyOf: (t: T) => string[], flag: string, what: string): T[] {
   if (wanted === undefined) return items;
-  const names = wanted.split(',').map((s) => s.trim()).filter((s) => s.length > 0);
+  const names = nameList(wanted, flag, what);
   const out: T[] = [];
   for (const n of names) {
-    const found = items.find((t) => keyOf(t).includes(n));
+    const found = items.find((t) => keyOf(t).includes(n)) ?? (/^0+\d+$/.test(n) ? items.find((t) => keyOf(t).includes(n.replace(/^0+(?=\d)/, ''))) : undefined);
     if (found === undefined) {
       const known = items.slice(0, 8).map((t) => keyOf(t)[0]).join(', ');
       throw new InputError(`no ${what} ${JSON.stringify(n)} in the scenario`, flag, `use one of ${known}`);
@@ -88,6 +100,18 @@ export function checkWindowInSpan(traj: Trajectory, from: number, to: number, ts
       fix,
     );
   }
+}
+
+/**
+ * For a sub-orbital flight (a ballistic state that lands), the part of [from, to] it covers; null for
+ * an orbit. A flight wholly outside the window is refused.
+ */
+function flightInWindow(traj: Trajectory, from: number, to: number, ts: TimeSystem, satPath: string): { fromTtJ2000S: number; toTtJ2000S: number; landTtJ2000S: number } | null {
+  if (!(traj instanceof NumericalTrajectory) || traj.flightEndTtJ2000S === null) return null;
+  const start = Math.max(from, traj.validFromTtJ2000S);
+  const end = Math.min(to, traj.flightEndTtJ2000S);
+  if (!(end - start >= 1)) checkWindowInSpan(traj, from, to, ts, satPath, 'give a window that holds part of the flight');
+  return { fromTtJ2000S: start, toTtJ2000S: end, landTtJ2000S: traj.flightEndTtJ2000S };
 }
 
 /** The span an orbit must cover: the window, widened to hold the clock epoch (the clock is integrated from it). */
@@ -134,7 +158,16 @@ export function resolveWindow(scenario: ScenarioSpec, ts: TimeSystem, sel: Scena
 
 /** The satellites a selection names (all by default), in scenario order. */
 export function selectSatellites(scenario: ScenarioSpec, sel: ScenarioSelection): SatelliteSpec[] {
-  return pick(scenario.satellites, sel.sat, (s) => [s.id, ...(s.name === null ? [] : [s.name])], '--sat', 'satellite');
+  return pick(scenario.satellites, sel.sat, (s) => [s.id, ...(s.name === null ? [] : [s.name]), ...catalogueNumbers(s)], '--sat', 'satellite');
+}
+
+/** A TLE or OMM satellite's catalogue number as written and without leading zeros (as `size --sat` takes it). */
+function catalogueNumbers(s: SatelliteSpec): string[] {
+  const o = s.orbit;
+  const raw = o.kind === 'tle' ? o.line1.slice(2, 7).trim() : o.kind === 'omm' ? String(o.fields.NORAD_CAT_ID ?? '').trim() : '';
+  if (raw === '') return [];
+  const bare = raw.replace(/^0+(?=\d)/, '');
+  return bare === raw ? [raw] : [raw, bare];
 }
 
 /**
@@ -149,6 +182,14 @@ export function prepareScenario(scenario: ScenarioSpec, ts: TimeSystem, sel: Sce
   const runs = satellites.map((sat) => {
     const params = oscillatorParams(sat.clock);
     const resolved = resolveOrbit(sat, scenario, ts, gravity, spanWithClockEpoch(from, to, params));
+    const flight = flightInWindow(resolved.trajectory, from, to, ts, `${path} ${sat.path}`);
+    if (flight !== null) {
+      const run = prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, params, flight.fromTtJ2000S, flight.toTtJ2000S);
+      const f = (t: number): string => ts.format(Instant.fromTtJ2000S(t));
+      const clipped = flight.fromTtJ2000S > resolved.trajectory.validFromTtJ2000S || flight.toTtJ2000S < flight.landTtJ2000S;
+      const note = `${sat.id}: sub-orbital flight from ${f(resolved.trajectory.validFromTtJ2000S)} to ${f(flight.landTtJ2000S)}; reported over ${clipped ? `${f(flight.fromTtJ2000S)} to ${f(flight.toTtJ2000S)}` : 'its flight'} only`;
+      return { ...run, startTtJ2000S: flight.fromTtJ2000S, endTtJ2000S: flight.toTtJ2000S, note };
+    }
     checkWindowInSpan(resolved.trajectory, from, to, ts, `${path} ${sat.path}`);
     if (params !== null) checkWindowInSpan(resolved.trajectory, Math.min(from, params.epochTtJ2000S), Math.max(to, params.epochTtJ2000S), ts, `${path} ${sat.path}.clock.epoch`, 'give a clock epoch inside the orbit source span (the clock is integrated from it)');
     // An orbit that fails inside the window (an SGP4 decay) is reported up to the failure.
