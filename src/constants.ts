@@ -58,6 +58,9 @@ export const TAI_MINUS_GST_S = 19;
 /** Seconds per day [s]. */
 export const SECONDS_PER_DAY = 86_400;
 
+/** Julian date of the J2000.0 epoch, 2000-01-01T12:00:00 TT [d]. IERS Conventions 2010, §1.1 (confirmed). */
+export const JD_J2000 = 2451545.0;
+
 /** Nominal 10.23 MHz fundamental frequency of GNSS clocks [Hz]. IS-GPS-200 §3.3.1.1. */
 export const GNSS_NOMINAL_HZ = 10.23e6;
 

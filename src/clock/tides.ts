@@ -8,7 +8,7 @@
  * relative change of the term).
  */
 import { Body, GeoMoon, GeoVector, MakeTime } from 'astronomy-engine';
-import { IAU2012_AU_M, IERS2010_GM_SUN_M3_PER_S2, IERS2010_MOON_EARTH_MASS_RATIO, WGS84_GM_M3_PER_S2 } from '../constants.ts';
+import { IAU2012_AU_M, IERS2010_GM_SUN_M3_PER_S2, IERS2010_MOON_EARTH_MASS_RATIO, WGS84_GM_M3_PER_S2, JD_J2000 } from '../constants.ts';
 import { gcrfToTemeInto, rotateInto } from '../orbit/temeOfDate.ts';
 
 /** GM of the Moon [m³/s²], from the IERS mass ratio and the contract's GM of the Earth. */
@@ -45,7 +45,7 @@ export class TidalField {
 
   bodiesAt(ttJ2000S: number): BodyPositions {
     const jd = this.jdUtcAt(ttJ2000S);
-    const time = MakeTime(jd - 2451545.0);
+    const time = MakeTime(jd - JD_J2000);
     // Into the satellite states' axes (TEME of date), from the interpolated IAU 2006/2000A chain.
     const m = gcrfToTemeInto(ttJ2000S, this.matrix);
     const s = GeoVector(Body.Sun, time, false);

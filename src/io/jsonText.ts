@@ -91,6 +91,8 @@ export function parseJsonLocated(text: string, fault: (where: JsonSyntaxFault | 
  * silently keeps the last), located like a syntax fault, or null. YAML files are refused the same way.
  */
 export function duplicateJsonKey(text: string): (JsonSyntaxFault & { key: string }) | null {
+  // jsonc-parser's visitor recurses per bracket; nesting that deep is refused later by the schema.
+  if (tooDeepAt(text) !== null) return null;
   const stack: Set<string>[] = [];
   let found: { offset: number; key: string } | null = null;
   visit(text, {

@@ -4,7 +4,7 @@
  * (same integration as `size`) over two orbital periods (at most one day).
  */
 import type { GravityModel } from '../orbit/gravity.ts';
-import { WGS84_A_M } from '../constants.ts';
+import { WGS84_A_M, GNSS_NOMINAL_HZ } from '../constants.ts';
 import { InputError, InternalError } from '../errors.ts';
 import { elementsFromDegKm } from '../orbit/keplerian.ts';
 import { trajectoryFromKeplerian } from '../orbit/stateVector.ts';
@@ -43,7 +43,7 @@ function sizeAt(req: SweepRequest, altitudeKm: number): SweepRow {
   const periodS = 2 * Math.PI * Math.sqrt((aKm * 1000) ** 3 / req.gravity.gmM3PerS2);
   const spanS = Math.min(86400, 2 * periodS);
   const traj = trajectoryFromKeplerian(el, req.gravity, { fromTtJ2000S: req.epochTtJ2000S, toTtJ2000S: req.epochTtJ2000S + spanS }, `sweep ${altitudeKm.toFixed(1)} km`);
-  const r = sizeClock({ trajectory: traj, gravity: req.gravity, fromTtJ2000S: req.epochTtJ2000S, spanS, nominalHz: 10.23e6 });
+  const r = sizeClock({ trajectory: traj, gravity: req.gravity, fromTtJ2000S: req.epochTtJ2000S, spanS, nominalHz: GNSS_NOMINAL_HZ });
   return { altitudeKm, meanFractionalOffset: r.meanFractionalOffset, gravitational: r.components.gravitational, velocity: r.components.velocity };
 }
 
