@@ -20,7 +20,8 @@ import { resetsOptions, runResets } from './commands/resets.ts';
 import { demoOptions, reportOptions, runDemo, runReport } from './commands/report.ts';
 import { navclockOptions, runNavclock } from './commands/navclock.ts';
 import { runStability, stabilityOptions } from './commands/stability.ts';
-import { compareOptions, fitOptions, runCompare, runFit, runSweep, runTrack, sweepOptions, trackOptions } from './commands/analysis.ts';
+import { compareOptions, runCompare, runSweep, runTrack, sweepOptions, trackOptions } from './commands/analysis.ts';
+import { fitOptions, runFit } from './commands/fit.ts';
 
 export const EXIT_OK = 0;
 export const EXIT_INTERNAL = 1;
@@ -79,7 +80,7 @@ function parser(args: string[]) {
       'fit <measurements>',
       'Fit offset, rate and drift to measured clock offsets, with stability',
       (y) => fitOptions(common(y)),
-      (a) => emit(runFit(a, ts), a.format, a.out, 'fit', ts),
+      async (a) => emit(await runFit(a, ts), a.format as OutputFormat, a.out, 'fit', ts),
     )
     .command(
       'stability <file>',

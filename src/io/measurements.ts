@@ -10,6 +10,8 @@
 import { parse } from 'csv-parse/sync';
 import { InputError } from '../errors.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
+import type { TimeScale } from '../time/instant.ts';
+import type { Instant } from '../time/instant.ts';
 
 /** One measurement row, as read. */
 export interface MeasurementRow {
@@ -53,9 +55,11 @@ interface CsvRecord {
  * @param text      whole file content (UTF-8, BOM allowed)
  * @param fileName  name used in messages (`file:line`)
  * @param timeSystem leap-second-aware parser for the `time` column
+ * @param defaultScale scale of times written without `Z` or a scale name (`--time-scale`); without
+ *   it such a time is refused
  * @throws InputError (or its TimeError subclass) with `file:line` for every fault
  */
-export function parseMeasurementsCsv(text: string, fileName: string, timeSystem: TimeSystem): Measurements {
+export function parseMeasurementsCsv(text: string, fileName: string, timeSystem: TimeSystem, defaultScale?: TimeScale): Measurements {
   let records: CsvRecord[];
   try {
     records = parse(text, {
@@ -95,7 +99,7 @@ export function parseMeasurementsCsv(text: string, fileName: string, timeSystem:
       throw new InputError(`row has ${record.length} fields, the header has ${columns}`, where, `write ${hasSigma ? HEADER_3 : HEADER_2} values on every row`);
     }
     const timeText = record[0];
-    const ttJ2000S = timeSystem.parse(timeText, where).ttJ2000S;
+    const ttJ2000S = parseTime(timeSystem, timeText, where, defaultScale).ttJ2000S;
     const offsetNs = readNumber(record[1], 'offsetNs', where);
     let sigmaNs: number | null = null;
     if (hasSigma) {
@@ -113,6 +117,22 @@ export function parseMeasurementsCsv(text: string, fileName: string, timeSystem:
     throw new InputError('no measurement rows after the header', `${fileName}:${first.info.lines + 1}`, 'add rows like 2027-01-01T00:00:00Z,12.5');
   }
   return { rows, hasSigma };
+}
+
+/** A time with its own scale, or in `defaultScale` when it names none. */
+function parseTime(ts: TimeSystem, text: string, where: string, defaultScale: TimeScale | undefined): Instant {
+  const bare = /^\d{4}-\d{2}-\d{2}T[\d:.]+$/.test(text);
+  if (bare && defaultScale !== undefined) return ts.parse(defaultScale === 'UTC' ? `${text}Z` : `${text} ${defaultScale}`, where);
+  return ts.parse(text, where);
+}
+
+/** Scale a CSV time is written in: `Z` is UTC, else the trailing scale name, else the default. */
+export function scaleOfTimeText(text: string, defaultScale: TimeScale = 'UTC'): TimeScale {
+  if (text.endsWith('Z')) return 'UTC';
+  const last = text.split(/\s+/).pop()?.toUpperCase() ?? '';
+  const known: readonly string[] = ['UTC', 'TAI', 'TT', 'GPS', 'GST', 'BDT'];
+  if (known.includes(last)) return last as TimeScale;
+  return text.startsWith('GPSW') ? 'GPS' : defaultScale;
 }
 
 function readNumber(text: string, column: string, where: string): number {

@@ -9,6 +9,9 @@
  * runs fast), D = drift of y per second; `driftPerDay` = D·86400 s (change of y per day). This is
  * the oscillator model of physics.md §6 with D = agingPerDay / 86400 s.
  *
+ * Segments: when a clock event splits the series (SP3 flag `E`), each segment gets its own offset
+ * x0_k and all share y and D; `offsetNs` is the first segment's.
+ *
  * Method: weighted linear least squares solved by singular value decomposition (ml-matrix), never
  * by normal equations, with the time column scaled to ±1 for conditioning. Covariance is
  * (AᵀWA)⁻¹ = V S⁻² Vᵀ of the weighted, scaled design matrix.
@@ -36,6 +39,8 @@ export interface FitInputRow {
   offsetNs: number;
   /** 1-σ uncertainty, ns, or null. Either every row has one or none does. */
   sigmaNs: number | null;
+  /** Segment (a clock event starts a new one): each segment gets its own offset. Default 0. */
+  segment?: number;
 }
 
 /** Options of {@link fitClock}. */
@@ -136,6 +141,35 @@ export interface FitResult {
   segmentJumps: FittedJump[];
   /** 95 % prediction band from the noise model and the fitted state's covariance, or null without a noise model. */
   predictionBand: { horizonS: number[]; halfWidth95Ns: number[] } | null;
+  /** Offset at the epoch of each segment's line, ns (one entry without clock events). */
+  segmentOffsetsNs: number[];
+  /** Where the measurements came from; null when the caller gave bare rows. */
+  source: FitSource | null;
+  /**
+   * Relativistic rate along the orbit over the fitted span (the slope of the least-squares line
+   * through the relativistic proper-time offset with −2 r·v/c² removed, as `size` defines
+   * meanFractionalOffset); null without an orbit.
+   */
+  relativisticMeanFractionalOffset: number | null;
+  /** fractionalFrequency − relativisticMeanFractionalOffset: the oscillator's own offset; null without an orbit or at degree 0. */
+  hardwareFractionalOffset: number | null;
+  /** Sentences the reader should see (conventions used, samples left out). */
+  notes: string[];
+}
+
+/** The measurement source of a fit (contract: `source`). */
+export interface FitSource {
+  format: string;
+  satellite: string;
+  samples: number;
+  skipped: number;
+  segments: number;
+  periodicTerm: 'included' | 'excluded';
+  timeScale: string;
+  /** Samples flagged as predicted (SP3 column 76). */
+  predicted: number;
+  /** Mean clock drift the file states (TDM CLOCK_DRIFT, s/s), or null. */
+  statedDrift: number | null;
 }
 
 const SECONDS_PER_DAY = 86400;
@@ -143,7 +177,7 @@ const SECONDS_PER_DAY = 86400;
 const CONDITION_LIMIT = 1e12;
 
 interface Solution {
-  /** Parameters in physical units: [ns, ns/s, ns/s²]. */
+  /** Parameters in physical units: [ns per segment…, ns/s, ns/s²]. */
   params: number[];
   /** Covariance of `params` from the weights alone (unit weights → multiply by s²). */
   cov: number[][];
@@ -167,7 +201,19 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
   if (options.segments === 'auto') return fitWithAutoSegments(rows, options.periodicNs, (r) => fitClock(r, { ...options, segments: 'none' }));
   const degree = options.degree;
   if (degree !== 0 && degree !== 1 && degree !== 2) throw new InputError(`degree ${String(degree)}`, '--degree', 'use 0, 1 or 2');
-  const p = degree + 1;
+  // Segments renumbered 0, 1, ... in order of appearance (rows may have been thinned).
+  const segIndex = new Map<number, number>();
+  const seg = rows.map((r) => {
+    const k = r.segment ?? 0;
+    let j = segIndex.get(k);
+    if (j === undefined) {
+      j = segIndex.size;
+      segIndex.set(k, j);
+    }
+    return j;
+  });
+  const nSeg = Math.max(1, segIndex.size);
+  const p = degree + nSeg;
   const clip = options.clipSigma ?? 4;
   if (Number.isNaN(clip) || clip < 0) throw new InputError(`clip ${clip}`, '--clip', 'give a number of sigmas ≥ 0 (0 disables clipping)');
   const clipOn = clip > 0 && Number.isFinite(clip);
@@ -194,7 +240,7 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
 
   let usedIdx = rows.map((_, i) => i);
   const rejectedIdx = new Set<number>();
-  let sol = solve(usedIdx, tS, yNs, sigma, degree);
+  let sol = solve(usedIdx, tS, yNs, sigma, degree, seg, nSeg);
   let iterations = 1;
   let clipStoppedAt: number | null = null;
   while (clipOn && iterations < maxIterations) {
@@ -221,7 +267,7 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
         `check the rejected rows, raise --clip, or use --clip 0 to keep every row`,
       );
     }
-    sol = solve(usedIdx, tS, yNs, sigma, degree);
+    sol = solve(usedIdx, tS, yNs, sigma, degree, seg, nSeg);
     iterations++;
   }
 
@@ -232,26 +278,33 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
   const covScale = withSigma ? 1 : reducedChiSquare;
   const sd = (k: number): number | null => (covScale === null ? null : Math.sqrt(sol.cov[k][k] * covScale));
 
-  const [x0, yNsPerS, dNsPerS2] = sol.params;
+  const x0 = sol.params[0];
+  const yNsPerS = degree > 0 ? sol.params[nSeg] : 0;
+  const dNsPerS2 = degree > 1 ? sol.params[nSeg + 1] : 0;
   const nsToFraction = 1e-9;
   const offsetSigmaNs = sd(0);
-  const s1 = p > 1 ? sd(1) : null;
-  const s2 = p > 2 ? sd(2) : null;
+  const s1 = degree > 0 ? sd(nSeg) : null;
+  const s2 = degree > 1 ? sd(nSeg + 1) : null;
 
   let correlation: number[][] | null = null;
   if (covScale !== null) {
-    correlation = sol.cov.map((row, a) => row.map((v, b) => v / Math.sqrt(sol.cov[a][a] * sol.cov[b][b])));
+    // Offset (first segment), frequency, drift: the contract's shape whatever the segment count.
+    const keep = [0, ...Array.from({ length: degree }, (_, k) => nSeg + k)];
+    correlation = keep.map((a) => keep.map((b) => sol.cov[a][b] / Math.sqrt(sol.cov[a][a] * sol.cov[b][b])));
   }
 
   // Residuals of every row against the final fit (rejected rows too, for the report).
-  const model = (t: number): number => x0 + (p > 1 ? yNsPerS * t : 0) + (p > 2 ? (dNsPerS2 * t * t) / 2 : 0);
+  const model = (i: number): number => {
+    const t = tS[i];
+    return sol.params[seg[i]] + yNsPerS * t + (dNsPerS2 * t * t) / 2;
+  };
   const rejected: RejectedRow[] = [...rejectedIdx]
     .sort((a, b) => a - b)
     .map((i) => ({
       line: rows[i].line,
       time: options.timeSystem.format(Instant.fromTtJ2000S(rows[i].ttJ2000S)),
       offsetNs: rows[i].offsetNs,
-      residualNs: assertFinite(yNs[i] - model(tS[i]), 'residual'),
+      residualNs: assertFinite(yNs[i] - model(i), 'residual'),
     }));
 
   let sumSq = 0;
@@ -290,9 +343,9 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
     degree,
     offsetNs: assertFinite(x0, 'offsetNs'),
     offsetSigmaNs,
-    fractionalFrequency: p > 1 ? assertFinite(yNsPerS * nsToFraction, 'fractionalFrequency') : null,
+    fractionalFrequency: degree > 0 ? assertFinite(yNsPerS * nsToFraction, 'fractionalFrequency') : null,
     fractionalFrequencySigma: s1 === null ? null : s1 * nsToFraction,
-    driftPerDay: p > 2 ? assertFinite(dNsPerS2 * nsToFraction * SECONDS_PER_DAY, 'driftPerDay') : null,
+    driftPerDay: degree > 1 ? assertFinite(dNsPerS2 * nsToFraction * SECONDS_PER_DAY, 'driftPerDay') : null,
     driftPerDaySigma: s2 === null ? null : s2 * nsToFraction * SECONDS_PER_DAY,
     correlation,
     rmsNs,
@@ -315,12 +368,17 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
     noiseModelNote: noise.reason,
     segmentJumps: [],
     predictionBand: noise.estimate === null ? null : bandSeries(noise.estimate, [offsetSigmaNs, s1 === null ? null : s1 * nsToFraction, s2 === null ? null : s2 * nsToFraction * SECONDS_PER_DAY], correlation, Math.max(SECONDS_PER_DAY, 4 * usedSpanS)),
+    segmentOffsetsNs: sol.params.slice(0, nSeg),
+    source: null,
+    relativisticMeanFractionalOffset: null,
+    hardwareFractionalOffset: null,
+    notes: [],
   };
 }
 
 /** Weighted least squares on the rows `idx` by SVD of the scaled, weighted design matrix. */
-function solve(idx: readonly number[], tS: readonly number[], yNs: readonly number[], sigma: readonly number[], degree: number): Solution {
-  const p = degree + 1;
+function solve(idx: readonly number[], tS: readonly number[], yNs: readonly number[], sigma: readonly number[], degree: number, seg: readonly number[], nSeg: number): Solution {
+  const p = degree + nSeg;
   const n = idx.length;
   let scaleS = 0;
   for (const i of idx) scaleS = Math.max(scaleS, Math.abs(tS[i]));
@@ -330,9 +388,9 @@ function solve(idx: readonly number[], tS: readonly number[], yNs: readonly numb
   idx.forEach((i, k) => {
     const u = tS[i] / scaleS;
     const w = 1 / sigma[i];
-    a.set(k, 0, w);
-    if (p > 1) a.set(k, 1, u * w);
-    if (p > 2) a.set(k, 2, ((u * u) / 2) * w);
+    a.set(k, seg[i], w);
+    if (degree > 0) a.set(k, nSeg, u * w);
+    if (degree > 1) a.set(k, nSeg + 1, ((u * u) / 2) * w);
     b.set(k, 0, yNs[i] * w);
   });
   const svd = new SingularValueDecomposition(a, { autoTranspose: false });
@@ -357,7 +415,7 @@ function solve(idx: readonly number[], tS: readonly number[], yNs: readonly numb
   }
   const scaledParams = new Array<number>(p).fill(0);
   for (let r = 0; r < p; r++) for (let j = 0; j < p; j++) scaledParams[r] += v.get(r, j) * utb[j];
-  const unit = [1, 1 / scaleS, 1 / (scaleS * scaleS)];
+  const unit = [...new Array<number>(nSeg).fill(1), 1 / scaleS, 1 / (scaleS * scaleS)];
   const params = scaledParams.map((x, r) => x * unit[r]);
   const cov: number[][] = [];
   for (let r = 0; r < p; r++) {
@@ -372,7 +430,7 @@ function solve(idx: readonly number[], tS: readonly number[], yNs: readonly numb
   let chiSquare = 0;
   idx.forEach((i) => {
     const t = tS[i];
-    const m = params[0] + (p > 1 ? params[1] * t : 0) + (p > 2 ? (params[2] * t * t) / 2 : 0);
+    const m = params[seg[i]] + (degree > 0 ? params[nSeg] * t : 0) + (degree > 1 ? (params[nSeg + 1] * t * t) / 2 : 0);
     const r = yNs[i] - m;
     residualNs.push(r);
     chiSquare += (r / sigma[i]) ** 2;

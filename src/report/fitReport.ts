@@ -49,6 +49,11 @@ export function fitToJson(result: FitResult): FitJson {
     iterations: result.iterations,
     spanS: result.spanS,
     correlation: result.correlation,
+    segmentOffsetsNs: result.segmentOffsetsNs,
+    source: result.source,
+    relativisticMeanFractionalOffset: result.relativisticMeanFractionalOffset,
+    hardwareFractionalOffset: result.hardwareFractionalOffset,
+    notes: result.notes,
   };
   requireFinite(json, '$');
   return json;

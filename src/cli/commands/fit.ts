@@ -1,0 +1,130 @@
+/**
+ * `tauplan fit FILE`: a measured clock (CSV, RINEX clock, SP3 clock column, CCSDS TDM; gzip or
+ * not) fitted with offset, rate and drift, and, given an orbit, its rate split into relativity and
+ * hardware. `--all` surveys every clock of the file (src/cli/commands/fitAll.ts).
+ */
+import type { Argv } from 'yargs';
+import { InputError } from '../../errors.ts';
+import type { ClockFile } from '../../io/clockReader.ts';
+import { MEASUREMENT_FORMATS, pickSeries, readClockFile, readClockText } from '../../io/clockFormats.ts';
+import { readTextWhole } from '../../io/textSource.ts';
+import { updateScenarioClock } from '../../io/updateScenario.ts';
+import type { MeasurementFormat, MeasurementSeries, PeriodicTerm } from '../../model/measurements.ts';
+import { fitSeries } from '../../plan/clockFit.ts';
+import type { FitResult } from '../../plan/fit.ts';
+import { fitToCsv, fitToJson, fitToText } from '../../report/fitReport.ts';
+import { fitSection, page } from '../../report/htmlReport.ts';
+import { TIME_SCALES, type TimeScale } from '../../time/instant.ts';
+import type { TimeSystem } from '../../time/timeSystem.ts';
+import type { Rendered } from '../emit.ts';
+import { fitOrbit } from '../fitOrbit.ts';
+
+export function fitOptions<T>(y: Argv<T>) {
+  return y
+    .positional('measurements', { type: 'string', demandOption: true, describe: 'clock measurements: CSV (time,offsetNs[,sigmaNs]), RINEX clock, SP3 or CCSDS TDM (KVN); gzip or not; - for stdin' })
+    .option('format', { type: 'string', requiresArg: true, choices: ['text', 'json', 'csv', 'html', 'jsonl'], default: 'text', describe: 'output format (jsonl with --all)' })
+    .option('input-format', { type: 'string', requiresArg: true, choices: MEASUREMENT_FORMATS as MeasurementFormat[], describe: 'read the file as this format instead of recognising it' })
+    .option('sat', { type: 'string', requiresArg: true, describe: 'clock to fit (satellite such as E14, or a station for RINEX AR records); for a CSV, the satellite in --orbit/--scenario' })
+    .option('all', { type: 'boolean', default: false, describe: 'fit every clock in the file, one row each' })
+    .option('jobs', { type: 'number', requiresArg: true, describe: 'worker threads for --all (default: available cores)' })
+    .option('orbit', { type: 'string', requiresArg: true, describe: 'orbit of the clock: SP3, TLE/3LE, OMM or scenario file (an SP3 input is its own orbit)' })
+    .option('scenario', { type: 'string', requiresArg: true, describe: 'scenario whose satellite orbit gives the relativistic terms (same as --orbit SCENARIO)' })
+    .option('gravity', { type: 'string', requiresArg: true, choices: ['point', 'j2', 'zonal'], describe: 'gravity model of the clock rate for non-scenario orbits (default zonal)' })
+    .option('periodic', { type: 'string', requiresArg: true, choices: ['included', 'excluded'], describe: 'whether the data contain the periodic term −2r·v/c² (default: the source convention)' })
+    .option('time-scale', { type: 'string', requiresArg: true, choices: TIME_SCALES as TimeScale[], describe: 'scale of CSV times written without Z or a scale name' })
+    .option('degree', { type: 'number', requiresArg: true, default: 2, describe: '0 offset, 1 + frequency, 2 + drift' })
+    .option('clip', { type: 'number', requiresArg: true, default: 4, describe: 'sigma-clipping threshold (0 disables)' })
+    .option('epoch', { type: 'string', requiresArg: true, describe: 'epoch the parameters refer to (default: first sample)' })
+    .option('update-scenario', { type: 'string', requiresArg: true, describe: 'write the fitted clock block of --sat into this scenario file (atomically)' });
+}
+
+export interface FitArgs {
+  measurements: string;
+  degree: number;
+  scenario?: string;
+  orbit?: string;
+  sat?: string;
+  clip: number;
+  epoch?: string;
+  updateScenario?: string;
+  inputFormat?: string;
+  periodic?: string;
+  timeScale?: string;
+  gravity?: string;
+}
+
+function checkArgs(a: FitArgs): void {
+  if (a.degree !== 0 && a.degree !== 1 && a.degree !== 2) throw new InputError(`degree ${a.degree} is not 0, 1 or 2`, '--degree', 'use 0, 1 or 2');
+  if (!(a.clip >= 0)) throw new InputError(`--clip ${a.clip} is negative`, '--clip', 'give a threshold ≥ 0 (0 disables clipping)');
+}
+
+/** Reading options shared by fit and fit --all. */
+export function clockFileOptions(a: FitArgs, ts: TimeSystem, wanted: ReadonlySet<string> | null) {
+  return {
+    timeSystem: ts,
+    wanted,
+    ...(a.inputFormat === undefined ? {} : { format: a.inputFormat as MeasurementFormat }),
+    ...(a.timeScale === undefined ? {} : { defaultScale: a.timeScale as TimeScale }),
+  };
+}
+
+/** Fit one series of a read file (the orbit resolved from the flags, the file, or none). */
+export function fitFromFile(file: ClockFile, a: FitArgs, ts: TimeSystem, series: MeasurementSeries = pickSeries(file, a.sat)): FitResult {
+  const first = series.ttJ2000S[0];
+  const last = series.ttJ2000S[series.ttJ2000S.length - 1];
+  const orbitSat = series.kind === 'unknown' ? a.sat : series.clock;
+  if (series.kind === 'receiver' && (a.orbit !== undefined || a.scenario !== undefined)) {
+    throw new InputError(`${series.clock} is a receiver (AR) clock, which has no orbit`, '--orbit', 'leave out --orbit for station clocks');
+  }
+  const orbit = series.kind === 'receiver' ? null : fitOrbit(a, orbitSat, file, ts, first, last);
+  const result = fitSeries(series, {
+    degree: a.degree as 0 | 1 | 2,
+    timeSystem: ts,
+    clipSigma: a.clip,
+    sourceName: file.fileName,
+    trajectory: orbit?.trajectory ?? null,
+    ...(orbit === null ? {} : { gravity: orbit.gravity }),
+    ...(a.periodic === undefined ? {} : { periodic: a.periodic as PeriodicTerm, periodicReason: 'set with --periodic' }),
+    ...(a.epoch === undefined ? {} : { epochTtJ2000S: ts.parse(a.epoch, '--epoch').ttJ2000S }),
+  });
+  const notes = [...file.notes.map((n) => `source: ${n}`), ...(orbit === null ? [] : [`orbit: ${orbit.label}, ${orbit.gravity.name} gravity`]), ...result.notes];
+  return { ...result, notes };
+}
+
+/** Fit a file read whole (small files, the demo, library callers). */
+export function computeFit(a: FitArgs, ts: TimeSystem): { result: FitResult; meanRelativistic: number } {
+  checkArgs(a);
+  const wanted = a.sat === undefined ? null : new Set([a.sat]);
+  const file = readClockText(readTextWhole(a.measurements, 'measurements', 'measurements'), a.measurements, clockFileOptions(a, ts, wanted));
+  const result = fitFromFile(file, a, ts);
+  return { result, meanRelativistic: result.relativisticMeanFractionalOffset ?? 0 };
+}
+
+/** `tauplan fit FILE` (one clock), streaming the file. */
+export async function runFit(a: FitArgs & { format: string }, ts: TimeSystem): Promise<Rendered> {
+  checkArgs(a);
+  if (a.format === 'jsonl') throw new InputError('jsonl output is for surveys', '--format', 'add --all, or use text, json, csv or html');
+  if (a.updateScenario !== undefined && a.sat === undefined) {
+    throw new InputError('--update-scenario needs --scenario and --sat (or --orbit and --sat)', '--update-scenario', 'give the orbit and the satellite the measurements belong to');
+  }
+  const wanted = a.sat === undefined ? null : new Set([a.sat]);
+  const file = await readClockFile(a.measurements, clockFileOptions(a, ts, wanted));
+  const result = fitFromFile(file, a, ts);
+  if (a.updateScenario !== undefined) {
+    if (result.fractionalFrequency === null) throw new InputError('a degree-0 fit has no frequency to write', '--degree', 'use --degree 1 or 2 with --update-scenario');
+    if (result.hardwareFractionalOffset === null) throw new InputError('no orbit, so no hardware offset to write', '--update-scenario', 'give --orbit or --scenario so the fit can split the rate into relativity and hardware');
+    // The scenario's model adds relativity itself, so the hardware offset is what it needs.
+    updateScenarioClock(a.updateScenario, a.sat as string, {
+      epoch: result.epoch,
+      offsetNs: result.offsetNs,
+      hardwareFractionalOffset: result.hardwareFractionalOffset,
+      ...(result.driftPerDay === null ? {} : { agingPerDay: result.driftPerDay }),
+    }, ts);
+  }
+  return {
+    json: () => fitToJson(result),
+    csv: () => fitToCsv(result),
+    text: () => fitToText(result, ts),
+    html: () => page('tauplan — clock fit', a.measurements, [{ label: 'epoch', value: result.epoch }], [fitSection(result)]),
+  };
+}
