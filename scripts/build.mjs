@@ -19,7 +19,7 @@ for (const name of (statSync(join(root, 'dist'), { throwIfNoEntry: false })?.isD
 }
 await build({
   absWorkingDir: root,
-  entryPoints: { cli: 'src/cli/main.ts', sizeWorker: 'src/cli/sizeWorker.ts', scenarioWorker: 'src/cli/scenarioWorker.ts', index: 'src/index.ts' },
+  entryPoints: { cli: 'src/cli/main.ts', sizeWorker: 'src/cli/sizeWorker.ts', scenarioWorker: 'src/cli/scenarioWorker.ts', fitWorker: 'src/cli/fitWorker.ts', index: 'src/index.ts' },
   outdir: 'dist',
   outExtension: { '.js': '.mjs' },
   bundle: true,

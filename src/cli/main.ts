@@ -22,6 +22,7 @@ import { navclockOptions, runNavclock } from './commands/navclock.ts';
 import { runStability, stabilityOptions } from './commands/stability.ts';
 import { compareOptions, runCompare, runSweep, runTrack, sweepOptions, trackOptions } from './commands/analysis.ts';
 import { fitOptions, runFit } from './commands/fit.ts';
+import { runFitAll } from './commands/fitAll.ts';
 
 export const EXIT_OK = 0;
 export const EXIT_INTERNAL = 1;
@@ -80,7 +81,10 @@ function parser(args: string[]) {
       'fit <measurements>',
       'Fit offset, rate and drift to measured clock offsets, with stability',
       (y) => fitOptions(common(y)),
-      async (a) => emit(await runFit(a, ts), a.format as OutputFormat, a.out, 'fit', ts),
+      async (a) => {
+        if (a.all === true) await runFitAll(a, ts);
+        else emit(await runFit(a, ts), a.format as OutputFormat, a.out, 'fit', ts);
+      },
     )
     .command(
       'stability <file>',

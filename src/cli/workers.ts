@@ -5,7 +5,7 @@
  */
 import { Worker } from 'node:worker_threads';
 
-export type WorkerModule = 'sizeWorker' | 'scenarioWorker';
+export type WorkerModule = 'sizeWorker' | 'scenarioWorker' | 'fitWorker';
 
 export function startModuleWorker(name: WorkerModule, workerData: unknown): Worker {
   if (/\/dist\/[^/]*$/.test(import.meta.url)) return new Worker(new URL(`./${name}.mjs`, import.meta.url), { workerData });

@@ -20,6 +20,7 @@ import { Matrix, SingularValueDecomposition } from 'ml-matrix';
 import { InputError, InternalError, assertFinite } from '../errors.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import { Instant } from '../time/instant.ts';
+import { evenSpacingS, modifiedAdev, octaveFactors, overlappingAdev } from '../clock/stability.ts';
 import { clipStoppedWarning, clippingExceedsLimit, diagnoseResiduals } from './fitGuard.ts';
 import { fitStabilityRows, offsetStability, type FitStabilityRow } from './fitStability.ts';
 import { detectSteps, type DetectedStep } from './steps.ts';
@@ -72,6 +73,8 @@ export interface FitOptions {
   orbitalPeriodS?: number;
   /** 'auto': fit the phase jumps found in the residuals jointly and remove them (src/plan/segments.ts). Default 'none'. */
   segments?: 'none' | 'auto';
+  /** Averaging times [s] at which to give the residuals' OADEV besides the octave table (nearest multiple of the spacing). */
+  stabilityTausS?: number[];
 }
 
 /** A row left out by sigma clipping. */
@@ -155,6 +158,8 @@ export interface FitResult {
   hardwareFractionalOffset: number | null;
   /** Sentences the reader should see (conventions used, samples left out). */
   notes: string[];
+  /** OADEV of the residuals at the requested averaging times (null where the data do not reach), in request order. */
+  stabilityAtTaus: { tauS: number; oadev: number | null }[];
 }
 
 /** The measurement source of a fit (contract: `source`). */
@@ -255,7 +260,7 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
       clipStoppedAt = rejectedIdx.size + out.length;
       rejectedIdx.clear();
       usedIdx = rows.map((_, i) => i);
-      sol = solve(usedIdx, tS, yNs, sigma, degree);
+      sol = solve(usedIdx, tS, yNs, sigma, degree, seg, nSeg);
       break;
     }
     for (const i of out) rejectedIdx.add(i);
@@ -335,6 +340,7 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
     });
     warnings.push(clipStoppedWarning(clipStoppedAt, rows.length, clip, diagnosis));
   }
+  const { atTaus } = residualStability(rows, usedIdx, sol.residualNs, options.spacingRelTol ?? 1e-3, options.stabilityTausS ?? []);
 
   const usedTimes = usedIdx.map((i) => rows[i].ttJ2000S);
   return {
@@ -373,6 +379,7 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
     relativisticMeanFractionalOffset: null,
     hardwareFractionalOffset: null,
     notes: [],
+    stabilityAtTaus: atTaus,
   };
 }
 
@@ -437,4 +444,63 @@ function solve(idx: readonly number[], tS: readonly number[], yNs: readonly numb
   });
   if (!Number.isFinite(chiSquare)) throw new InternalError('least-squares residuals are not finite', 'chiSquare');
   return { params, cov, residualNs, chiSquare };
+}
+
+/**
+ * Octave stability table of the residual phase (ns → s). Needs the rows, before clipping, to be
+ * evenly spaced. A rejected row inside the series is filled by linear interpolation of its used
+ * neighbours' residuals (so one outlier does not void the table); rejected rows at either end
+ * are dropped. The note says when that happened.
+ */
+function residualStability(
+  rows: readonly FitInputRow[],
+  usedIdx: readonly number[],
+  usedResidualNs: readonly number[],
+  relTol: number,
+  tausS: readonly number[],
+): { stability: { tauS: number; oadev: number; mdev: number; count: number }[]; note: string | null; atTaus: { tauS: number; oadev: number | null }[] } {
+  const tau0S = evenSpacingS(
+    rows.map((r) => r.ttJ2000S),
+    relTol,
+  );
+  if (tau0S === null) return { stability: [], note: 'no stability table: the samples are not evenly spaced', atTaus: tausS.map((tauS) => ({ tauS, oadev: null })) };
+  const first = usedIdx[0];
+  const last = usedIdx[usedIdx.length - 1];
+  const residualByRow = new Map<number, number>();
+  usedIdx.forEach((i, k) => residualByRow.set(i, usedResidualNs[k]));
+  const x: number[] = [];
+  let filled = 0;
+  let prevUsed = first;
+  for (let i = first; i <= last; i++) {
+    const r = residualByRow.get(i);
+    if (r !== undefined) {
+      x.push(r * 1e-9);
+      prevUsed = i;
+      continue;
+    }
+    let nextUsed = i + 1;
+    while (!residualByRow.has(nextUsed)) nextUsed++; // ends at `last`, which is used
+    const a = residualByRow.get(prevUsed) as number;
+    const b = residualByRow.get(nextUsed) as number;
+    x.push((a + ((b - a) * (i - prevUsed)) / (nextUsed - prevUsed)) * 1e-9);
+    filled++;
+  }
+  const dropped = rows.length - (last - first + 1);
+  const atTaus = tausS.map((tauS) => {
+    const m = Math.max(1, Math.round(tauS / tau0S));
+    const o = overlappingAdev(x, tau0S, m);
+    return { tauS: o.tauS, oadev: o.deviation };
+  });
+  const factors = octaveFactors(x.length);
+  if (factors.length === 0) return { stability: [], note: 'no stability table: fewer than 3 evenly spaced samples', atTaus };
+  const stability = factors.map((m) => {
+    const o = overlappingAdev(x, tau0S, m);
+    const d = modifiedAdev(x, tau0S, m);
+    if (o.deviation === null || d.deviation === null) throw new InternalError(`stability undefined at m = ${m}`, 'stability');
+    return { tauS: o.tauS, oadev: o.deviation, mdev: d.deviation, count: o.count };
+  });
+  const parts: string[] = [];
+  if (filled > 0) parts.push(`${filled} rejected row(s) inside the series filled by linear interpolation of the neighbouring residuals`);
+  if (dropped > 0) parts.push(`${dropped} rejected row(s) at the ends left out`);
+  return { stability, note: parts.length === 0 ? null : parts.join('; '), atTaus };
 }

@@ -12,7 +12,7 @@ import type { DeviationInterval } from '../clock/edf.ts';
 import { noiseTypeName } from './stabilityReport.ts';
 
 /** JSON shape of `tauplan fit`: the fit result without its internal time coordinate. */
-export type FitJson = Omit<FitResult, 'epochTtJ2000S'>;
+export type FitJson = Omit<FitResult, 'epochTtJ2000S' | 'stabilityAtTaus'>;
 
 /**
  * The JSON-ready object of a fit: every number finite (checked; a non-finite value is a bug and
@@ -77,6 +77,11 @@ export const FIT_CSV_COLUMNS = [
   'periodicRemoved',
   'rejectedFraction',
   'clipStopped',
+  'satellite',
+  'format',
+  'periodicTerm',
+  'relativisticMeanFractionalOffset',
+  'hardwareFractionalOffset',
 ] as const;
 
 /**
@@ -103,9 +108,15 @@ export function fitToCsv(result: FitResult): string {
     j.periodicRemoved,
     j.rejectedFraction,
     j.clipStopped,
+    j.source?.satellite ?? null,
+    j.source?.format ?? null,
+    j.source?.periodicTerm ?? null,
+    j.relativisticMeanFractionalOffset,
+    j.hardwareFractionalOffset,
   ];
   const warnings = j.warnings.map((w) => `# WARNING: ${w}\n`).join('');
-  return warnings + stringify([[...FIT_CSV_COLUMNS], row.map((v) => (v === null ? '' : String(v)))]);
+  const notes = j.notes.map((n) => `# ${n}\n`).join('');
+  return warnings + notes + stringify([[...FIT_CSV_COLUMNS], row.map((v) => (v === null ? '' : String(v)))]);
 }
 
 /**
@@ -125,13 +136,30 @@ export function fitToText(result: FitResult, timeSystem: TimeSystem): string {
   if (j.warnings.length > 0) out.push('');
   out.push(`Clock fit, degree ${j.degree} (${['offset', 'offset + frequency', 'offset + frequency + drift'][j.degree]})`);
   out.push(`Model: offset(t) = x0 + y·t + D·t²/2, t from the epoch; y > 0 means the clock runs fast.`);
+  if (j.source !== null) {
+    const src = j.source;
+    out.push(`Source: ${src.format}, clock ${src.satellite}, ${src.samples} samples${src.skipped > 0 ? `, ${src.skipped} absent or bad skipped` : ''}${src.segments > 1 ? `, ${src.segments} segments (one offset each)` : ''}, times in ${src.timeScale}`);
+    out.push(`Periodic term −2r·v/c²: ${src.periodicTerm} in the data`);
+  }
   out.push('');
   out.push(`  epoch                  ${j.epoch}  (${epochGps})`);
   out.push(`  offset x0              ${pm(j.offsetNs, j.offsetSigmaNs, ns, ' ns')}`);
   out.push(`  fractional frequency y ${pm(j.fractionalFrequency, j.fractionalFrequencySigma, e, '')}`);
   if (j.fractionalFrequency !== null) out.push(`    = ${(j.fractionalFrequency * 86400e9).toFixed(3)} ns/day`);
   out.push(`  drift D                ${pm(j.driftPerDay, j.driftPerDaySigma, e, ' per day')}`);
+  if (j.source?.statedDrift != null) out.push(`  drift stated in file   ${e(j.source.statedDrift)} (mean CLOCK_DRIFT, s/s), beside the fitted y`);
   out.push('  (± values are 1σ)');
+  if (j.relativisticMeanFractionalOffset !== null && j.hardwareFractionalOffset !== null) {
+    const rel = j.relativisticMeanFractionalOffset;
+    const hw = j.hardwareFractionalOffset;
+    const gap = hw + rel;
+    out.push('');
+    out.push('Relativity and hardware (y = relativistic mean rate + hardware offset):');
+    out.push(`  relativistic mean rate ${e(rel)}  (${(rel * 86400e9).toFixed(3)} ns/day), along the orbit over the fitted span`);
+    out.push(`  hardware offset        ${e(hw)}  (${(hw * 86400e9).toFixed(3)} ns/day)`);
+    out.push(`  hardware + relativity  ${(gap * 1e13).toFixed(3)} parts in 1e13 (${(gap * 86400e9).toFixed(3)} ns/day): how far the`);
+    out.push('                         oscillator is from exactly cancelling the relativistic rate');
+  }
   out.push('');
   out.push(`  rows used              ${j.used}, spanning ${(j.spanS / 86400).toFixed(4)} d`);
   out.push(`  rms residual           ${ns(j.rmsNs)} ns`);
@@ -169,6 +197,12 @@ export function fitToText(result: FitResult, timeSystem: TimeSystem): string {
         ),
       ),
     );
+  }
+  if (j.segmentOffsetsNs.length > 1) out.push(`  segment offsets        ${j.segmentOffsetsNs.map((x) => ns(x)).join(', ')} ns`);
+  if (j.notes.length > 0) {
+    out.push('');
+    out.push('Notes:');
+    for (const n of j.notes) out.push(`  - ${n}`);
   }
   out.push('');
   if (j.rejected.length === 0) {
