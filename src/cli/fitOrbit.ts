@@ -3,7 +3,7 @@
  * kind is read from the content), the older `--scenario FILE`, or the SP3 file whose clock column
  * is being fitted. Returns null when there is none.
  */
-import { gravityModel, type GravityModel } from '../clock/gravity.ts';
+import { gravityModel, type GravityModel } from '../orbit/gravity.ts';
 import { InputError } from '../errors.ts';
 import type { ClockFile } from '../io/clockReader.ts';
 import { loadScenario, scenarioSatellite } from '../io/loadScenario.ts';

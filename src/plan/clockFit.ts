@@ -16,7 +16,7 @@
  * so the fitted frequency is the hardware offset plus the mean relativistic rate, and
  * `hardwareFractionalOffset` = fractionalFrequency − relativisticMeanFractionalOffset.
  */
-import type { GravityModel } from '../clock/gravity.ts';
+import type { GravityModel } from '../orbit/gravity.ts';
 import { conventionalPeriodicS } from '../clock/rate.ts';
 import type { MeasurementSeries, PeriodicTerm } from '../model/measurements.ts';
 import { segmentCount, seriesRows } from '../model/measurements.ts';
