@@ -70,7 +70,13 @@ export function fitOrbit(a: FitOrbitFlags, clock: string | undefined, file: Cloc
   if (path === undefined) {
     if (file !== null && file.format === 'sp3' && clock !== undefined) {
       const sp3 = (file as Sp3ClockFile).sp3;
-      return { trajectory: new Sp3Trajectory(sp3, clock, ts), gravity: gravityModel(gravityName), label: `the SP3 file itself (${sp3.fileName})` };
+      try {
+        return { trajectory: new Sp3Trajectory(sp3, clock, ts), gravity: gravityModel(gravityName), label: `the SP3 file itself (${sp3.fileName})` };
+      } catch (e) {
+        // The clock column is still worth fitting when the orbit is too short to interpolate.
+        if (e instanceof InputError) return null;
+        throw e;
+      }
     }
     return null;
   }

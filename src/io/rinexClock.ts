@@ -110,7 +110,8 @@ export class RinexClockReader implements LineReader {
     const t = l.text;
     if (t.trim() === '') return;
     const kind = t.slice(0, 2);
-    if (kind === '  ' || kind.trim() === '') {
+    // Continuation lines start with blanks (values right-justified in E19.12 fields), records with the type.
+    if (!/^[A-Z]{2}/.test(t)) {
       const p = this.pending;
       if (p === null || p.values.length >= p.need) this.fail('continuation line without a record that needs more values', l.line, 'continuation lines follow a record whose value count is above 2');
       for (const tok of t.trim().split(/\s+/)) (p as Pending).values.push(tok);
