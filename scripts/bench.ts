@@ -30,13 +30,18 @@
  *   stabilityPointsPerSecond phase points per second of the full stability table (OADEV, MDEV,
  *                           TDEV, OHDEV with EDF and 68/95 % intervals, noise identification) at
  *                           octave τ on 250 000 invented points (white PM + random-walk phase).
+ *   fitAllClocksPerSecond   clocks fitted per second by `fit FILE --all --jobs 2` (child process,
+ *                           CSV to a file): on the real 30-s GRG clock file of 2020-06-25 (75
+ *                           satellites, 216 000 records) with its SP3 as the orbit when
+ *                           ../shared/realdata is present, else on an invented RINEX clock 3.00 file
+ *                           of the same size (no orbit). Its peak RSS is printed beside it (goal < 300 MB).
  *
  * Options: --tiny (or TAUPLAN_BENCH_TINY=1) runs a few-second version for the smoke test;
  * --results PATH (default ./bench-results.json); --work-dir DIR (default a new temp folder).
  * The catalogues are invented (scripts/make-catalogue.ts). Total time on 2 cores: about 2–3 min.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { getHeapStatistics, setFlagsFromString } from 'node:v8';
@@ -71,6 +76,7 @@ export interface BenchResults {
   rssGrowth10x: number;
   statesPerSatelliteDay: number;
   stabilityPointsPerSecond: number;
+  fitAllClocksPerSecond: number;
 }
 
 // ---------------------------------------------------------------- child mode: one CLI run
@@ -431,6 +437,49 @@ const stabilityPhase = new Float64Array(stabilityPoints);
 }
 log(`stability table: ${stabilityPoints} points, octave τ`);
 const stabilityMs = best(() => void stabilityTable({ xS: stabilityPhase, tau0S: 1 }), tiny ? 1 : 2);
+// ---------------------------------------------------------------- 6. survey of every clock of a product
+/** An invented RINEX clock 3.00 file: `sats` satellites (invented clocks: offset, rate, noise) at 30 s. */
+function inventedClockFile(sats: number, epochs: number): string {
+  const label = (text: string, l: string): string => `${text.padEnd(60)}${l}`;
+  const head = [
+    label('     3.00           C                   G', 'RINEX VERSION / TYPE'),
+    label('tauplan-bench', 'PGM / RUN BY / DATE'),
+    label('INVENTED CLOCKS FOR THE BENCHMARK', 'COMMENT'),
+    label('   GPS', 'TIME SYSTEM ID'),
+    label('     1    AS', '# / TYPES OF DATA'),
+    label('', 'END OF HEADER'),
+  ];
+  const out: string[] = [head.join('\n')];
+  let seed = 12345;
+  const rnd = (): number => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648) - 0.5;
+  const ids = Array.from({ length: sats }, (_, k) => `${'EGR'[k % 3]}${String(1 + Math.floor(k / 3)).padStart(2, '0')}`);
+  for (let e = 0; e < epochs; e++) {
+    const s = e * 30;
+    const ep = `2020 06 25 ${String(Math.floor(s / 3600)).padStart(2)} ${String(Math.floor((s % 3600) / 60)).padStart(2)} ${(s % 60).toFixed(6).padStart(9)}`;
+    const lines: string[] = [];
+    ids.forEach((id, k) => {
+      const biasS = (k - sats / 2) * 1e-5 + (k % 7) * 1e-12 * s + 1e-10 * rnd();
+      lines.push(`AS ${id}  ${ep}  2   ${biasS.toExponential(12).padStart(19)}  ${(3e-11).toExponential(12)}`);
+    });
+    out.push(lines.join('\n'));
+  }
+  return `${out.join('\n')}\n`;
+}
+const REAL_DAY = fileURLToPath(new URL('../../shared/realdata/igs-2020-06-25/', import.meta.url));
+const realClk = join(REAL_DAY, 'GRG0MGXFIN_20201770000_01D_30S_CLK.CLK.gz');
+const realSp3 = join(REAL_DAY, 'GRG0MGXFIN_20201770000_01D_15M_ORB.SP3.gz');
+const useReal = !tiny && existsSync(realClk) && existsSync(realSp3);
+const surveyClocks = tiny ? 6 : 75;
+let surveyArgs: string[];
+if (useReal) {
+  surveyArgs = ['fit', realClk, '--all', '--orbit', realSp3];
+} else {
+  const file = join(workDir, 'invented-clocks.clk');
+  writeFileSync(file, inventedClockFile(surveyClocks, tiny ? 240 : 2880));
+  surveyArgs = ['fit', file, '--all'];
+}
+log(`fit --all: ${useReal ? 'real GRG 30-s clock file (75 satellites) with its SP3' : `invented clock file (${surveyClocks} clocks)`}, --jobs 2`);
+const survey = child([...surveyArgs, '--jobs', '2', '--format', 'csv', '--out', join(workDir, 'survey.csv'), '--quiet']);
 
 const results: BenchResults = {
   pipelineVsBulk: pipelineMs / baselineMs,
@@ -440,6 +489,7 @@ const results: BenchResults = {
   rssGrowth10x: two.maxRssKb / small.maxRssKb,
   statesPerSatelliteDay: mean(accuracy.map((a) => a.statesPerDay)),
   stabilityPointsPerSecond: stabilityPoints / (stabilityMs / 1000),
+  fitAllClocksPerSecond: surveyClocks / (survey.wallMs / 1000),
 };
 writeFileSync(resultsPath, `${JSON.stringify(results, null, 2)}\n`);
 
@@ -452,6 +502,7 @@ const rows: [string, string, string, string][] = [
   ['twoWorkersVsOne', f(results.twoWorkersVsOne), '≤ 0.6', `${CFG.large} objects: --jobs 1 ${f(one.wallMs / 1000, 1)} s, --jobs 2 ${f(two.wallMs / 1000, 1)} s`],
   ['  (machine control)', f(control2 / (2 * control1)), '0.5 ideal', `same pure-JS work on 2 threads at once takes ${f(control2 / control1, 2)}× one thread's time: the best twoWorkersVsOne here`],
   ['rssGrowth10x', f(results.rssGrowth10x), '< 1.5', `peak RSS ${f(small.maxRssKb / 1024, 0)} MB (${CFG.small}) vs ${f(two.maxRssKb / 1024, 0)} MB (${CFG.large})`],
+  ['fitAllClocksPerSecond', f(results.fitAllClocksPerSecond, 2), '—', `${surveyClocks} clocks in ${f(survey.wallMs / 1000, 1)} s (${useReal ? 'real GRG day, SP3 orbit' : 'invented file, no orbit'}); peak RSS ${f(survey.maxRssKb / 1024, 0)} MB (goal < 300)`],
   ['statesPerSatelliteDay', f(results.statesPerSatelliteDay, 0), '—', `pipeline spends ${f(mean(accuracy.map((a) => a.pipelineStatesPerDay)), 0)} (integration + fit grid)`],
   ['stabilityPointsPerSecond', f(results.stabilityPointsPerSecond, 0), '—', `${stabilityPoints} points in ${f(stabilityMs / 1000, 2)} s (all statistics with intervals at octave τ)`],
 ];

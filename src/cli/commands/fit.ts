@@ -72,6 +72,9 @@ export function clockFileOptions(a: FitArgs, ts: TimeSystem, wanted: ReadonlySet
 export function fitFromFile(file: ClockFile, a: FitArgs, ts: TimeSystem, series: MeasurementSeries = pickSeries(file, a.sat)): FitResult {
   const first = series.ttJ2000S[0];
   const last = series.ttJ2000S[series.ttJ2000S.length - 1];
+  if (series.format === 'csv' && a.sat !== undefined && a.orbit === undefined && a.scenario === undefined) {
+    throw new InputError('--sat without --scenario or --orbit (a CSV holds one clock; --sat names its satellite in the orbit file)', '--sat', 'give --scenario FILE or --orbit FILE too, or leave out --sat');
+  }
   const orbitSat = series.kind === 'unknown' ? a.sat : series.clock;
   if (series.kind === 'receiver' && (a.orbit !== undefined || a.scenario !== undefined)) {
     throw new InputError(`${series.clock} is a receiver (AR) clock, which has no orbit`, '--orbit', 'leave out --orbit for station clocks');
