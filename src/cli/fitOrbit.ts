@@ -8,7 +8,7 @@ import { InputError } from '../errors.ts';
 import type { ClockFile } from '../io/clockReader.ts';
 import { loadScenario, scenarioSatellite } from '../io/loadScenario.ts';
 import { parseOmmFile, type OmmRecord } from '../io/omm.ts';
-import { idOf, pickElementSet, sgp4Span } from '../io/orbitSources.ts';
+import { idOf, oemTrajectory, pickElementSet, sgp4Span } from '../io/orbitSources.ts';
 import { parseSp3, type Sp3File } from '../io/sp3.ts';
 import type { Sp3ClockFile } from '../io/sp3Clock.ts';
 import { readTextWhole } from '../io/textSource.ts';
@@ -91,7 +91,7 @@ export function fitOrbit(a: FitOrbitFlags, clock: string | undefined, file: Cloc
       return { trajectory: new Sp3Trajectory(sp3, clock, ts), gravity: gravityModel(gravityName), label: `SP3 ${path}` };
     }
     case 'oem':
-      throw new InputError(`${path} is a CCSDS OEM, which fit does not read yet`, flag, 'give the orbit as SP3, TLE, OMM or a scenario');
+      return { trajectory: oemTrajectory(path, clock, ts, flag), gravity: gravityModel(gravityName), label: `OEM ${path}` };
     case 'tle':
     case 'omm': {
       const text = readTextWhole(path, 'elements', flag);

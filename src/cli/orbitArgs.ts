@@ -3,7 +3,7 @@ import type { Argv } from 'yargs';
 import type { GravityModel } from '../orbit/gravity.ts';
 import { InputError } from '../errors.ts';
 import { loadScenario, scenarioSatellite } from '../io/loadScenario.ts';
-import { idOf, labelOf, pickElementSet, readElementSets, sgp4Span, trajectoryForSatellite, type ResolvedOrbit } from '../io/orbitSources.ts';
+import { idOf, labelOf, oemTrajectory, pickElementSet, readElementSets, sgp4Span, trajectoryForSatellite, type ResolvedOrbit } from '../io/orbitSources.ts';
 import { Sgp4Trajectory } from '../orbit/sgp4.ts';
 import { elementsFromDegKm } from '../orbit/keplerian.ts';
 import { trajectoryFromKeplerian } from '../orbit/stateVector.ts';
@@ -22,6 +22,7 @@ export function orbitOptions<T>(y: Argv<T>) {
     .option('epoch', { type: 'string', requiresArg: true, default: '2027-01-01T00:00:00Z', describe: 'epoch of the elements' })
     .option('tle', { type: 'string', requiresArg: true, describe: 'TLE/3LE file' })
     .option('omm', { type: 'string', requiresArg: true, describe: 'CCSDS OMM file (JSON, KVN or XML)' })
+    .option('oem', { type: 'string', requiresArg: true, describe: 'CCSDS OEM file (KVN; --sat names the object when it holds several)' })
     .option('scenario', { type: 'string', requiresArg: true, describe: 'scenario file (JSON or YAML)' })
     .option('sat', { type: 'string', requiresArg: true, describe: 'satellite: catalogue number, TLE name or scenario id' });
 }
@@ -37,6 +38,7 @@ export interface OrbitFlags {
   epoch: string;
   tle?: string;
   omm?: string;
+  oem?: string;
   scenario?: string;
   sat?: string;
 }
@@ -45,16 +47,16 @@ export interface OrbitFlags {
 export type SpanFor = (epochTtJ2000S: number | null) => { fromTtJ2000S: number; toTtJ2000S: number };
 
 export function orbitFromFlags(a: OrbitFlags, ts: TimeSystem, gravity: GravityModel, spanFor: SpanFor): ResolvedOrbit {
-  const fileSources = [a.tle, a.omm, a.scenario].filter((x) => x !== undefined).length;
+  const fileSources = [a.tle, a.omm, a.oem, a.scenario].filter((x) => x !== undefined).length;
   const hasElements = a.aKm !== undefined || a.altitudeKm !== undefined;
   if (a.aKm !== undefined && a.altitudeKm !== undefined) {
     throw new InputError('both --a-km and --altitude-km given', '--a-km/--altitude-km', 'give one of them');
   }
   if (fileSources > 1 || (fileSources === 1 && hasElements)) {
-    throw new InputError('more than one orbit given', '--a-km/--altitude-km/--tle/--omm/--scenario', 'give exactly one orbit source');
+    throw new InputError('more than one orbit given', '--a-km/--altitude-km/--tle/--omm/--oem/--scenario', 'give exactly one orbit source');
   }
   if (fileSources === 0 && !hasElements) {
-    throw new InputError('no orbit given', 'command line', 'give --a-km or --altitude-km (with --e, --i-deg ...), or --tle, --omm or --scenario with --sat');
+    throw new InputError('no orbit given', 'command line', 'give --a-km or --altitude-km (with --e, --i-deg ...), or --tle, --omm, --oem or --scenario with --sat');
   }
   if (a.tle !== undefined || a.omm !== undefined) {
     const kind = a.tle !== undefined ? 'tle' : 'omm';
@@ -62,6 +64,10 @@ export function orbitFromFlags(a: OrbitFlags, ts: TimeSystem, gravity: GravityMo
     const rec = pickElementSet(readElementSets(file, kind, `--${kind}`), a.sat, file);
     const trajectory = new Sgp4Trajectory(rec, ts, { id: idOf(rec), spanFor: (epoch) => sgp4Span(epoch, spanFor(epoch)) });
     return { trajectory, name: labelOf(rec) };
+  }
+  if (a.oem !== undefined) {
+    const trajectory = oemTrajectory(a.oem, a.sat, ts, '--oem');
+    return { trajectory, name: trajectory.id };
   }
   if (a.scenario !== undefined) {
     const scenario = loadScenario(a.scenario, ts, '--scenario');

@@ -6,7 +6,12 @@ import type { GravityModel } from '../orbit/gravity.ts';
 import { InputError } from '../errors.ts';
 import { elementsFromDegKm, type KeplerianElements } from '../orbit/keplerian.ts';
 import { Sgp4Trajectory } from '../orbit/sgp4.ts';
-import { Sp3Trajectory } from '../orbit/sp3.ts';
+import { gmstRadAtTt, Sp3Trajectory } from '../orbit/sp3.ts';
+import { OemTrajectory, oemSegmentsOf } from '../orbit/oem.ts';
+import type { OemFile } from '../model/oem.ts';
+import { Instant } from '../time/instant.ts';
+import { parseOem } from './oem.ts';
+import { readTextWhole } from './textSource.ts';
 import { trajectoryFromKeplerian, trajectoryFromStateVector } from '../orbit/stateVector.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
@@ -118,6 +123,29 @@ export function preloadScenarioFiles(scenario: ScenarioSpec): void {
   }
 }
 
+const oemCache = new Map<string, OemFile>();
+
+/** A CCSDS OEM (KVN, gzip or not), parsed once per process. */
+export function readOem(path: string, where: string, ts: TimeSystem): OemFile {
+  let f = oemCache.get(path);
+  if (f === undefined) {
+    f = parseOem(readTextWhole(path, 'orbit', where), path, ts);
+    oemCache.set(path, f);
+  }
+  return f;
+}
+
+/** One object of an OEM as a trajectory (object: OBJECT_NAME or OBJECT_ID; undefined for the only one). */
+export function oemTrajectory(path: string, object: string | undefined, ts: TimeSystem, where: string, id?: string): OemTrajectory {
+  const file = readOem(path, where, ts);
+  const segments = oemSegmentsOf(file, object, where);
+  return new OemTrajectory(file, id ?? segments[0].objectName, segments, {
+    jdUtcAt: (t) => ts.jdUtcFromTtJ2000S(t),
+    gmstRadAt: (t) => gmstRadAtTt(ts, t),
+    format: (t) => ts.format(Instant.fromTtJ2000S(t)),
+  });
+}
+
 /** Keplerian elements of a scenario satellite. */
 function scenarioElements(sat: SatelliteSpec, deltaAKm: number): KeplerianElements {
   const o = sat.orbit;
@@ -165,6 +193,8 @@ export function trajectoryForSatellite(sat: SatelliteSpec, scenario: ScenarioSpe
       });
       return { trajectory, name };
     }
+    case 'oem':
+      return { trajectory: oemTrajectory(o.resolvedFile, o.object ?? undefined, ts, `${scenario.fileName} ${sat.path}.orbit.oem`, sat.id), name };
     case 'sp3': {
       const file = readSp3(o.resolvedFile, `${scenario.fileName} ${sat.path}.orbit.sp3.file`);
       if (!file.satelliteIds.includes(o.id)) {

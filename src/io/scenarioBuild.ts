@@ -184,6 +184,7 @@ function buildOrbit(o: RawScenario['satellites'][number]['orbit'], path: PathSeg
       velocityKmPerS: [...s.velocityKmPerS],
     };
   }
+  if (o.oem !== undefined) return { kind: 'oem', file: o.oem.file, resolvedFile: resolve(dirname(resolve(ctx.fileName)), o.oem.file), object: o.oem.object ?? null };
   const sp3 = o.sp3!;
   return { kind: 'sp3', file: sp3.file, resolvedFile: resolve(dirname(resolve(ctx.fileName)), sp3.file), id: sp3.id };
 }

@@ -55,6 +55,7 @@ const OrbitSchema = z.strictObject({
   keplerian: KeplerianSchema.optional(),
   state: z.strictObject({ epoch: text, frame: z.enum(['GCRF', 'TEME']), positionKm: vec3, velocityKmPerS: vec3 }).optional(),
   sp3: z.strictObject({ file: text, id: text }).optional(),
+  oem: z.strictObject({ file: text, object: text.optional() }).optional(),
 });
 
 const ClockSchema = z.strictObject({

@@ -16,7 +16,7 @@
 import { InputError } from '../errors.ts';
 import type { MeasurementSeries } from '../model/measurements.ts';
 import { noteSkipped } from '../model/measurements.ts';
-import { civilFromDays, daysFromCivil } from '../time/calendar.ts';
+import { ccsdsCivil } from './ccsdsTime.ts';
 import type { CivilTime } from '../time/timeSystem.ts';
 import { appendSample, feedAll, fortranNumber, PRODUCT_TIME_SYSTEMS, productTimeTt, seriesFor, type ClockFile, type ClockReadOptions, type LineReader, type ProductTimeSystem } from './clockReader.ts';
 import { linesOf, type TextLine } from './textSource.ts';
@@ -24,8 +24,6 @@ import { linesOf, type TextLine } from './textSource.ts';
 const TDM_VERSIONS = ['1.0', '2.0'];
 const TDM_TIME_SYSTEMS = ['UTC', 'TAI', 'TT', 'GPS', 'GST', 'BDT'];
 const KV = /^([A-Z0-9_]+)\s*=\s*(.*)$/;
-const TIME_YMD = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2}):(\d{2}(?:\.\d*)?)Z?$/;
-const TIME_DOY = /^(\d{4})-(\d{3})T(\d{2}):(\d{2}):(\d{2}(?:\.\d*)?)Z?$/;
 
 type State = 'start' | 'header' | 'meta' | 'between' | 'data';
 
@@ -141,19 +139,8 @@ export class TdmReader implements LineReader {
   }
 
   private time(text: string, line: number): number {
-    let c: CivilTime | null = null;
-    const ymd = TIME_YMD.exec(text);
-    if (ymd !== null) c = { year: +ymd[1], month: +ymd[2], day: +ymd[3], hour: +ymd[4], minute: +ymd[5], second: +ymd[6] };
-    const doy = TIME_DOY.exec(text);
-    if (doy !== null) {
-      const year = +doy[1];
-      const day = +doy[2];
-      const leap = (year % 4 === 0 && year % 100 !== 0) || year % 400 === 0;
-      if (day < 1 || day > (leap ? 366 : 365)) this.fail(`day of year ${day} does not exist in ${year}`, line, 'check the time');
-      const civil = civilFromDays(daysFromCivil(year, 1, 1) + day - 1);
-      c = { ...civil, hour: +doy[3], minute: +doy[4], second: +doy[5] };
-    }
-    if (c === null) this.fail(`time ${JSON.stringify(text)} is not YYYY-MM-DDThh:mm:ss or YYYY-DDDThh:mm:ss`, line, 'write CCSDS ASCII time code A or B');
+    const c = ccsdsCivil(text);
+    if (typeof c === 'string') this.fail(c, line, 'write CCSDS ASCII time code A (2020-06-25T00:00:00) or B (2020-177T00:00:00)');
     return productTimeTt(this.o.timeSystem, this.sys as ProductTimeSystem, c as CivilTime, `${this.o.fileName}:${line}`);
   }
 

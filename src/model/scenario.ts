@@ -70,11 +70,22 @@ export interface Sp3OrbitSpec {
   id: string;
 }
 
+/** A satellite taken from a CCSDS OEM (KVN). */
+export interface OemOrbitSpec {
+  kind: 'oem';
+  /** The path as written in the scenario. */
+  file: string;
+  /** `file` resolved against the scenario file's folder (absolute). */
+  resolvedFile: string;
+  /** OBJECT_NAME or OBJECT_ID in the OEM; null: the file's only object. */
+  object: string | null;
+}
+
 /** Exactly one orbit source per satellite. */
-export type OrbitSpec = TleOrbitSpec | OmmOrbitSpec | KeplerianOrbitSpec | StateOrbitSpec | Sp3OrbitSpec;
+export type OrbitSpec = TleOrbitSpec | OmmOrbitSpec | KeplerianOrbitSpec | StateOrbitSpec | Sp3OrbitSpec | OemOrbitSpec;
 
 /** The orbit kinds a scenario may name, in the order the contract lists them. */
-export const ORBIT_KINDS = ['tle', 'omm', 'keplerian', 'state', 'sp3'] as const;
+export const ORBIT_KINDS = ['tle', 'omm', 'keplerian', 'state', 'sp3', 'oem'] as const;
 
 /** Allan-deviation noise levels (physics.md §6). A level left out is 0 (no contribution). */
 export interface ClockNoiseSpec {
