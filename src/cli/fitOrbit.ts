@@ -26,6 +26,8 @@ export interface FitOrbit {
   gravity: GravityModel;
   /** What the orbit came from, for the report. */
   label: string;
+  /** Where to point an error about the orbit (file, or scenario file and satellite path). */
+  where: string;
 }
 
 /** Kind of an orbit file, from its first line. */
@@ -71,7 +73,7 @@ export function fitOrbit(a: FitOrbitFlags, clock: string | undefined, file: Cloc
     if (file !== null && file.format === 'sp3' && clock !== undefined) {
       const sp3 = (file as Sp3ClockFile).sp3;
       try {
-        return { trajectory: new Sp3Trajectory(sp3, clock, ts), gravity: gravityModel(gravityName), label: `the SP3 file itself (${sp3.fileName})` };
+        return { trajectory: new Sp3Trajectory(sp3, clock, ts), gravity: gravityModel(gravityName), label: `the SP3 file itself (${sp3.fileName})`, where: sp3.fileName };
       } catch (e) {
         // The clock column is still worth fitting when the orbit is too short to interpolate.
         if (e instanceof InputError) return null;
@@ -88,24 +90,24 @@ export function fitOrbit(a: FitOrbitFlags, clock: string | undefined, file: Cloc
       if (clock === undefined || !sp3.satelliteIds.includes(clock)) {
         throw new InputError(`satellite ${JSON.stringify(clock ?? '')} is not in the SP3 orbit ${path}`, '--sat', `use one of ${sp3.satelliteIds.slice(0, 30).join(', ')}`);
       }
-      return { trajectory: new Sp3Trajectory(sp3, clock, ts), gravity: gravityModel(gravityName), label: `SP3 ${path}` };
+      return { trajectory: new Sp3Trajectory(sp3, clock, ts), gravity: gravityModel(gravityName), label: `SP3 ${path}`, where: path };
     }
     case 'oem':
-      return { trajectory: oemTrajectory(path, clock, ts, flag), gravity: gravityModel(gravityName), label: `OEM ${path}` };
+      return { trajectory: oemTrajectory(path, clock, ts, flag), gravity: gravityModel(gravityName), label: `OEM ${path}`, where: path };
     case 'tle':
     case 'omm': {
       const text = readTextWhole(path, 'elements', flag);
       const recs: (TleRecord | OmmRecord)[] = kind === 'tle' ? parseTleFile(text, path) : parseOmmFile(text, path);
       const rec = pickElementSet(recs, clock, path);
       const trajectory = new Sgp4Trajectory(rec, ts, { id: idOf(rec), spanFor: (epoch) => sgp4Span(epoch, span) });
-      return { trajectory, gravity: gravityModel(gravityName), label: `${kind.toUpperCase()} ${path}` };
+      return { trajectory, gravity: gravityModel(gravityName), label: `${kind.toUpperCase()} ${path}`, where: path };
     }
     default: {
       const scenario = loadScenario(path, ts, flag);
       const gravity = scenarioGravity(scenario, ts, path);
       const sat = scenarioSatellite(scenario, clock);
       const resolved = trajectoryForSatellite(sat, scenario, ts, gravity, span);
-      return { trajectory: resolved.trajectory, gravity, label: `scenario ${path} (${sat.id})` };
+      return { trajectory: resolved.trajectory, gravity, label: `scenario ${path} (${sat.id})`, where: `${path} ${sat.path}` };
     }
   }
 }

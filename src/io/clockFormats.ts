@@ -35,7 +35,8 @@ export function detectFormat(firstLine: string): MeasurementFormat | null {
   if (/^#[cd][PV]/.test(t)) return 'sp3';
   if (/RINEX VERSION \/ TYPE/.test(t)) return 'rinex-clock';
   if (/^\s*CCSDS_TDM_VERS\s*=/.test(t)) return 'tdm';
-  if (/^\s*time\s*,\s*offsetNs\s*(,\s*sigmaNs\s*)?$/.test(t)) return 'csv';
+  // Any comma-separated first line goes to the CSV reader, whose header check says what is expected.
+  if (/^\s*time\s*,\s*offsetNs\s*(,\s*sigmaNs\s*)?$/.test(t) || t.includes(',')) return 'csv';
   return null;
 }
 

@@ -75,6 +75,8 @@ export interface SeriesFitOptions extends Omit<FitOptions, 'periodicNs'> {
   periodicReason?: string;
   /** Orbit of the clock, or null: then no relativistic split. */
   trajectory: Trajectory | null;
+  /** Where to point an error about the orbit's span (default the trajectory id). */
+  orbitWhere?: string;
   /** Gravity model of the clock rate along the orbit (needed with a trajectory). */
   gravity?: GravityModel;
   /** Use the file's sigmas as weights (default: only for CSV, whose sigmas the user wrote; products give formal sigmas). */
@@ -104,8 +106,12 @@ export function fitSeries(series: MeasurementSeries, o: SeriesFitOptions): FitRe
   if (traj !== null) {
     const before = rows.length;
     rows = rows.filter((r) => r.ttJ2000S >= traj.validFromTtJ2000S - 1e-3 && r.ttJ2000S <= traj.validToTtJ2000S + 1e-3);
+    // Products often run a few epochs past their orbit file; user measurements must lie inside it.
+    const product = series.format === 'rinex-clock' || series.format === 'sp3';
+    if (rows.length === 0 || (!product && rows.length < before)) {
+      throw new InputError(`${before - rows.length} of ${before} samples of ${series.clock} lie outside the orbit source span`, o.orbitWhere ?? traj.id, 'use measurements inside the orbit source span, or an orbit that covers them');
+    }
     if (rows.length < before) notes.push(`${before - rows.length} sample(s) outside the orbit's span left out`);
-    if (rows.length === 0) throw new InputError(`no sample of ${series.clock} lies inside the orbit's span`, traj.id, 'give an orbit that covers the measurements');
     if (o.gravity === undefined) throw new InputError('an orbit without a gravity model', 'fit', 'give the gravity model with the orbit');
     rel = relativisticAlong(traj, o.gravity, Float64Array.from(rows, (r) => r.ttJ2000S), periodic);
   }

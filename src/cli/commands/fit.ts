@@ -86,7 +86,7 @@ export function fitFromFile(file: ClockFile, a: FitArgs, ts: TimeSystem, series:
     clipSigma: a.clip,
     sourceName: file.fileName,
     trajectory: orbit?.trajectory ?? null,
-    ...(orbit === null ? {} : { gravity: orbit.gravity }),
+    ...(orbit === null ? {} : { gravity: orbit.gravity, orbitWhere: orbit.where }),
     ...(a.periodic === undefined ? {} : { periodic: a.periodic as PeriodicTerm, periodicReason: 'set with --periodic' }),
     ...(a.epoch === undefined ? {} : { epochTtJ2000S: ts.parse(a.epoch, '--epoch').ttJ2000S }),
   });
