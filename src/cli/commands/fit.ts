@@ -33,7 +33,8 @@ export function fitOptions<T>(y: Argv<T>) {
     .option('periodic', { type: 'string', requiresArg: true, choices: ['included', 'excluded'], describe: 'whether the data contain the periodic term −2r·v/c² (default: the source convention)' })
     .option('time-scale', { type: 'string', requiresArg: true, choices: TIME_SCALES as TimeScale[], describe: 'scale of CSV times written without Z or a scale name' })
     .option('degree', { type: 'number', requiresArg: true, default: 2, describe: '0 offset, 1 + frequency, 2 + drift' })
-    .option('clip', { type: 'number', requiresArg: true, default: 4, describe: 'sigma-clipping threshold (0 disables)' })
+    .option('clip', { type: 'number', requiresArg: true, default: 4, describe: 'sigma-clipping threshold (0 disables); never removes more than 10 % of the rows' })
+    .option('segments', { type: 'string', requiresArg: true, default: 'none', describe: 'none | auto: fit and remove the phase jumps found in the residuals' })
     .option('epoch', { type: 'string', requiresArg: true, describe: 'epoch the parameters refer to (default: first sample)' })
     .option('update-scenario', { type: 'string', requiresArg: true, describe: 'write the fitted clock block of --sat into this scenario file (atomically)' });
 }
@@ -51,11 +52,14 @@ export interface FitArgs {
   periodic?: string;
   timeScale?: string;
   gravity?: string;
+  segments?: string;
 }
 
 function checkArgs(a: FitArgs): void {
   if (a.degree !== 0 && a.degree !== 1 && a.degree !== 2) throw new InputError(`degree ${a.degree} is not 0, 1 or 2`, '--degree', 'use 0, 1 or 2');
   if (!(a.clip >= 0)) throw new InputError(`--clip ${a.clip} is negative`, '--clip', 'give a threshold ≥ 0 (0 disables clipping)');
+  const segments = a.segments ?? 'none';
+  if (segments !== 'none' && segments !== 'auto') throw new InputError(`--segments ${JSON.stringify(segments)}`, '--segments', 'use none or auto');
 }
 
 /** Reading options shared by fit and fit --all. */
@@ -84,6 +88,7 @@ export function fitFromFile(file: ClockFile, a: FitArgs, ts: TimeSystem, series:
     degree: a.degree as 0 | 1 | 2,
     timeSystem: ts,
     clipSigma: a.clip,
+    segments: (a.segments ?? 'none') as 'none' | 'auto',
     sourceName: file.fileName,
     trajectory: orbit?.trajectory ?? null,
     ...(orbit === null ? {} : { gravity: orbit.gravity, orbitWhere: orbit.where }),
@@ -113,6 +118,7 @@ export async function runFit(a: FitArgs & { format: string }, ts: TimeSystem): P
   const wanted = a.sat === undefined ? null : new Set([a.sat]);
   const file = await readClockFile(a.measurements, clockFileOptions(a, ts, wanted));
   const result = fitFromFile(file, a, ts);
+  if ((a as { quiet?: boolean }).quiet !== true) for (const w of result.warnings) process.stderr.write(`tauplan: warning: ${w}\n`);
   if (a.updateScenario !== undefined) {
     if (result.fractionalFrequency === null) throw new InputError('a degree-0 fit has no frequency to write', '--degree', 'use --degree 1 or 2 with --update-scenario');
     if (result.hardwareFractionalOffset === null) throw new InputError('no orbit, so no hardware offset to write', '--update-scenario', 'give --orbit or --scenario so the fit can split the rate into relativity and hardware');
@@ -122,6 +128,9 @@ export async function runFit(a: FitArgs & { format: string }, ts: TimeSystem): P
       offsetNs: result.offsetNs,
       hardwareFractionalOffset: result.hardwareFractionalOffset,
       ...(result.driftPerDay === null ? {} : { agingPerDay: result.driftPerDay }),
+      ...(result.noiseModel === null
+        ? {}
+        : { noise: { whiteFmAdev1s: result.noiseModel.whiteFmAdev1s, flickerFmFloor: result.noiseModel.flickerFmFloor, randomWalkFmAdev1d: result.noiseModel.randomWalkFmAdev1d } }),
     }, ts);
   }
   return {
