@@ -339,11 +339,15 @@ function openThrough(path: string, st: Stats, flag: string): OutputFile {
   let fd: number;
   try {
     if (st.isFIFO()) {
-      // Opening a FIFO for writing blocks until a reader comes; without one, refuse at once.
+      // Opening a FIFO for writing blocks until a reader comes; without one, refuse at once. The
+      // probe stays open until the real descriptor is: closing it first would end the reader's input.
       const probe = openSync(path, fsConstants.O_WRONLY | fsConstants.O_NONBLOCK);
-      closeSync(probe);
-    }
-    fd = openSync(path, fsConstants.O_WRONLY);
+      try {
+        fd = openSync(path, fsConstants.O_WRONLY);
+      } finally {
+        closeSync(probe);
+      }
+    } else fd = openSync(path, fsConstants.O_WRONLY);
   } catch (e) {
     if ((e as NodeJS.ErrnoException).code === 'ENXIO') throw new InputError(`${path} is a FIFO with no reader`, flag, 'start the reader first, or give a regular file');
     throw writeFault(e, path, flag);
