@@ -14,10 +14,11 @@ import { fitSeries } from '../../plan/clockFit.ts';
 import type { FitResult } from '../../plan/fit.ts';
 import { fitToCsv, fitToJson, fitToText } from '../../report/fitReport.ts';
 import { fitSection, page } from '../../report/htmlReport.ts';
-import { TIME_SCALES, type TimeScale } from '../../time/instant.ts';
+import { Instant, TIME_SCALES, type TimeScale } from '../../time/instant.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
 import { fitOrbit } from '../fitOrbit.ts';
+import { checkEpochNearData } from '../options.ts';
 
 export function fitOptions<T>(y: Argv<T>) {
   return y
@@ -78,6 +79,9 @@ export function fitFromFile(file: ClockFile, a: FitArgs, ts: TimeSystem, series:
   const last = series.ttJ2000S[series.ttJ2000S.length - 1];
   if (series.format === 'csv' && a.sat !== undefined && a.orbit === undefined && a.scenario === undefined) {
     throw new InputError('--sat without --scenario or --orbit (a CSV holds one clock; --sat names its satellite in the orbit file)', '--sat', 'give --scenario FILE or --orbit FILE too, or leave out --sat');
+  }
+  if (a.epoch !== undefined && series.ttJ2000S.length > 0) {
+    checkEpochNearData(ts.parse(a.epoch, '--epoch').ttJ2000S, first, last, (t) => ts.format(Instant.fromTtJ2000S(t)));
   }
   const orbitSat = series.kind === 'unknown' ? a.sat : series.clock;
   if (series.kind === 'receiver' && (a.orbit !== undefined || a.scenario !== undefined)) {
