@@ -28,6 +28,16 @@ interface FileRecord {
   mtimeMs: number;
 }
 
+/** stat, or undefined when the path is absent or runs through a file (ENOTDIR: a level above is a file). */
+function statOrUndefined(p: string): ReturnType<typeof statSync> {
+  try {
+    return statSync(p, { throwIfNoEntry: false });
+  } catch (e) {
+    if ((e as NodeJS.ErrnoException).code === 'ENOTDIR') return undefined;
+    throw e;
+  }
+}
+
 /** Create a folder for outputs, level by level; refuse when a file is in the way or it is not writable. */
 export function ensureDir(path: string, flag = '--out'): void {
   if (path.trim() === '') throw new InputError(`${flag} is empty`, flag, 'give a folder path, e.g. --out ./report');
@@ -36,7 +46,7 @@ export function ensureDir(path: string, flag = '--out'): void {
   const missing: string[] = [];
   let p = resolve(path);
   for (let guard = 0; guard < MAX_FOLDER_DEPTH; guard++) {
-    const st = statSync(p, { throwIfNoEntry: false });
+    const st = statOrUndefined(p);
     if (st === undefined) {
       missing.push(p);
       const up = dirname(p);
