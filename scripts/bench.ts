@@ -35,6 +35,9 @@
  *                           satellites, 216 000 records) with its SP3 as the orbit when
  *                           ../shared/realdata is present, else on an invented RINEX clock 3.00 file
  *                           of the same size (no orbit). Its peak RSS is printed beside it (goal < 300 MB).
+ *   resetsVsFloor, passesVsFloor, coldStartVsNode, resetsRssGrowth6x, shardsVsOne
+ *                           the scenario commands on an invented 24-satellite constellation: see
+ *                           scripts/bench/scenarioBench.ts for each definition and goal.
  *
  * Options: --tiny (or TAUPLAN_BENCH_TINY=1) runs a few-second version for the smoke test;
  * --results PATH (default ./bench-results.json); --work-dir DIR (default a new temp folder).
@@ -64,6 +67,7 @@ import { vec3 } from '../src/orbit/vec.ts';
 import { orbitSummaryAt, sizeClock } from '../src/plan/size.ts';
 import { makeCatalogue } from './make-catalogue.ts';
 import { stabilityTable } from '../src/clock/stabilityTable.ts';
+import { scenarioFigures } from './bench/scenarioBench.ts';
 
 const THIS_FILE = fileURLToPath(import.meta.url);
 
@@ -77,6 +81,11 @@ export interface BenchResults {
   statesPerSatelliteDay: number;
   stabilityPointsPerSecond: number;
   fitAllClocksPerSecond: number;
+  resetsVsFloor: number;
+  passesVsFloor: number;
+  coldStartVsNode: number;
+  resetsRssGrowth6x: number;
+  shardsVsOne: number;
 }
 
 // ---------------------------------------------------------------- child mode: one CLI run
@@ -481,6 +490,9 @@ if (useReal) {
 log(`fit --all: ${useReal ? 'real GRG 30-s clock file (75 satellites) with its SP3' : `invented clock file (${surveyClocks} clocks)`}, --jobs 2`);
 const survey = child([...surveyArgs, '--jobs', '2', '--format', 'csv', '--out', join(workDir, 'survey.csv'), '--quiet']);
 
+// ---------------------------------------------------------------- 7. scenario commands (issue 21)
+const scenario = await scenarioFigures(workDir, tiny, log);
+
 const results: BenchResults = {
   pipelineVsBulk: pipelineMs / baselineMs,
   pipelineVsNaive: naiveJobMs / pipelineMs,
@@ -490,6 +502,11 @@ const results: BenchResults = {
   statesPerSatelliteDay: mean(accuracy.map((a) => a.statesPerDay)),
   stabilityPointsPerSecond: stabilityPoints / (stabilityMs / 1000),
   fitAllClocksPerSecond: surveyClocks / (survey.wallMs / 1000),
+  resetsVsFloor: scenario.resetsVsFloor,
+  passesVsFloor: scenario.passesVsFloor,
+  coldStartVsNode: scenario.coldStartVsNode,
+  resetsRssGrowth6x: scenario.resetsRssGrowth6x,
+  shardsVsOne: scenario.shardsVsOne,
 };
 writeFileSync(resultsPath, `${JSON.stringify(results, null, 2)}\n`);
 
@@ -505,6 +522,7 @@ const rows: [string, string, string, string][] = [
   ['fitAllClocksPerSecond', f(results.fitAllClocksPerSecond, 2), '—', `${surveyClocks} clocks in ${f(survey.wallMs / 1000, 1)} s (${useReal ? 'real GRG day, SP3 orbit' : 'invented file, no orbit'}); peak RSS ${f(survey.maxRssKb / 1024, 0)} MB (goal < 300)`],
   ['statesPerSatelliteDay', f(results.statesPerSatelliteDay, 0), '—', `pipeline spends ${f(mean(accuracy.map((a) => a.pipelineStatesPerDay)), 0)} (integration + fit grid)`],
   ['stabilityPointsPerSecond', f(results.stabilityPointsPerSecond, 0), '—', `${stabilityPoints} points in ${f(stabilityMs / 1000, 2)} s (all statistics with intervals at octave τ)`],
+  ...scenario.rows,
 ];
 const w = [26, 10, 8];
 const lines = [`${'figure'.padEnd(w[0])}${'measured'.padStart(w[1])}  ${'goal'.padEnd(w[2])}  detail`];

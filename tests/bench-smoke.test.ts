@@ -1,6 +1,8 @@
 /**
  * Smoke test of scripts/bench.ts (`npm run bench`), in its tiny mode: it runs end to end and writes
- * bench-results.json with the six keys of the "Speed and scale" issue and the stability issue's stabilityPointsPerSecond and fitAllClocksPerSecond (issue 14), each a plain finite number.
+ * bench-results.json with the six keys of the "Speed and scale" issue the stability issue's stabilityPointsPerSecond and fitAllClocksPerSecond (issue 14), and the
+ * scenario-command figures of issue 21 (resetsVsFloor, passesVsFloor, coldStartVsNode, resetsRssGrowth6x,
+ * shardsVsOne), each a plain finite number.
  * Reference: the issue's list of figures (common practice for a benchmark harness check). The goals
  * themselves are not asserted here: timings on a shared CI machine are not a correctness property.
  */
@@ -12,10 +14,10 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 
 const ROOT = fileURLToPath(new URL('..', import.meta.url));
-const KEYS = ['pipelineVsBulk', 'pipelineVsNaive', 'passSearchStateFraction', 'twoWorkersVsOne', 'rssGrowth10x', 'statesPerSatelliteDay', 'stabilityPointsPerSecond', 'fitAllClocksPerSecond'];
+const KEYS = ['pipelineVsBulk', 'pipelineVsNaive', 'passSearchStateFraction', 'twoWorkersVsOne', 'rssGrowth10x', 'statesPerSatelliteDay', 'stabilityPointsPerSecond', 'fitAllClocksPerSecond', 'resetsVsFloor', 'passesVsFloor', 'coldStartVsNode', 'resetsRssGrowth6x', 'shardsVsOne'];
 
 describe('bench (tiny mode)', () => {
-  it('writes exactly the eight keys as finite positive numbers', () => {
+  it('writes exactly the thirteen keys as finite positive numbers', () => {
     const dir = mkdtempSync(join(tmpdir(), 'tauplan-bench-smoke-'));
     try {
       const results = join(dir, 'bench-results.json');

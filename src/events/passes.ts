@@ -33,7 +33,7 @@
 import { WGS84_GM_M3_PER_S2 } from '../constants.ts';
 import { InputError, InternalError } from '../errors.ts';
 import { temeToEcef } from '../orbit/frames.ts';
-import { allocStateBlock, checkSpan, type Trajectory } from '../orbit/trajectory.ts';
+import { allocStateBlock, checkSpan, positionInto, type Trajectory } from '../orbit/trajectory.ts';
 import { vec3 } from '../orbit/vec.ts';
 import { elevationRad, elevationRateSignM4PerS, stationFrame, type StationFrame } from './lookAngles.ts';
 import { checkStation, type Station } from './station.ts';
@@ -184,6 +184,18 @@ class Evaluator {
     out[4] = v[1];
     out[5] = v[2];
   }
+  /** Earth-fixed position [m] only at t, into out[0..2] (one SGP4 call where `ecefAt` may take several). */
+  ecefPositionAt(t: number, out: Float64Array): void {
+    positionInto(this.traj, t, out);
+    this.statesEvaluated++;
+    const g = this.gmstRadAt(t);
+    const c = Math.cos(g);
+    const s = Math.sin(g);
+    const x = out[0];
+    const y = out[1];
+    out[0] = c * x + s * y;
+    out[1] = -s * x + c * y;
+  }
 }
 
 /** Streaming scan of one station along the shared grid. */
@@ -220,7 +232,7 @@ class StationScan {
   }
 
   private fAt = (t: number): number => {
-    this.ev.ecefAt(t, this.buf);
+    this.ev.ecefPositionAt(t, this.buf);
     return this.fOf(this.buf[0], this.buf[1], this.buf[2]);
   };
   private gAt = (t: number): number => {

@@ -40,6 +40,7 @@ import { PropagationError } from '../errors.ts';
 import type { OmmRecord, TleRecord } from '../model/elementSet.ts';
 import { Instant } from '../time/instant.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
+import { countStates } from './stateCount.ts';
 import { checkSpan, type StateBlock, type Trajectory } from './trajectory.ts';
 import { vec3, type StateM } from './vec.ts';
 
@@ -186,6 +187,7 @@ export class Sgp4Trajectory implements Trajectory {
   stateAt(ttJ2000S: number): StateM<'TEME'> {
     checkSpan(this, ttJ2000S, (t) => this.formatUtc(t));
     const s = this.stateAtMinutesSinceEpoch((ttJ2000S - this.epochTtJ2000S) / 60, ttJ2000S);
+    countStates(1, this.derivativeVelocity ? 5 : 1);
     if (!this.derivativeVelocity) return s;
     const h = DERIVATIVE_STEP_S;
     const m = (dt: number): number => (ttJ2000S + dt - this.epochTtJ2000S) / 60;
@@ -195,6 +197,16 @@ export class Sgp4Trajectory implements Trajectory {
     const d = this.propagateKm(m(2 * h), ttJ2000S).position;
     const k = 1000 / (12 * h);
     return { ...s, velocityMPerS: vec3<'TEME'>((a.x - 8 * b.x + 8 * c.x - d.x) * k, (a.y - 8 * b.y + 8 * c.y - d.y) * k, (a.z - 8 * b.z + 8 * c.z - d.z) * k) };
+  }
+
+  /** Position [m, TEME] at `ttJ2000S` into out[0..2]: one SGP4 call, the position `stateAt` gives. */
+  positionInto(ttJ2000S: number, out: Float64Array): void {
+    checkSpan(this, ttJ2000S, (t) => this.formatUtc(t));
+    const p = this.propagateKm((ttJ2000S - this.epochTtJ2000S) / 60, ttJ2000S).position;
+    countStates(1, 1);
+    out[0] = p.x * 1000;
+    out[1] = p.y * 1000;
+    out[2] = p.z * 1000;
   }
 
   /**
@@ -230,6 +242,7 @@ export class Sgp4Trajectory implements Trajectory {
     checkSpan(this, hi, fmt);
     const satrec = satrecOf.get(this) as SatRec;
     const wasm = wasmFor(satrec, n);
+    countStates(n, this.derivativeVelocity ? 5 * n : n);
     if (wasm !== null) {
       bulkSampleInto(this, satrec, wasm, ttJ2000S, out);
       return;
@@ -496,6 +509,7 @@ export async function createBulkSgp4(sources: readonly (Sgp4ElementSet | Sgp4Tra
     engine: 'wasm',
     sampleInto(index: number, ttJ2000S: Float64Array, out: StateBlock): void {
       const traj = trajectories[index];
+      countStates(ttJ2000S.length, traj.derivativeVelocity ? 5 * ttJ2000S.length : ttJ2000S.length);
       bulkSampleInto(traj, satrecOf.get(traj) as SatRec, propagator, ttJ2000S, out);
     },
     dispose(): void {

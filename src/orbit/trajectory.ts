@@ -35,6 +35,24 @@ export interface Trajectory {
    * Implementations avoid per-state allocation where they can.
    */
   sampleInto(ttJ2000S: Float64Array, out: StateBlock): void;
+  /**
+   * Position only [m] at one instant into out[0..2], for searches that need no velocity (a source
+   * whose velocity costs extra work implements it; others fall back to `stateAt`). Same checks and
+   * errors as `stateAt`; the position is the one `stateAt` gives, bit for bit.
+   */
+  positionInto?(ttJ2000S: number, out: Float64Array): void;
+}
+
+/** Position [m] of `traj` at one instant into out[0..2]: {@link Trajectory.positionInto} when the source has it. */
+export function positionInto(traj: Trajectory, ttJ2000S: number, out: Float64Array): void {
+  if (traj.positionInto !== undefined) {
+    traj.positionInto(ttJ2000S, out);
+    return;
+  }
+  const p = traj.stateAt(ttJ2000S).positionM;
+  out[0] = p[0];
+  out[1] = p[1];
+  out[2] = p[2];
 }
 
 /** Allocate a block for `n` states. */

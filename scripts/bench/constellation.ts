@@ -1,0 +1,131 @@
+/**
+ * An INVENTED benchmark scenario: the "Lattice" constellation (24 made-up satellites, 18 in MEO in
+ * three planes and 6 in a low sun-synchronous-like orbit) and 8 made-up ground stations. None of
+ * them exists. Element sets are invented mean elements in the TLE layout with valid checksums;
+ * the clocks carry an invented hardware offset that cancels most of the two-body relativistic
+ * rate, plus a small invented residual so that each clock drifts out of its keep-in limit a few
+ * times in 180 days. Used by scripts/bench.ts (`resets` over 180 days, `passes` over 7 days) and
+ * by the shard tests.
+ *
+ * Run: node --import tsx scripts/bench/constellation.ts OUT.yaml [--sats N]
+ */
+import { writeFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { buildTleLines } from '../../src/io/tleBuild.ts';
+import { mulberry32 } from '../prng.ts';
+
+/** GM of the Earth [m³/s²] (IERS 2010 / WGS-84 value); enough for invented clock offsets. */
+const GM_M3_PER_S2 = 3.986004418e14;
+/** Speed of light [m/s]. */
+const C_M_PER_S = 299_792_458;
+/** L_G (IERS 2010 ch. 10): the TT rate against the geocentric coordinate time. */
+const L_G = 6.969290134e-10;
+
+/** Mean motion [rev/day] for a semi-major axis [km] (two-body; SGP4 refines it). */
+function revPerDay(aKm: number): number {
+  return (86400 / (2 * Math.PI)) * Math.sqrt(GM_M3_PER_S2 / 1e9 / aKm ** 3);
+}
+
+/** Two-body mean fractional rate of a clock on a circular orbit against TT (−3GM/2ac² + L_G). */
+function twoBodyRate(aKm: number): number {
+  return (-3 * GM_M3_PER_S2) / (2 * aKm * 1e3 * C_M_PER_S ** 2) + L_G;
+}
+
+/** Options of {@link benchScenarioYaml}. */
+export interface BenchScenarioOptions {
+  /** Number of satellites (default 24: 18 MEO + 6 LEO; other counts keep that 3:1 mix). */
+  sats?: number;
+  /** Window length [days] (default 7: the `passes` run). */
+  windowDays?: number;
+}
+
+const STATIONS = [
+  ['ASHGROVE', 51.2, -1.1, 120, 47],
+  ['BELLMARSH', 64.1, -21.9, 40, 66],
+  ['CORRIN-BAY', -33.9, 151.2, 60, 22],
+  ['DUNELAKE', 32.7, -114.6, 90, -32],
+  ['EVERSHOT', -23.6, -46.7, 760, -5],
+  ['FALLOWMERE', 1.3, 103.8, 20, 8],
+  ['GLASSFORD', -25.9, 28.2, 1400, 28],
+  ['HOLLINTOR', 78.2, 15.4, 450, 31],
+] as const;
+
+/** The invented scenario as YAML text. */
+export function benchScenarioYaml(options: BenchScenarioOptions = {}): string {
+  const count = options.sats ?? 24;
+  const windowDays = options.windowDays ?? 7;
+  const r = mulberry32(20270104);
+  const sats: string[] = [];
+  const meoCount = Math.round((count * 3) / 4);
+  for (let k = 0; k < count; k++) {
+    const meo = k < meoCount;
+    const aKm = meo ? 26560 : 6378.137 + 700;
+    const planes = meo ? 3 : 2;
+    const inPlane = meo ? Math.max(1, Math.ceil(meoCount / planes)) : Math.max(1, Math.ceil((count - meoCount) / planes));
+    const idx = meo ? k : k - meoCount;
+    const plane = idx % planes;
+    const slot = Math.floor(idx / planes);
+    const catalogNumber = 91001 + (k % 8999);
+    const [l1, l2] = buildTleLines({
+      catalogNumber,
+      designator: `27${String(10 + plane).padStart(3, '0')}${'ABCDEFGHJKLMNPQRSTUVWXYZ'[slot % 24]}`,
+      epochYear: 2027,
+      epochDayOfYear: 4.0,
+      inclinationDeg: meo ? 55 : 98.2,
+      raanDeg: (plane * 360) / planes + (meo ? 0 : 15),
+      eccentricity: meo ? 0.001 + 0.008 * r() : 0.0005 + 0.001 * r(),
+      argpDeg: 360 * r(),
+      meanAnomalyDeg: (slot * 360) / inPlane + plane * 15,
+      meanMotionRevPerDay: revPerDay(aKm),
+      bstar: meo ? 0 : 2e-5,
+    });
+    // Invented residual rate of a few 1e-14 and aging: a crossing every few weeks.
+    const residual = (r() - 0.5) * (meo ? 6e-14 : 2e-13);
+    const hardware = -twoBodyRate(aKm) + residual;
+    const keepIn = meo ? 100 + 50 * Math.floor(3 * r()) : 400;
+    const aging = ((r() - 0.5) * 4e-15).toExponential(2);
+    const id = `LTC-${String(k + 1).padStart(count > 99 ? 4 : 2, '0')}`;
+    sats.push(
+      [
+        `  - id: ${id}`,
+        `    name: LATTICE ${k + 1}`,
+        '    orbit:',
+        '      tle: |',
+        `        LATTICE ${k + 1}`,
+        `        ${l1}`,
+        `        ${l2}`,
+        `    clock: { epoch: 2027-01-04T00:00:00Z, offsetNs: ${((r() - 0.5) * 40).toFixed(1)}, hardwareFractionalOffset: ${hardware.toExponential(5)}, agingPerDay: ${aging}, keepInNs: ${keepIn}, noise: { whiteFmAdev1s: 2.0e-12, flickerFmFloor: 5.0e-15, randomWalkFmAdev1d: 1.0e-15 } }`,
+      ].join('\n'),
+    );
+  }
+  const stations = STATIONS.map(([id, lat, lon, h, n], i) => `  - { id: ${id}, latDeg: ${lat}, lonDeg: ${lon}, heightM: ${h}, geoidHeightM: ${n}, maskDeg: 10, minPassS: 300${i === 7 ? ', uplink: false' : ''} }`);
+  const endDay = String(4 + windowDays).padStart(2, '0');
+  const end = windowDays <= 27 ? `2027-01-${endDay}T00:00:00Z` : new Date(Date.UTC(2027, 0, 4) + windowDays * 86400_000).toISOString().replace('.000Z', 'Z');
+  return `# INVENTED benchmark scenario for tauplan: the "Lattice" constellation and its stations do not exist.
+# Generated by scripts/bench/constellation.ts (element sets and clocks are invented; checksums are valid).
+# Planning aid only: verify independently before any uplink.
+name: Lattice benchmark (invented)
+window: { start: 2027-01-04T00:00:00Z, end: ${end} }
+gravity: zonal
+reference: GPS
+satellites:
+${sats.join('\n')}
+stations:
+  # Invented ground stations; HOLLINTOR only receives.
+${stations.join('\n')}
+policy:
+  marginNs: 20
+  leadTime: 2h
+  prefer: combined
+  target: { offsetNs: 0 }
+  minSpacing: 12h
+  horizon: 180d
+`;
+}
+
+if (process.argv[1] !== undefined && fileURLToPath(import.meta.url) === process.argv[1]) {
+  const out = process.argv[2];
+  if (out === undefined) throw new Error('usage: constellation.ts OUT.yaml [--sats N]');
+  const i = process.argv.indexOf('--sats');
+  writeFileSync(out, benchScenarioYaml({ sats: i > 0 ? Number(process.argv[i + 1]) : 24 }));
+}

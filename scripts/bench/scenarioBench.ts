@@ -1,0 +1,171 @@
+/**
+ * The scenario-command figures of `npm run bench` (issue 21), on the INVENTED "Lattice"
+ * constellation (scripts/bench/constellation.ts: 24 satellites, 18 MEO + 6 LEO, 8 stations):
+ *
+ *   resetsVsFloor      wall time of `resets --horizon 180d --jobs 1` ÷ (orbit states it evaluated ×
+ *                      the per-state time of satellite.js's WASM bulk SGP4 on the same satellites,
+ *                      measured in this run). Goal ≤ 1.5.
+ *   passesVsFloor      the same for `passes` over 7 days with 8 stations (--jobs 1). Goal ≤ 1.5.
+ *   coldStartVsNode    wall time of `tauplan time 2027-01-01T00:00:00Z` ÷ `node -e 0` (best of 5
+ *                      each, whole processes). Goal ≤ 4.
+ *   resetsRssGrowth6x  peak RSS of the 180-day resets run ÷ a 30-day run. Goal ≤ 1.3.
+ *   shardsVsOne        wall time of 2 concurrent shard processes (resets 180 d, satellites split
+ *                      round-robin, --jobs 1 each) ÷ the one process. Goal ≤ 0.6.
+ *
+ * Wall times are whole child processes (node start-up, module loading and the output written), as
+ * a user waits for them. The state count comes from the CLI's own counter (src/orbit/stateCount.ts),
+ * read by scripts/bench/child.mjs after the run: nothing is hard-coded.
+ */
+import { spawn } from 'node:child_process';
+import { writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { BulkPropagator, createSingleThreadRuntime, EciBaseCalculator, twoline2satrec } from 'satellite.js';
+import { benchScenarioYaml } from './constellation.ts';
+
+const CHILD = fileURLToPath(new URL('./child.mjs', import.meta.url));
+const BIN = fileURLToPath(new URL('../../bin/tauplan.mjs', import.meta.url));
+
+/** One child run's report. */
+export interface ChildRun {
+  code: number;
+  /** Wall time of the whole process [ms] (spawn to exit, measured by the parent). */
+  processMs: number;
+  /** Peak RSS [kB]. */
+  maxRssKb: number;
+  states: number;
+  propagations: number;
+  stderr: string;
+}
+
+/** Run `node scripts/bench/child.mjs ARGS` (asynchronously, so several can run at once). */
+export function childRun(args: string[]): Promise<ChildRun> {
+  return new Promise((resolve, reject) => {
+    const t0 = performance.now();
+    const p = spawn(process.execPath, [CHILD, ...args], { stdio: ['ignore', 'pipe', 'pipe'] });
+    let out = '';
+    let err = '';
+    p.stdout.on('data', (d: Buffer) => (out += d.toString()));
+    p.stderr.on('data', (d: Buffer) => (err += d.toString()));
+    p.on('error', reject);
+    p.on('close', (status) => {
+      const processMs = performance.now() - t0;
+      const line = out.split('\n').find((l) => l.startsWith('BENCH-CHILD '));
+      if (line === undefined) return reject(new Error(`child run failed (status ${status}): ${err}`));
+      const r = JSON.parse(line.slice('BENCH-CHILD '.length)) as { code: number; maxRssKb: number; states: number; propagations: number };
+      if (r.code !== 0) return reject(new Error(`tauplan ${args.join(' ')} exited ${r.code}: ${err}`));
+      resolve({ ...r, processMs, stderr: err });
+    });
+  });
+}
+
+/** Wall time [ms] of one whole process `node ARGS` (stdout discarded). */
+function processMs(args: string[]): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const t0 = performance.now();
+    const p = spawn(process.execPath, args, { stdio: ['ignore', 'ignore', 'pipe'] });
+    let err = '';
+    p.stderr.on('data', (d: Buffer) => (err += d.toString()));
+    p.on('error', reject);
+    p.on('close', (status) => (status === 0 ? resolve(performance.now() - t0) : reject(new Error(`node ${args.join(' ')} exited ${status}: ${err}`))));
+  });
+}
+
+async function bestOf(n: number, f: () => Promise<number>): Promise<number> {
+  let m = Infinity;
+  for (let i = 0; i < n; i++) m = Math.min(m, await f());
+  return m;
+}
+
+/**
+ * Per-state time [ns] of satellite.js's WASM BulkPropagator on the scenario's element sets: each
+ * satellite propagated to `perSat` instants spread over `spanDays` (Dates built beforehand, untimed),
+ * the best of `repeats`; set-up of the records and the copy to metres included, as in the
+ * catalogue figure.
+ */
+async function bulkNsPerState(yaml: string, perSat: number, spanDays: number, repeats: number): Promise<number> {
+  const lines = yaml.split('\n').map((l) => l.trim());
+  const recs: [string, string][] = [];
+  for (let i = 0; i < lines.length - 1; i++) if (lines[i].startsWith('1 ') && lines[i + 1].startsWith('2 ')) recs.push([lines[i], lines[i + 1]]);
+  const runtime = await createSingleThreadRuntime();
+  const bulk = new BulkPropagator({ runtime, calculators: [new EciBaseCalculator()] as const, satRecsCount: 1, datesCount: 1 });
+  const out = new Float64Array(3 * perSat);
+  const dates = recs.map(([l1, l2]) => {
+    const s = twoline2satrec(l1, l2);
+    const ep = (s.jdsatepoch - 2440587.5) * 86_400_000;
+    return Array.from({ length: perSat }, (_, i) => new Date(Math.round(ep + (i * spanDays * 86_400_000) / perSat)));
+  });
+  let best = Infinity;
+  for (let r = 0; r <= repeats; r++) {
+    const t0 = performance.now();
+    recs.forEach(([l1, l2], k) => {
+      bulk.setSatRecs([twoline2satrec(l1, l2)]);
+      bulk.setDates(dates[k]);
+      bulk.run();
+      const raw = bulk.getRawOutput().eci;
+      for (let i = 0; i < 3 * perSat; i++) out[i] = raw.position[i] * 1000 + raw.velocity[i] * 1000;
+    });
+    if (r > 0) best = Math.min(best, performance.now() - t0); // the first run warms up
+  }
+  bulk.dispose();
+  return (best * 1e6) / (recs.length * perSat);
+}
+
+/** The five figures and the absolute numbers printed beside them. */
+export interface ScenarioFigures {
+  resetsVsFloor: number;
+  passesVsFloor: number;
+  coldStartVsNode: number;
+  resetsRssGrowth6x: number;
+  shardsVsOne: number;
+  rows: [string, string, string, string][];
+}
+
+/** Run the scenario figures in `workDir` (tiny: 4 satellites and short horizons, for the smoke test). */
+export async function scenarioFigures(workDir: string, tiny: boolean, log: (s: string) => void): Promise<ScenarioFigures> {
+  const sats = tiny ? 4 : 24;
+  const longDays = tiny ? 6 : 180;
+  const shortDays = tiny ? 1 : 30;
+  const passDays = tiny ? 1 : 7;
+  const yaml = benchScenarioYaml({ sats, windowDays: passDays });
+  const file = join(workDir, 'lattice-invented.yaml');
+  writeFileSync(file, yaml);
+  const resetsArgs = (days: number, out: string, extra: string[] = []): string[] => ['resets', file, '--horizon', `${days}d`, '--jobs', '1', '--format', 'json', '--out', join(workDir, out), ...extra];
+
+  log(`scenario runs: invented ${sats}-satellite constellation; resets ${longDays} d and ${shortDays} d, passes ${passDays} d × 8 stations (--jobs 1)`);
+  const nsPerState = await bulkNsPerState(yaml, tiny ? 2000 : 20000, longDays, tiny ? 1 : 3);
+  const resetsLong = await childRun(resetsArgs(longDays, 'resets-long.json'));
+  const resetsShort = await childRun(resetsArgs(shortDays, 'resets-short.json'));
+  const passes = await childRun(['passes', file, '--jobs', '1', '--format', 'json', '--out', join(workDir, 'passes.json')]);
+
+  // Two shard processes at once: satellites split round-robin (as --shard K/2 does).
+  const ids = [...yaml.matchAll(/^ {2}- id: (\S+)$/gm)].map((m) => m[1]);
+  const half = (k: number): string => ids.filter((_, i) => i % 2 === k).join(',');
+  const t0 = performance.now();
+  await Promise.all([0, 1].map((k) => childRun(resetsArgs(longDays, `resets-shard${k}.json`, ['--sat', half(k)]))));
+  const shardsMs = performance.now() - t0;
+
+  const nodeMs = await bestOf(tiny ? 2 : 5, () => processMs(['-e', '0']));
+  const timeMs = await bestOf(tiny ? 2 : 5, () => processMs([BIN, 'time', '2027-01-01T00:00:00Z']));
+
+  const floorMs = (states: number): number => (states * nsPerState) / 1e6;
+  const fig: ScenarioFigures = {
+    resetsVsFloor: resetsLong.processMs / floorMs(resetsLong.states),
+    passesVsFloor: passes.processMs / floorMs(passes.states),
+    coldStartVsNode: timeMs / nodeMs,
+    resetsRssGrowth6x: resetsLong.maxRssKb / resetsShort.maxRssKb,
+    shardsVsOne: shardsMs / resetsLong.processMs,
+    rows: [],
+  };
+  const f = (x: number, d = 2): string => x.toFixed(d);
+  const s = (ms: number): string => `${f(ms / 1000)} s`;
+  const per = (r: ChildRun): string => `${(r.states / 1e6).toFixed(2)} M states (${f(r.propagations / Math.max(1, r.states))} SGP4 calls each)`;
+  fig.rows = [
+    ['resetsVsFloor', f(fig.resetsVsFloor, 3), '≤ 1.5', `resets ${longDays} d: ${s(resetsLong.processMs)}; floor ${s(floorMs(resetsLong.states))} = ${per(resetsLong)} × ${f(nsPerState, 0)} ns (WASM bulk SGP4)`],
+    ['passesVsFloor', f(fig.passesVsFloor, 3), '≤ 1.5', `passes ${passDays} d × 8 stations: ${s(passes.processMs)}; floor ${s(floorMs(passes.states))} = ${per(passes)} × ${f(nsPerState, 0)} ns`],
+    ['coldStartVsNode', f(fig.coldStartVsNode, 3), '≤ 4', `tauplan time: ${f(timeMs, 0)} ms; node -e 0: ${f(nodeMs, 0)} ms (best of ${tiny ? 2 : 5})`],
+    ['resetsRssGrowth6x', f(fig.resetsRssGrowth6x, 3), '≤ 1.3', `peak RSS ${f(resetsLong.maxRssKb / 1024, 0)} MB (${longDays} d) vs ${f(resetsShort.maxRssKb / 1024, 0)} MB (${shortDays} d); ${shortDays}-d run ${s(resetsShort.processMs)}`],
+    ['shardsVsOne', f(fig.shardsVsOne, 3), '≤ 0.6', `2 shard processes at once ${s(shardsMs)} vs one process ${s(resetsLong.processMs)}`],
+  ];
+  return fig;
+}
