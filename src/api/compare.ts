@@ -5,6 +5,7 @@ import type { CompareResult } from '../plan/compare.ts';
 import { compareScenario } from '../plan/scenarioCompare.ts';
 import { scenarioGravity } from '../plan/scenarioRuns.ts';
 import { compareToJson, type CompareJson } from '../report/analysisReports.ts';
+import { missingGeoidNote } from '../report/notes.ts';
 import { timeArg, timeSystemOf, type CommonOptions, type TimeInput } from './common.ts';
 import { resolveOrbit } from './scenario.ts';
 
@@ -14,12 +15,28 @@ export interface CompareOptions extends CommonOptions {
   from?: TimeInput;
   /** Window end (default: the scenario window). */
   to?: TimeInput;
+  /** Reference clock (a satellite or station id): differences are formed against it. */
+  against?: string;
+  /** With `against`: `all` keeps every pair, `against` (default) only the pairs with the reference. */
+  pairs?: 'all' | 'against';
 }
 
-/** A comparison and its header. */
+/** The header of a comparison. */
+export interface CompareMeta {
+  scenario: string;
+  gravity: string;
+  /** Window, s since J2000.0 TT. */
+  fromTtJ2000S: number;
+  toTtJ2000S: number;
+  /** The reference clock, or null (against TT). */
+  against: string | null;
+}
+
+/** A comparison, its header and its notes (stations without a geoid height). */
 export interface CompareRun {
   result: CompareResult;
-  meta: { scenario: string; gravity: string; fromTtJ2000S: number; toTtJ2000S: number };
+  meta: CompareMeta;
+  notes: string[];
 }
 
 /** Compare the clocks (the writers' input; {@link compareClocks} gives the JSON). */
@@ -30,8 +47,14 @@ export function runCompare(scenario: ScenarioSpec, options?: CompareOptions): Co
   const from = timeArg(ts, options?.from, '--from') ?? scenario.window.start.ttJ2000S;
   const to = timeArg(ts, options?.to, '--to') ?? scenario.window.end.ttJ2000S;
   if (!(to > from)) throw new InputError('the window ends before it starts', options?.to !== undefined ? '--to' : `${path} window`, 'give an end after the start');
-  const result = compareScenario(scenario, ts, gravity, from, to, resolveOrbit);
-  return { result, meta: { scenario: scenario.name, gravity: gravity.name, fromTtJ2000S: from, toTtJ2000S: to } };
+  const against = options?.against;
+  const ids = [...scenario.satellites.map((s) => s.id), ...scenario.stations.map((s) => s.id)];
+  if (against !== undefined && !ids.includes(against)) throw new InputError(`no clock ${JSON.stringify(against)} in the scenario`, '--against', `use a satellite or station id (${ids.slice(0, 8).join(', ')})`);
+  const all = compareScenario(scenario, ts, gravity, from, to, resolveOrbit, against);
+  const keepAll = against === undefined || options?.pairs === 'all';
+  const result = keepAll ? all : { ...all, pairs: all.pairs.filter((p) => p.a === against || p.b === against) };
+  const notes = scenario.stations.filter((s) => !s.geoidHeightGiven).map((s) => missingGeoidNote(s.id));
+  return { result, notes, meta: { scenario: scenario.name, gravity: gravity.name, fromTtJ2000S: from, toTtJ2000S: to, against: against ?? null } };
 }
 
 /**

@@ -24,8 +24,14 @@ export interface ScenarioSatellite {
   scenario: ScenarioSpec;
 }
 
-/** What {@link sizeOrbit} sizes: Keplerian elements, a parsed TLE/OMM element set, or a scenario satellite. */
-export type OrbitInput = KeplerianOrbit | ElementSetRecord | ScenarioSatellite;
+/**
+ * An orbit already resolved to a trajectory (for example a CCSDS OEM read by the CLI's file
+ * readers), with its display name.
+ */
+export type PreparedOrbit = ResolvedOrbit;
+
+/** What {@link sizeOrbit} sizes: Keplerian elements, a parsed TLE/OMM element set, a scenario satellite, or a prepared trajectory. */
+export type OrbitInput = KeplerianOrbit | ElementSetRecord | ScenarioSatellite | PreparedOrbit;
 
 /** Options of {@link sizeOrbit}: the `size` flags in camelCase. */
 export interface SizeOptions extends CommonOptions {
@@ -52,8 +58,15 @@ function isScenarioSatellite(o: OrbitInput): o is ScenarioSatellite {
   return 'satellite' in o && 'scenario' in o;
 }
 
-/** Size the clock on an orbit (the writers' input; {@link sizeOrbit} gives the JSON). */
-export function runSize(orbit: OrbitInput, options?: SizeOptions): SizeResult {
+function isPrepared(o: OrbitInput): o is PreparedOrbit {
+  return 'trajectory' in o && 'name' in o;
+}
+
+/**
+ * Size the clock on an orbit (the writers' input; {@link sizeOrbit} gives the JSON). The orbit may
+ * be given as a function, called once the options are checked (the CLI reads its files then).
+ */
+export function runSize(orbitOrReader: OrbitInput | (() => OrbitInput), options?: SizeOptions): SizeResult {
   const ts = timeSystemOf(options);
   const gravity = gravityArg(options?.gravity ?? 'zonal', options?.tides === true, ts);
   const spanS = durationArg(options?.span ?? '1d', '--span');
@@ -64,8 +77,10 @@ export function runSize(orbit: OrbitInput, options?: SizeOptions): SizeResult {
     const start = spanStart(fromGiven, epoch);
     return { fromTtJ2000S: start, toTtJ2000S: start + spanS };
   };
+  const orbit = typeof orbitOrReader === 'function' ? orbitOrReader() : orbitOrReader;
   let resolved: ResolvedOrbit;
-  if (isElementSet(orbit)) resolved = orbitFromElementSet(orbit, ts, spanFor);
+  if (isPrepared(orbit)) resolved = orbit;
+  else if (isElementSet(orbit)) resolved = orbitFromElementSet(orbit, ts, spanFor);
   else if (isScenarioSatellite(orbit)) {
     const o = orbit.satellite.orbit;
     const epoch = o.kind === 'keplerian' || o.kind === 'state' ? o.epoch.ttJ2000S : orbit.scenario.window.start.ttJ2000S;

@@ -51,14 +51,18 @@ export function checkTrackOptions(options?: TrackOptions): { frame: TrackFrame; 
   return { frame, stepS: durationArg(options?.step ?? '60s', '--step') };
 }
 
-/** Sample one satellite (the writers' input; {@link trackSatellite} gives the JSON). */
-export function runTrack(input: TrackInput, options?: TrackOptions): TrackRun {
+/**
+ * Sample one satellite (the writers' input; {@link trackSatellite} gives the JSON). An element set
+ * may be given as a function, called once the gravity model and the span are checked (the CLI reads
+ * its file then).
+ */
+export function runTrack(input: TrackInput | (() => ElementSetRecord), options?: TrackOptions): TrackRun {
   const ts = timeSystemOf(options);
   const { frame, stepS } = checkTrackOptions(options);
   let run: SatelliteClockRun;
   let from: number;
   let to: number;
-  if (!isElementSet(input)) {
+  if (typeof input !== 'function' && !isElementSet(input)) {
     const scenario = input;
     const gravity = scenarioGravity(scenario, ts, scenario.fileName, options?.gravity ?? scenario.gravity);
     const sat = scenarioSatellite(scenario, options?.sat);
@@ -75,7 +79,8 @@ export function runTrack(input: TrackInput, options?: TrackOptions): TrackRun {
     const gravity = gravityWithTides(options?.gravity ?? 'zonal', false, ts);
     const fromGiven = timeArg(ts, options?.from, '--from');
     const toGiven = timeArg(ts, options?.to, '--to');
-    const resolved = orbitFromElementSet(input, ts, (epoch) => {
+    const record = typeof input === 'function' ? input() : input;
+    const resolved = orbitFromElementSet(record, ts, (epoch) => {
       const f = fromGiven ?? epoch ?? 0;
       return { fromTtJ2000S: f, toTtJ2000S: toGiven ?? f + 86400 };
     });

@@ -20,7 +20,9 @@ import { resetsOptions, runResets } from './commands/resets.ts';
 import { demoOptions, reportOptions, runDemo, runReport } from './commands/report.ts';
 import { navclockOptions, runNavclock } from './commands/navclock.ts';
 import { runStability, stabilityOptions } from './commands/stability.ts';
-import { compareOptions, runCompare, runSweep, runTrack, sweepOptions, trackOptions } from './commands/analysis.ts';
+import { compareOptions, runCompare } from './commands/compare.ts';
+import { runSweep, sweepOptions } from './commands/sweep.ts';
+import { runTrack, trackOptions } from './commands/track.ts';
 import { fitOptions, runFit } from './commands/fit.ts';
 import { runFitAll } from './commands/fitAll.ts';
 

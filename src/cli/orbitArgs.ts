@@ -1,13 +1,12 @@
-/** Orbit given on the command line: Keplerian flags, a TLE or OMM file, or a scenario satellite. */
+/**
+ * Orbit given on the command line: Keplerian flags, a TLE, OMM or OEM file, or a scenario
+ * satellite. The files are read here (src/io); the library (src/api) builds the trajectory.
+ */
 import type { Argv } from 'yargs';
-import type { GravityModel } from '../orbit/gravity.ts';
+import type { OrbitInput } from '../api/size.ts';
 import { InputError } from '../errors.ts';
 import { loadScenario, scenarioSatellite } from '../io/loadScenario.ts';
-import { idOf, labelOf, oemTrajectory, pickElementSet, readElementSets, sgp4Span, trajectoryForSatellite, type ResolvedOrbit } from '../io/orbitSources.ts';
-import { Sgp4Trajectory } from '../orbit/sgp4.ts';
-import { elementsFromDegKm } from '../orbit/keplerian.ts';
-import { trajectoryFromKeplerian } from '../orbit/stateVector.ts';
-import type { Trajectory } from '../orbit/trajectory.ts';
+import { oemTrajectory, pickElementSet, readElementSets } from '../io/orbitSources.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 
 export function orbitOptions<T>(y: Argv<T>) {
@@ -43,10 +42,8 @@ export interface OrbitFlags {
   sat?: string;
 }
 
-/** Span wanted by the caller, given the orbit's epoch (seconds since J2000.0 TT; null when the source has none). */
-export type SpanFor = (epochTtJ2000S: number | null) => { fromTtJ2000S: number; toTtJ2000S: number };
-
-export function orbitFromFlags(a: OrbitFlags, ts: TimeSystem, gravity: GravityModel, spanFor: SpanFor): ResolvedOrbit {
+/** The one orbit the flags give, its files read; faults name the flags. */
+export function orbitFromFlags(a: OrbitFlags, ts: TimeSystem): OrbitInput {
   const fileSources = [a.tle, a.omm, a.oem, a.scenario].filter((x) => x !== undefined).length;
   const hasElements = a.aKm !== undefined || a.altitudeKm !== undefined;
   if (a.aKm !== undefined && a.altitudeKm !== undefined) {
@@ -61,9 +58,7 @@ export function orbitFromFlags(a: OrbitFlags, ts: TimeSystem, gravity: GravityMo
   if (a.tle !== undefined || a.omm !== undefined) {
     const kind = a.tle !== undefined ? 'tle' : 'omm';
     const file = (a.tle ?? a.omm) as string;
-    const rec = pickElementSet(readElementSets(file, kind, `--${kind}`), a.sat, file);
-    const trajectory = new Sgp4Trajectory(rec, ts, { id: idOf(rec), spanFor: (epoch) => sgp4Span(epoch, spanFor(epoch)) });
-    return { trajectory, name: labelOf(rec) };
+    return pickElementSet(readElementSets(file, kind, `--${kind}`), a.sat, file);
   }
   if (a.oem !== undefined) {
     const trajectory = oemTrajectory(a.oem, a.sat, ts, '--oem');
@@ -71,21 +66,8 @@ export function orbitFromFlags(a: OrbitFlags, ts: TimeSystem, gravity: GravityMo
   }
   if (a.scenario !== undefined) {
     const scenario = loadScenario(a.scenario, ts, '--scenario');
-    const sat = scenarioSatellite(scenario, a.sat);
-    const o = sat.orbit;
-    const epoch = o.kind === 'keplerian' || o.kind === 'state' ? o.epoch.ttJ2000S : scenario.window.start.ttJ2000S;
-    return trajectoryForSatellite(sat, scenario, ts, gravity, spanFor(epoch));
+    return { satellite: scenarioSatellite(scenario, a.sat), scenario };
   }
-  const aKm = a.aKm ?? 6378.137 + (a.altitudeKm as number);
-  const epoch = ts.parse(a.epoch, '--epoch').ttJ2000S;
-  const span = spanFor(epoch);
-  const full = { fromTtJ2000S: Math.min(span.fromTtJ2000S, epoch), toTtJ2000S: Math.max(span.toTtJ2000S, epoch) };
-  const build = (deltaAKm: number): Trajectory => {
-    const el = elementsFromDegKm(
-      { epochTtJ2000S: epoch, aKm: aKm + deltaAKm, e: a.e, iDeg: a.iDeg, raanDeg: a.raanDeg, argpDeg: a.argpDeg, meanAnomalyDeg: a.mDeg },
-      { a: a.aKm !== undefined ? '--a-km' : '--altitude-km', e: '--e' },
-    );
-    return trajectoryFromKeplerian(el, gravity, full, 'keplerian');
-  };
-  return { trajectory: build(0), name: 'Keplerian orbit from flags', rebuildWithDeltaAKm: build };
+  const elements = { e: a.e, iDeg: a.iDeg, raanDeg: a.raanDeg, argpDeg: a.argpDeg, mDeg: a.mDeg, epoch: a.epoch };
+  return a.aKm !== undefined ? { aKm: a.aKm, ...elements } : { altitudeKm: a.altitudeKm as number, ...elements };
 }

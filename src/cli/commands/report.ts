@@ -32,7 +32,9 @@ import { sizeToCsv, sizeToJson, sizeToText } from '../../report/sizeReport.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import { runNotes } from '../emit.ts';
 import { loadScenarioContext } from '../scenarioContext.ts';
-import { computeCompare, computeFit, computeSweep } from './analysis.ts';
+import { computeCompare } from './compare.ts';
+import { computeFit } from './fit.ts';
+import { computeSweep } from './sweep.ts';
 import { notesOf } from './passes.ts';
 import { computeResets } from './resets.ts';
 

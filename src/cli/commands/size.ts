@@ -1,12 +1,9 @@
 /** `tauplan size`: frequency-offset sizing for one orbit (or every satellite of a TLE file with --all). */
 import type { Argv } from 'yargs';
-import { gravityModel } from '../../orbit/gravity.ts';
-import { TidalField } from '../../clock/tides.ts';
+import { runSize as sizeOne, type SizeOptions } from '../../api/size.ts';
 import { GNSS_NOMINAL_HZ } from '../../constants.ts';
-import { InputError } from '../../errors.ts';
-import { sizeClock } from '../../plan/size.ts';
+import type { GravityModelName } from '../../model/scenario.ts';
 import { sizeToCsv, sizeToJson, sizeToText } from '../../report/sizeReport.ts';
-import { parsePositiveDurationS } from '../../time/duration.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
 import { Instant } from '../../time/instant.ts';
@@ -37,27 +34,9 @@ export interface SizeArgs extends OrbitFlags {
 }
 
 export async function runSize(a: SizeArgs, ts: TimeSystem): Promise<Rendered> {
-  const base = gravityModel(a.gravity, '--gravity');
-  const gravity = a.tides === true ? { ...base, tides: new TidalField((t) => ts.jdUtcFromTtJ2000S(t)) } : base;
-  const spanS = parsePositiveDurationS(a.span, '--span');
-  if (!(a.nominalHz > 0)) throw new InputError(`nominal frequency ${a.nominalHz} Hz is not positive`, '--nominal-hz', 'give e.g. 10.23e6');
-  const fromGiven = a.from === undefined ? null : ts.parse(a.from, '--from').ttJ2000S;
-  const startFor = (epoch: number | null): number => {
-    const start = fromGiven ?? epoch;
-    if (start === null) throw new InputError('this orbit source has no epoch to start from', '--from', 'give --from');
-    return start;
-  };
-  const orbit = orbitFromFlags(a, ts, gravity, (epoch) => ({ fromTtJ2000S: startFor(epoch), toTtJ2000S: startFor(epoch) + spanS }));
-  const from = fromGiven ?? orbit.trajectory.epochTtJ2000S ?? orbit.trajectory.validFromTtJ2000S;
-  if (from < orbit.trajectory.validFromTtJ2000S - 1e-3 || from + spanS > orbit.trajectory.validToTtJ2000S + 1e-3) {
-    const f = (t: number): string => ts.format(Instant.fromTtJ2000S(t));
-    throw new InputError(
-      `span ${f(from)} + ${spanS} s is outside the orbit source's span ${f(orbit.trajectory.validFromTtJ2000S)} to ${f(orbit.trajectory.validToTtJ2000S)}`,
-      '--from/--span',
-      'choose a span inside the source span',
-    );
-  }
-  const result = sizeClock({ trajectory: orbit.trajectory, gravity, fromTtJ2000S: from, spanS, nominalHz: a.nominalHz, rebuildWithDeltaAKm: orbit.rebuildWithDeltaAKm });
+  const options: SizeOptions = { timeSystem: ts, gravity: a.gravity as GravityModelName, tides: a.tides === true, from: a.from, span: a.span, nominalHz: a.nominalHz };
+  // The orbit's files are read once the options are checked.
+  const result = sizeOne(() => orbitFromFlags(a, ts), options);
   return {
     json: () => sizeToJson(result, ts),
     text: () => sizeToText(result, ts),
