@@ -29,6 +29,11 @@ export function sizeToJson(r: SizeResult, ts: TimeSystem) {
     orbit: { ...r.orbit, e: Math.abs(r.orbit.e) < 1e-12 ? 0 : r.orbit.e },
     integrationStepS: r.integrationStepS,
     statesEvaluated: r.statesEvaluated,
+    // Version 2 (lunar issue): the central body, the rate against a lunar surface reference (lunar
+    // clocks only) and the split by source; the Moon and Sun parts are null when not modelled apart.
+    body: 'earth' as 'earth' | 'moon',
+    meanFractionalOffsetVsLunarSurface: null as number | null,
+    parts: { earth: r.components.gravitational, moon: null as number | null, sun: null as number | null, velocity: r.components.velocity },
     ...(isKeplerianInput(r) ? { elementsNote: 'Keplerian input is osculating at the epoch; a mean-element a differs by up to a few km at GNSS altitude (about 1 ns/day).' } : {}),
   };
 }
