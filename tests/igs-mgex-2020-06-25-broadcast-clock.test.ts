@@ -19,7 +19,7 @@ import { InputError } from '../src/errors.ts';
 import { parseRinexNav } from '../src/io/rinexNav.ts';
 import { parseSp3 } from '../src/io/sp3.ts';
 import { defaultTimeSystem } from '../src/io/tables.ts';
-import { readInputText } from '../src/io/readInput.ts';
+import { readInputText } from '../src/io/textSource.ts';
 import { Sp3Trajectory } from '../src/orbit/sp3.ts';
 import { evaluateBroadcastClocks } from '../src/plan/navclockBroadcast.ts';
 

@@ -15,7 +15,7 @@ import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { afterAll, describe, expect, it } from 'vitest';
 import { InputError } from '../src/errors.ts';
-import { INPUT_SIZE_CAPS, readInputText } from '../src/io/readInput.ts';
+import { INPUT_SIZE_CAPS, readInputText, readLinesSync, readTextLines } from '../src/io/textSource.ts';
 import { parseScenarioText } from '../src/io/scenario.ts';
 import { parseIersLeapSecondDat, readLeapFile } from '../src/io/tables.ts';
 import { defaultTimeSystem } from '../src/io/tables.ts';
@@ -55,6 +55,38 @@ describe('special files: refused or read without blocking', () => {
     expect(Date.now() - t0).toBeLessThan(2000);
   });
 
+  it('the line readers (synchronous and streaming) refuse /dev/zero and end on a writer-less FIFO at once too', async () => {
+    const t0 = Date.now();
+    expect(inputErrorOf(() => [...readLinesSync('/dev/zero', 'orbit', '--orbit')]).what).toContain('is a device');
+    let streamed: unknown = null;
+    try {
+      for await (const l of readTextLines('/dev/zero', 'measurements', 'measurements')) void l;
+    } catch (e) {
+      streamed = e;
+    }
+    expect(streamed).toBeInstanceOf(InputError);
+    const fifo = join(tmp, 'nowriter-lines');
+    if (spawnSync('mkfifo', [fifo]).status === 0) {
+      expect([...readLinesSync(fifo, 'orbit', '--orbit')]).toEqual([]);
+      const got: string[] = [];
+      for await (const l of readTextLines(fifo, 'measurements', 'measurements')) got.push(l.text);
+      expect(got).toEqual([]);
+    }
+    expect(Date.now() - t0).toBeLessThan(2000);
+  });
+
+  it('a FIFO with no writer given to fit is refused as empty within two seconds (one line, exit 2)', () => {
+    const fifo = join(tmp, 'nowriter-fit');
+    if (spawnSync('mkfifo', [fifo]).status !== 0) return;
+    const t0 = Date.now();
+    const r = runCli(['fit', fifo]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(ONE_LINE_ERROR);
+    expect(r.stderr).toContain('empty');
+    // The CLI's own start-up (tsx) is included: generous, yet far below a hang.
+    expect(Date.now() - t0).toBeLessThan(15_000);
+  });
+
   it('a folder is named as a folder', () => {
     expect(inputErrorOf(() => readInputText(tmp, 'scenario', 'scenario')).what).toContain('is a folder');
   });
@@ -77,6 +109,19 @@ describe('size caps per kind of input', () => {
     const bomb = join(tmp, 'bomb.tle.gz');
     writeFileSync(bomb, gzipSync(Buffer.alloc(INPUT_SIZE_CAPS.table + 1024, 0x20)));
     expect(inputErrorOf(() => readInputText(bomb, '--leap-seconds', 'table')).what).toMatch(/^file too large/);
+    // Element sets stream line by line, and the cap holds there too.
+    const tleBomb = join(tmp, 'bomb2.tle.gz');
+    writeFileSync(tleBomb, gzipSync(Buffer.alloc(INPUT_SIZE_CAPS.scenario + 1024, 0x0a)));
+    expect(inputErrorOf(() => [...readLinesSync(tleBomb, 'scenario', '--scenario')]).what).toMatch(/^file too large for a scenario file/);
+  });
+
+  it('a streamed plain file that grows past its cap while read is stopped at the cap', () => {
+    // A FIFO has no size to check first: the cap applies to the bytes as they arrive.
+    const fifo = join(tmp, 'endless');
+    if (spawnSync('mkfifo', [fifo]).status !== 0) return;
+    const r = spawnSync('sh', ['-c', `head -c ${INPUT_SIZE_CAPS.table + 4096} /dev/zero | tr '\\0' 'x' > ${fifo} & node bin/tauplan.mjs time 2027-01-01T00:00:00Z --leap-seconds ${fifo}; wait`], { encoding: 'utf8' });
+    expect(r.stderr).toMatch(ONE_LINE_ERROR);
+    expect(r.stderr).toContain('file too large');
   });
 
   it('every cap stays below the longest string V8 holds (2^29 − 24 UTF-16 units, ERR_STRING_TOO_LONG)', () => {

@@ -10,15 +10,18 @@ import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../src/errors.ts';
-import { readTextLines, readTextWhole } from '../src/io/textSource.ts';
+import { readLinesSync, readTextLines, readTextWhole } from '../src/io/textSource.ts';
 import { runCli, ONE_LINE_ERROR } from './helpers/cli.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'tauplan-text-'));
 const TEXT = 'first line\r\nsecond line\nthird, no newline';
 
+/** The lines of a file, read by the streaming reader and by the synchronous one, which must agree. */
 async function linesOf(path: string): Promise<string[]> {
   const out: string[] = [];
   for await (const l of readTextLines(path, 'measurements', 'measurements')) out.push(`${l.line}:${l.text}`);
+  const sync = [...readLinesSync(path, 'measurements', 'measurements')].map((l) => `${l.line}:${l.text}`);
+  expect(sync).toEqual(out);
   return out;
 }
 

@@ -13,7 +13,7 @@ import type { OemFile, OemFrame, OemNode, OemSegment } from '../model/oem.ts';
 import type { CivilTime, TimeSystem } from '../time/timeSystem.ts';
 import { ccsdsCivil } from './ccsdsTime.ts';
 import { fortranNumber, PRODUCT_TIME_SYSTEMS, productTimeTt } from './clockReader.ts';
-import { linesOf } from './textSource.ts';
+import { linesOf, type TextLine } from './textSource.ts';
 
 const VERSIONS = ['1.0', '2.0', '3.0'];
 const TIME_SYSTEMS = ['UTC', 'TAI', 'TT', 'GPS'];
@@ -29,6 +29,11 @@ function frameOf(text: string): OemFrame | null {
 
 /** Parse the text of a KVN OEM. */
 export function parseOem(text: string, fileName: string, ts: TimeSystem): OemFile {
+  return parseOemLines(linesOf(text), fileName, ts);
+}
+
+/** The same, from lines as they stream (textSource.ts): only the nodes are kept. */
+export function parseOemLines(source: Iterable<TextLine>, fileName: string, ts: TimeSystem): OemFile {
   const fail = (what: string, line: number, fix: string): never => {
     throw new OrbitFileError(what, fileName, line, null, fix);
   };
@@ -93,7 +98,7 @@ export function parseOem(text: string, fileName: string, ts: TimeSystem): OemFil
     segments.push(s);
     seg = null;
   };
-  for (const l of linesOf(text)) {
+  for (const l of source) {
     last = l.line;
     const t = l.text.trim();
     if (t === '' || t.startsWith('COMMENT')) continue;

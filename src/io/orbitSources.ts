@@ -10,16 +10,15 @@ import { gmstRadAtTt, Sp3Trajectory } from '../orbit/sp3.ts';
 import { OemTrajectory, oemSegmentsOf } from '../orbit/oem.ts';
 import type { OemFile } from '../model/oem.ts';
 import { Instant } from '../time/instant.ts';
-import { parseOem } from './oem.ts';
-import { readTextWhole } from './textSource.ts';
+import { parseOemLines } from './oem.ts';
 import { trajectoryFromKeplerian, trajectoryFromStateVector } from '../orbit/stateVector.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
-import { readInputText, type InputKind } from './readInput.ts';
+import { readLinesSync, readTextWhole, type InputKind } from './textSource.ts';
 import { parseOmmFile, ommFromObject, type OmmRecord } from './omm.ts';
 import type { SatelliteSpec, ScenarioSpec } from './scenario.ts';
 import { parseSp3, type Sp3File } from './sp3.ts';
-import { parseTleFile, type TleRecord } from './tle.ts';
+import { parseTleFile, parseTleLines, type TleRecord } from './tle.ts';
 
 /** A span of interest, seconds since J2000.0 TT. */
 export interface Span {
@@ -35,9 +34,9 @@ export interface ResolvedOrbit {
   rebuildWithDeltaAKm?: (deltaAKm: number) => Trajectory;
 }
 
-/** Read a text file (type checked, size capped, BOM dropped: readInput.ts), faults as one-line input errors. */
+/** The whole text of a file ({@link readTextWhole} with the arguments in the older order). */
 export function readTextFile(path: string, where: string, kind: InputKind = 'text'): string {
-  return readInputText(path, where, kind);
+  return readTextWhole(path, kind, where);
 }
 
 /** SGP4 span: the wanted span, widened to hold the element-set epoch, so sizing from the epoch works. */
@@ -98,8 +97,9 @@ export function idOf(r: TleRecord | OmmRecord): string {
 
 /** All element sets of a TLE or OMM file. */
 export function readElementSets(path: string, kind: 'tle' | 'omm', flag: string): (TleRecord | OmmRecord)[] {
-  const text = readTextFile(path, flag, 'elements');
-  return kind === 'tle' ? parseTleFile(text, path) : parseOmmFile(text, path);
+  // TLE streams line by line; OMM (XML, JSON, KVN) is one document for its parser.
+  if (kind === 'tle') return parseTleLines(readLinesSync(path, 'elements', flag), path);
+  return parseOmmFile(readTextWhole(path, 'elements', flag), path);
 }
 
 /** Padding of computed trajectories beyond the requested span [s]. */
@@ -129,7 +129,7 @@ const oemCache = new Map<string, OemFile>();
 export function readOem(path: string, where: string, ts: TimeSystem): OemFile {
   let f = oemCache.get(path);
   if (f === undefined) {
-    f = parseOem(readTextWhole(path, 'orbit', where), path, ts);
+    f = parseOemLines(readLinesSync(path, 'orbit', where), path, ts);
     oemCache.set(path, f);
   }
   return f;

@@ -12,6 +12,7 @@
 import type { BroadcastClockRecord, NavSystem } from '../model/broadcastNav.ts';
 import { OrbitFileError } from '../errors.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
+import { linesOf, readLinesSync, type TextLine } from './textSource.ts';
 
 /** What a navigation file held. */
 export interface RinexNavFile {
@@ -54,8 +55,64 @@ function orbitFields(line: string): number[] {
  *   header without END OF HEADER
  */
 export function parseRinexNav(text: string, fileName: string, ts: TimeSystem): RinexNavFile {
-  const lines = text.replace(/^\uFEFF/, '').split(/\r?\n/);
-  const first = lines[0] ?? '';
+  return parseRinexNavLines(linesOf(text), fileName, ts);
+}
+
+/** Read a RINEX 3 navigation file (path, gzip or not), streaming its lines. */
+export function readRinexNav(path: string, where: string, ts: TimeSystem): RinexNavFile {
+  return parseRinexNavLines(readLinesSync(path, 'orbit', where), path, ts);
+}
+
+/** The same, from lines as they stream (textSource.ts): one record's lines are kept at a time. */
+export function parseRinexNavLines(source: Iterable<TextLine>, fileName: string, ts: TimeSystem): RinexNavFile {
+  let out: RinexNavFile | null = null;
+  let inHeader = true;
+  let lastLine = 0;
+  let head: TextLine | null = null;
+  let body: string[] = [];
+  const flush = (): void => {
+    if (head === null || out === null) return;
+    const sys = head.text[0];
+    if (sys !== 'G' && sys !== 'E') out.skippedOtherSystems[sys] = (out.skippedOtherSystems[sys] ?? 0) + 1;
+    else {
+      const rec = readRecord(head.text, body, sys === 'G' ? 'gps' : 'galileo', head.line, ts, fileName);
+      if (rec === null) {
+        out.skippedIncomplete++;
+        out.firstIncompleteLine ??= head.line;
+      } else out.records.push(rec);
+    }
+    head = null;
+    body = [];
+  };
+  for (const l of source) {
+    lastLine = l.line;
+    if (out === null) {
+      out = readFirstLine(l.text, fileName);
+      continue;
+    }
+    if (inHeader) {
+      if (l.text.slice(60).startsWith('END OF HEADER')) inHeader = false;
+      else if (l.line > MAX_HEADER_LINES + 1) break;
+      continue;
+    }
+    // Continuation lines (four blanks, then data) belong to the record above.
+    if (head !== null && l.text.startsWith('    ')) {
+      body.push(l.text);
+      continue;
+    }
+    flush();
+    // A blank line, or a stray continuation line of a record skipped already.
+    if (l.text.trim().length === 0 || l.text.startsWith(' ')) continue;
+    head = l;
+  }
+  if (out === null) out = readFirstLine('', fileName);
+  if (inHeader) throw new OrbitFileError('no END OF HEADER line', fileName, lastLine, 61, 'check the file is complete');
+  flush();
+  return out;
+}
+
+/** The RINEX VERSION / TYPE line, checked, as an empty result. */
+function readFirstLine(first: string, fileName: string): RinexNavFile {
   if (!first.slice(60).includes('RINEX VERSION / TYPE')) {
     throw new OrbitFileError('first line is not a RINEX VERSION / TYPE line', fileName, 1, 61, 'give a RINEX 3 navigation file (.rnx, .yyN/.yyP)');
   }
@@ -64,37 +121,7 @@ export function parseRinexNav(text: string, fileName: string, ts: TimeSystem): R
     throw new OrbitFileError(`RINEX version ${first.slice(0, 9).trim()} is not supported`, fileName, 1, 1, 'give a RINEX 3.02–3.05 navigation file (convert other versions first)');
   }
   if (first[20] !== 'N') throw new OrbitFileError(`file type ${JSON.stringify(first[20] ?? '')} is not N (navigation data)`, fileName, 1, 21, 'give a navigation file, not observation or meteorological data');
-  let i = 1;
-  while (i < lines.length && !lines[i].slice(60).startsWith('END OF HEADER')) {
-    if (i > MAX_HEADER_LINES) break;
-    i++;
-  }
-  if (i >= lines.length || i > MAX_HEADER_LINES) throw new OrbitFileError('no END OF HEADER line', fileName, Math.min(i, lines.length), 61, 'check the file is complete');
-  i++;
-
-  const out: RinexNavFile = { fileName, version, records: [], skippedOtherSystems: {}, skippedIncomplete: 0, firstIncompleteLine: null };
-  while (i < lines.length) {
-    const head = lines[i];
-    if (head.trim().length === 0 || head.startsWith(' ')) {
-      i++; // a blank line, or a continuation line of a record skipped already
-      continue;
-    }
-    const start = i;
-    i++;
-    while (i < lines.length && lines[i].startsWith('    ') && !/^\S/.test(lines[i])) i++;
-    const body = lines.slice(start + 1, i);
-    const sys = head[0];
-    if (sys !== 'G' && sys !== 'E') {
-      out.skippedOtherSystems[sys] = (out.skippedOtherSystems[sys] ?? 0) + 1;
-      continue;
-    }
-    const rec = readRecord(head, body, sys === 'G' ? 'gps' : 'galileo', start + 1, ts, fileName);
-    if (rec === null) {
-      out.skippedIncomplete++;
-      out.firstIncompleteLine ??= start + 1;
-    } else out.records.push(rec);
-  }
-  return out;
+  return { fileName, version, records: [], skippedOtherSystems: {}, skippedIncomplete: 0, firstIncompleteLine: null };
 }
 
 /** One GPS or Galileo record, or null when a needed field is missing. */

@@ -4,8 +4,7 @@
  * `--leap-seconds FILE` (the CLI puts it in TAUPLAN_LEAP_SECONDS so worker threads see it too):
  * either our JSON form or the IERS `Leap_Second.dat` text as published with Bulletin C.
  */
-import { readFileSync } from 'node:fs';
-import { readInputText } from './readInput.ts';
+import { readInputText, readTextWhole } from './textSource.ts';
 import { fileURLToPath } from 'node:url';
 import { InputError } from '../errors.ts';
 import { civilFromDays, MJD_OF_UNIX_EPOCH } from '../time/calendar.ts';
@@ -34,7 +33,7 @@ export function defaultTimeSystem(): TimeSystem {
 }
 
 function packagedTable(): LeapTableData {
-  return JSON.parse(readFileSync(dataPath('leap-seconds.json'), 'utf8')) as LeapTableData;
+  return JSON.parse(readTextWhole(dataPath('leap-seconds.json'), 'table', 'the packaged leap-second table')) as LeapTableData;
 }
 
 const MONTHS = ['january', 'february', 'march', 'april', 'may', 'june', 'july', 'august', 'september', 'october', 'november', 'december'];

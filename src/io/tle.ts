@@ -15,6 +15,7 @@ import { OrbitFileError } from '../errors.ts';
 import { civilFromDays, daysFromCivil } from '../time/calendar.ts';
 import type { CivilTime } from '../time/timeSystem.ts';
 import type { TleRecord } from '../model/elementSet.ts';
+import { linesOf, type TextLine } from './textSource.ts';
 
 export type { TleRecord };
 
@@ -107,34 +108,39 @@ const L2_BLANKS = [2, 8, 17, 26, 34, 43, 52];
  * @throws OrbitFileError at the first fault, with line and column
  */
 export function parseTleFile(text: string, fileName: string): TleRecord[] {
-  const rawLines = text.split('\n');
-  const lines: string[] = [];
-  for (let i = 0; i < rawLines.length; i++) {
-    const raw = rawLines[i].replace(/\r$/, '');
-    const tab = raw.indexOf('\t');
-    if (tab >= 0) {
-      throw new OrbitFileError('tab character in an element set file', fileName, i + 1, tab + 1, 'replace tabs by spaces; TLE fields are fixed columns');
-    }
-    const kept = raw.trimEnd(); // same as replace(/\s+$/, ''), without its quadratic backtracking
-    // A stray CR or other control character would otherwise be echoed into a one-line message.
-    const ctrl = kept.search(/[\u0000-\u001f\u007f]/);
-    if (ctrl >= 0) {
-      const code = kept.charCodeAt(ctrl).toString(16).toUpperCase().padStart(4, '0');
-      throw new OrbitFileError(`control character U+${code} in an element set file`, fileName, i + 1, ctrl + 1, 'remove it; element set files are plain text lines ending in LF or CR LF');
-    }
-    lines.push(kept);
-  }
+  return parseTleLines(linesOf(text), fileName);
+}
+
+/**
+ * The same, from lines as they stream (textSource.ts): only the records and the pending name or
+ * line 1 are kept, never the file.
+ */
+export function parseTleLines(source: Iterable<TextLine>, fileName: string): TleRecord[] {
   const records: TleRecord[] = [];
   let pendingName: { text: string; line: number } | null = null;
-  let i = 0;
-  while (i < lines.length) {
-    const line = lines[i];
-    const lineNo = i + 1;
+  let line1: { text: string; line: number } | null = null;
+  for (const l of source) {
+    const line = cleanLine(l, fileName);
+    const lineNo = l.line;
+    if (line1 !== null) {
+      // Element line 2 of the set started on the line before.
+      if (line.length === 0) throw new OrbitFileError('line 1 without its line 2', fileName, line1.line, null, 'add line 2 directly after line 1, or remove the incomplete element set');
+      if (line.startsWith('1 ')) throw new OrbitFileError('line 1 without its line 2 (the next line is another line 1)', fileName, line1.line, null, 'add line 2 directly after line 1, or remove the incomplete element set');
+      checkElementLine(line, 2, fileName, lineNo);
+      const cat1 = line1.text.slice(2, 7);
+      const cat2 = line.slice(2, 7);
+      if (cat1 !== cat2) {
+        throw new OrbitFileError(`catalogue number "${cat2}" on line 2 differs from "${cat1}" on line 1`, fileName, lineNo, 3, 'both lines of an element set must carry the same catalogue number in columns 3–7');
+      }
+      records.push(buildRecord(line1.text, line, fileName, line1.line, pendingName));
+      pendingName = null;
+      line1 = null;
+      continue;
+    }
     if (line.length === 0) {
       if (pendingName !== null) {
         throw new OrbitFileError(`name line "${pendingName.text}" is followed by a blank line`, fileName, pendingName.line, null, 'put line 1 of the element set directly after its name line');
       }
-      i++;
       continue;
     }
     if (line.startsWith('2 ')) {
@@ -147,28 +153,12 @@ export function parseTleFile(text: string, fileName: string): TleRecord[] {
       }
       const name = line.startsWith('0 ') ? line.slice(2).trim() : line.trim();
       pendingName = { text: name, line: lineNo };
-      i++;
       continue;
     }
-    // Element line 1.
     checkElementLine(line, 1, fileName, lineNo);
-    if (i + 1 >= lines.length || lines[i + 1].length === 0) {
-      throw new OrbitFileError('line 1 without its line 2', fileName, lineNo, null, 'add line 2 directly after line 1, or remove the incomplete element set');
-    }
-    const line2 = lines[i + 1];
-    if (line2.startsWith('1 ')) {
-      throw new OrbitFileError('line 1 without its line 2 (the next line is another line 1)', fileName, lineNo, null, 'add line 2 directly after line 1, or remove the incomplete element set');
-    }
-    checkElementLine(line2, 2, fileName, lineNo + 1);
-    const cat1 = line.slice(2, 7);
-    const cat2 = line2.slice(2, 7);
-    if (cat1 !== cat2) {
-      throw new OrbitFileError(`catalogue number "${cat2}" on line 2 differs from "${cat1}" on line 1`, fileName, lineNo + 1, 3, 'both lines of an element set must carry the same catalogue number in columns 3–7');
-    }
-    records.push(buildRecord(line, line2, fileName, lineNo, pendingName));
-    pendingName = null;
-    i += 2;
+    line1 = { text: line, line: lineNo };
   }
+  if (line1 !== null) throw new OrbitFileError('line 1 without its line 2', fileName, line1.line, null, 'add line 2 directly after line 1, or remove the incomplete element set');
   if (pendingName !== null) {
     throw new OrbitFileError(`name line "${pendingName.text}" has no element set after it`, fileName, pendingName.line, null, 'add line 1 and line 2 after the name line, or remove it');
   }
@@ -176,6 +166,19 @@ export function parseTleFile(text: string, fileName: string): TleRecord[] {
     throw new OrbitFileError('no element set in the file', fileName, 1, null, 'give a file with at least one pair of TLE lines (optionally with a name line before each)');
   }
   return records;
+}
+
+/** A line without trailing blanks; tabs and control characters refused (they would be echoed into a one-line message). */
+function cleanLine(l: TextLine, fileName: string): string {
+  const tab = l.text.indexOf('\t');
+  if (tab >= 0) throw new OrbitFileError('tab character in an element set file', fileName, l.line, tab + 1, 'replace tabs by spaces; TLE fields are fixed columns');
+  const kept = l.text.trimEnd(); // same as replace(/\s+$/, ''), without its quadratic backtracking
+  const ctrl = kept.search(/[\u0000-\u001f\u007f]/);
+  if (ctrl >= 0) {
+    const code = kept.charCodeAt(ctrl).toString(16).toUpperCase().padStart(4, '0');
+    throw new OrbitFileError(`control character U+${code} in an element set file`, fileName, l.line, ctrl + 1, 'remove it; element set files are plain text lines ending in LF or CR LF');
+  }
+  return kept;
 }
 
 function checkElementLine(line: string, which: 1 | 2, fileName: string, lineNo: number): void {

@@ -6,9 +6,9 @@
 import type { NavSystem } from '../../clock/navMessage.ts';
 import { conventionalPeriodicS } from '../../clock/rate.ts';
 import { InputError } from '../../errors.ts';
-import { parseRinexNav } from '../../io/rinexNav.ts';
+import { readRinexNav } from '../../io/rinexNav.ts';
 import { parseSp3, type Sp3File } from '../../io/sp3.ts';
-import { readInputText } from '../../io/readInput.ts';
+import { readInputText } from '../../io/textSource.ts';
 import { Sp3Trajectory } from '../../orbit/sp3.ts';
 import { evaluateBroadcastClocks, type BroadcastEvalResult, type PreciseClockSeries } from '../../plan/navclockBroadcast.ts';
 import { broadcastEvalToCsv, broadcastEvalToJson, broadcastEvalToText, type BroadcastEvalMeta } from '../../report/navclockEvalReport.ts';
@@ -53,7 +53,7 @@ export function computeNavEval(a: NavEvalArgs, ts: TimeSystem): { result: Broadc
   if (a.precise === undefined) throw new InputError('--nav without --precise', '--precise', 'give the precise clocks (SP3) of the same day');
   if (a.orbit === undefined) throw new InputError('--nav without --orbit', '--orbit', 'give the precise orbit (SP3) for the −2 r·v/c² term; it may be the same file as --precise');
   const systems: NavSystem[] = a.system === undefined ? ['gps', 'galileo'] : [a.system as NavSystem];
-  const nav = parseRinexNav(readInputText(a.nav, '--nav', 'orbit'), a.nav, ts);
+  const nav = readRinexNav(a.nav, '--nav', ts);
   const preciseFile = readSp3File(a.precise, '--precise');
   const orbitFile = a.orbit === a.precise ? preciseFile : readSp3File(a.orbit, '--orbit');
   const trajectories = new Map<string, Sp3Trajectory | null>();

@@ -9,7 +9,7 @@ import { InputError } from '../../errors.ts';
 import { parseMeasurementsCsv } from '../../io/measurements.ts';
 import { labelOf, pickElementSet, readElementSets, readTextFile, sgp4Trajectory } from '../../io/orbitSources.ts';
 import { parseSp3 } from '../../io/sp3.ts';
-import { readInputText } from '../../io/readInput.ts';
+import { readInputText } from '../../io/textSource.ts';
 import { Sp3Trajectory } from '../../orbit/sp3.ts';
 import type { Trajectory } from '../../orbit/trajectory.ts';
 import { fitClock } from '../../plan/fit.ts';

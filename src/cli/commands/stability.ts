@@ -2,7 +2,7 @@
 import type { Argv } from 'yargs';
 import { InputError } from '../../errors.ts';
 import { parseMeasurementsCsv } from '../../io/measurements.ts';
-import { readInputText } from '../../io/readInput.ts';
+import { readInputText } from '../../io/textSource.ts';
 import { looksLikeMeasurementCsv, parseSingleColumn } from '../../io/stabilityInput.ts';
 import { stabilityOfRecord, type StabilityDataType, type StabilityRecord } from '../../plan/stability.ts';
 import { page } from '../../report/htmlReport.ts';
