@@ -41,6 +41,7 @@ import type { OmmRecord, TleRecord } from '../model/elementSet.ts';
 import { Instant } from '../time/instant.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import { countStates } from './stateCount.ts';
+import { rateCovers, sgp4WithRate, SGP4_OK, type Sgp4Constants, type Sgp4RecordFields } from './sgp4Rate.ts';
 import { checkSpan, type StateBlock, type Trajectory } from './trajectory.ts';
 import { vec3, type StateM } from './vec.ts';
 
@@ -64,7 +65,8 @@ export interface Sgp4Options {
   spanFor?: (epochTtJ2000S: number) => { fromTtJ2000S: number; toTtJ2000S: number };
   /**
    * Velocity of `stateAt` and `sampleInto`: `derivative` (default) is the time derivative of SGP4's
-   * position (five-point stencil over ±{@link DERIVATIVE_STEP_S}, ±2×), the velocity the satellite
+   * position (carried through SGP4's arithmetic by sgp4Rate.ts; for deep-space resonant records a
+   * five-point stencil over ±{@link DERIVATIVE_STEP_S}, ±2×), the velocity the satellite
    * really has along the positions SGP4 gives; `sgp4` is SGP4's own velocity output, which is not
    * that derivative (measured on invented 2027 element sets: ≤ 31 mm/s LEO, 17–21 mm/s MEO,
    * 76 mm/s GEO, 1.4 m/s Molniya; mean rate over a day shifted by −1.6e-15 LEO, +4e-17 GPS-like,
@@ -133,6 +135,11 @@ export interface Sgp4MeanElementsSummary {
   deepSpace: boolean;
 }
 
+/** SGP4's WGS-72 constants for the differentiated propagation (sgp4Rate.ts). */
+const RATE_CONSTANTS: Sgp4Constants = { xke: sgp4Constants.xke, x2o3: sgp4Constants.x2o3, j2: sgp4Constants.j2, j3oj2: sgp4Constants.j3oj2, earthRadius: sgp4Constants.earthRadius };
+/** Scratch for one differentiated state: position [km] and its derivative [km/s]. */
+const rateOut = new Float64Array(6);
+
 /** satellite.js records, kept out of the public surface. */
 const satrecOf = new WeakMap<Sgp4Trajectory, SatRec>();
 
@@ -186,6 +193,13 @@ export class Sgp4Trajectory implements Trajectory {
   /** State at `ttJ2000S` [s since J2000.0 TT], TEME, metres and m/s. Throws SpanError outside the span. */
   stateAt(ttJ2000S: number): StateM<'TEME'> {
     checkSpan(this, ttJ2000S, (t) => this.formatUtc(t));
+    const satrec = satrecOf.get(this) as SatRec;
+    if (this.derivativeVelocity && rateCovers(satrec as unknown as Sgp4RecordFields)) {
+      this.differentiated(satrec, ttJ2000S);
+      countStates(1, 1);
+      const o = rateOut;
+      return { ttJ2000S, positionM: vec3<'TEME'>(o[0] * 1000, o[1] * 1000, o[2] * 1000), velocityMPerS: vec3<'TEME'>(o[3] * 1000, o[4] * 1000, o[5] * 1000) };
+    }
     const s = this.stateAtMinutesSinceEpoch((ttJ2000S - this.epochTtJ2000S) / 60, ttJ2000S);
     countStates(1, this.derivativeVelocity ? 5 : 1);
     if (!this.derivativeVelocity) return s;
@@ -242,14 +256,28 @@ export class Sgp4Trajectory implements Trajectory {
     checkSpan(this, hi, fmt);
     const satrec = satrecOf.get(this) as SatRec;
     const wasm = wasmFor(satrec, n);
+    const epoch = this.epochTtJ2000S;
+    const pOut = out.positionM;
+    const vOut = out.velocityMPerS;
+    if (wasm === null && this.derivativeVelocity && rateCovers(satrec as unknown as Sgp4RecordFields)) {
+      countStates(n, n);
+      const o = rateOut;
+      for (let i = 0; i < n; i++) {
+        this.differentiated(satrec, ttJ2000S[i]);
+        pOut[3 * i] = o[0] * 1000;
+        pOut[3 * i + 1] = o[1] * 1000;
+        pOut[3 * i + 2] = o[2] * 1000;
+        vOut[3 * i] = o[3] * 1000;
+        vOut[3 * i + 1] = o[4] * 1000;
+        vOut[3 * i + 2] = o[5] * 1000;
+      }
+      return;
+    }
     countStates(n, this.derivativeVelocity ? 5 * n : n);
     if (wasm !== null) {
       bulkSampleInto(this, satrec, wasm, ttJ2000S, out);
       return;
     }
-    const epoch = this.epochTtJ2000S;
-    const pOut = out.positionM;
-    const vOut = out.velocityMPerS;
     for (let i = 0; i < n; i++) {
       const t = ttJ2000S[i];
       const pv = sgp4(satrec, (t - epoch) / 60);
@@ -317,6 +345,14 @@ export class Sgp4Trajectory implements Trajectory {
     const p = pv.position;
     if (!Number.isFinite(p.x) || !Number.isFinite(p.y) || !Number.isFinite(p.z)) throw this.propagationError(-1, ttJ2000S);
     return pv;
+  }
+
+  /** Position [km] and its time derivative [km/s] at t into {@link rateOut} (sgp4Rate.ts), errors as stateAt's. */
+  private differentiated(satrec: SatRec, ttJ2000S: number): void {
+    const code = sgp4WithRate(satrec as unknown as Sgp4RecordFields, (ttJ2000S - this.epochTtJ2000S) / 60, RATE_CONSTANTS, rateOut);
+    if (code !== SGP4_OK) throw this.propagationError(code, ttJ2000S);
+    const o = rateOut;
+    if (!(Math.abs(o[0]) + Math.abs(o[1]) + Math.abs(o[2]) + Math.abs(o[3]) + Math.abs(o[4]) + Math.abs(o[5]) < Infinity)) throw this.propagationError(-1, ttJ2000S);
   }
 
   /** @internal used by the bulk path. */
