@@ -20,7 +20,7 @@ import { gravityModel } from '../src/orbit/gravity.ts';
 import { LunarSurfaceTrajectory } from '../src/orbit/lunarSurface.ts';
 import { MOON_POINT_MASS } from '../src/orbit/moonGravity.ts';
 import { analyseLunarRate } from '../src/plan/lunarRates.ts';
-import { lunarForces, lunarOrbitFromElements } from '../src/plan/lunarOrbitInput.ts';
+import { lunarForces, lunarOrbitFromElements } from '../src/orbit/lunarOrbitInput.ts';
 import { sizeLunarClock } from '../src/plan/lunarSize.ts';
 
 const GM_MOON = 4.902800066e12;

@@ -10,7 +10,7 @@ import { InputError } from '../src/errors.ts';
 import { lcrsToLunarElements, lunarElementsToLcrs } from '../src/orbit/lunarFrames.ts';
 import { LunarImpactError, LunarOrbitTrajectory } from '../src/orbit/lunarOrbit.ts';
 import { MOON_DEGREE_2, MOON_POINT_MASS } from '../src/orbit/moonGravity.ts';
-import { lunarForces, lunarOrbitFromElements } from '../src/plan/lunarOrbitInput.ts';
+import { lunarForces, lunarOrbitFromElements } from '../src/orbit/lunarOrbitInput.ts';
 
 const EPOCH = 852_076_800;
 const DAY_S = 86_400;

@@ -3,7 +3,7 @@ import { GNSS_NOMINAL_HZ } from '../constants.ts';
 import { InputError } from '../errors.ts';
 import { IAU_MOON_MEAN_RADIUS_M } from '../orbit/moonBody.ts';
 import { checkSelenographicSite, LunarSurfaceTrajectory, MEAN_SUB_EARTH_POINT, type SelenographicSite } from '../orbit/lunarSurface.ts';
-import { lunarForces, lunarOrbitFromElements, type LunarForceModelName } from '../plan/lunarOrbitInput.ts';
+import { lunarForces, lunarOrbitFromElements, type LunarForceModelName } from '../orbit/lunarOrbitInput.ts';
 import { LUNAR_DEFAULT_SPAN_S, sizeLunarClock, type LunarKeep, type LunarSizeResult } from '../plan/lunarSize.ts';
 import { lunarSizeToJson, type LunarSizeJson } from '../report/lunarSizeReport.ts';
 import type { GravityModelName } from '../orbit/gravity.ts';

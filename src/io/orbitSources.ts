@@ -12,6 +12,7 @@ import type { OemFile } from '../model/oem.ts';
 import { Instant } from '../time/instant.ts';
 import { parseOemLines } from './oem.ts';
 import { trajectoryFromKeplerian, trajectoryFromStateVector } from '../orbit/stateVector.ts';
+import { lunarForces, lunarOrbitFromElements, lunarOrbitFromState } from '../orbit/lunarOrbitInput.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import { readLinesSync, readTextWhole, type InputKind } from './textSource.ts';
@@ -174,11 +175,22 @@ export function trajectoryForSatellite(sat: SatelliteSpec, scenario: ScenarioSpe
     case 'keplerian': {
       const epoch = o.epoch.ttJ2000S;
       const full = { fromTtJ2000S: Math.min(span.fromTtJ2000S, epoch), toTtJ2000S: Math.max(span.toTtJ2000S, epoch) };
+      if (o.body === 'moon') {
+        const el = { epochTtJ2000S: epoch, aKm: o.aKm, e: o.e, iDeg: o.iDeg, raanDeg: o.raanDeg, argpDeg: o.argpDeg, meanAnomalyDeg: o.meanAnomalyDeg };
+        const where = { a: `${scenario.fileName} ${sat.path}.orbit.keplerian.aKm`, e: `${scenario.fileName} ${sat.path}.orbit.keplerian.e` };
+        const built = lunarOrbitFromElements(sat.id, el, lunarForces('full'), full, where);
+        return { trajectory: built.trajectory, name, rebuildWithDeltaAKm: built.rebuildWithDeltaAKm };
+      }
       const build = (d: number): Trajectory => trajectoryFromKeplerian(scenarioElements(sat, d), gravity, full, sat.id);
       return { trajectory: build(0), name, rebuildWithDeltaAKm: build };
     }
     case 'state': {
       const epoch = o.epoch.ttJ2000S;
+      if (o.frame === 'LCRS') {
+        const km = (v: readonly number[]): [number, number, number] => [v[0] * 1000, v[1] * 1000, v[2] * 1000];
+        const full = { fromTtJ2000S: Math.min(span.fromTtJ2000S, epoch), toTtJ2000S: Math.max(span.toTtJ2000S, epoch) };
+        return { trajectory: lunarOrbitFromState(sat.id, epoch, { positionM: km(o.positionKm), velocityMPerS: km(o.velocityKmPerS) }, lunarForces('full'), full), name };
+      }
       const trajectory = trajectoryFromStateVector({
         id: sat.id,
         epochTtJ2000S: epoch,

@@ -5,7 +5,11 @@
 import { dirname, resolve } from 'node:path';
 import { ORBIT_KINDS, type ClockSpec, type OrbitSpec, type ResetPolicySpec, type SatelliteSpec, type ScenarioSpec, type StationSpec, type TleOrbitSpec } from '../model/scenario.ts';
 import type { Context } from './scenarioIssues.ts';
-import { DEFAULT_HORIZON, FIELD_HINTS, formatPath, WGS84_A_KM, WGS84_POLAR_RADIUS_KM, type PathSeg, type RawScenario } from './scenarioSchema.ts';
+import { IAU_MOON_MEAN_RADIUS_M } from '../orbit/moonBody.ts';
+import { DEFAULT_HORIZON, FIELD_HINTS, formatPath, STATION_MAX_HEIGHT_M, STATION_MIN_HEIGHT_M, WGS84_A_KM, WGS84_POLAR_RADIUS_KM, type PathSeg, type RawScenario } from './scenarioSchema.ts';
+
+/** Radius of the Moon's reference sphere [km] (IAU, 1737.4 km). */
+const MOON_RADIUS_KM = IAU_MOON_MEAN_RADIUS_M / 1000;
 
 export function buildSpec(raw: RawScenario, ctx: Context): ScenarioSpec {
   const start = ctx.time(raw.window.start, ['window', 'start']);
@@ -58,8 +62,13 @@ export function buildSpec(raw: RawScenario, ctx: Context): ScenarioSpec {
   const stations = (raw.stations ?? []).map((st, i): StationSpec => {
     const base: PathSeg[] = ['stations', i];
     claimId(st.id, [...base, 'id']);
+    const onMoon = st.body === 'moon';
+    if (!onMoon && !(st.heightM >= STATION_MIN_HEIGHT_M && st.heightM <= STATION_MAX_HEIGHT_M)) {
+      throw ctx.error([...base, 'heightM'], `height ${st.heightM} m is outside ${STATION_MIN_HEIGHT_M} … ${STATION_MAX_HEIGHT_M} m for a station on the Earth`, FIELD_HINTS.heightM);
+    }
     return {
       id: st.id,
+      ...(onMoon ? { body: 'moon' as const } : {}),
       latDeg: st.latDeg,
       lonDeg: st.lonDeg,
       heightM: st.heightM,
@@ -154,8 +163,20 @@ function buildOrbit(o: RawScenario['satellites'][number]['orbit'], path: PathSeg
   }
   if (o.tle !== undefined) return buildTle(o.tle, [...path, 'tle'], ctx);
   if (o.omm !== undefined) return { kind: 'omm', fields: { ...o.omm } };
+  if (o.keplerian !== undefined && o.keplerian.body === 'moon') {
+    const { body: _moon, ...k } = o.keplerian;
+    const periKm = k.aKm * (1 - k.e);
+    if (!(periKm > MOON_RADIUS_KM)) {
+      throw ctx.error(
+        [...path, 'keplerian', 'aKm'],
+        `periselene radius aKm·(1 − e) = ${periKm.toFixed(3)} km is not above the Moon's reference sphere ${MOON_RADIUS_KM} km: the orbit intersects the Moon`,
+        "with body: moon, aKm is measured from the Moon's centre (altitude + 1737.4 km); raise aKm or lower e",
+      );
+    }
+    return { kind: 'keplerian', body: 'moon', ...k, epoch: ctx.time(k.epoch, [...path, 'keplerian', 'epoch']) };
+  }
   if (o.keplerian !== undefined) {
-    const k = o.keplerian;
+    const { body: _earth, ...k } = o.keplerian;
     const perigeeKm = k.aKm * (1 - k.e);
     if (!(perigeeKm > WGS84_A_KM)) {
       throw ctx.error(
@@ -169,7 +190,22 @@ function buildOrbit(o: RawScenario['satellites'][number]['orbit'], path: PathSeg
   if (o.state !== undefined) {
     const s = o.state;
     const rKm = Math.hypot(...s.positionKm);
-    if (!(rKm >= WGS84_POLAR_RADIUS_KM)) {
+    const lunar = s.frame === 'LCRS';
+    if (s.body !== undefined && (s.body === 'moon') !== lunar) {
+      throw ctx.error(
+        [...path, 'state', 'frame'],
+        `frame ${s.frame} does not match body ${s.body}: ${lunar ? 'LCRS is Moon-centred' : `${s.frame} is Earth-centred`}`,
+        s.body === 'moon' ? 'give a state about the Moon in frame LCRS (Moon-centred, ICRS axes)' : 'give a state about the Earth in GCRF or TEME',
+      );
+    }
+    if (lunar && !(rKm >= MOON_RADIUS_KM)) {
+      throw ctx.error(
+        [...path, 'state', 'positionKm'],
+        `position is ${rKm.toFixed(3)} km from the Moon's centre, inside the Moon (reference sphere ${MOON_RADIUS_KM} km)`,
+        'give the Moon-centred position in km (LCRS), not metres or an altitude',
+      );
+    }
+    if (!lunar && !(rKm >= WGS84_POLAR_RADIUS_KM)) {
       throw ctx.error(
         [...path, 'state', 'positionKm'],
         `position is ${rKm.toFixed(3)} km from the Earth's centre, inside the Earth (polar radius ${WGS84_POLAR_RADIUS_KM.toFixed(3)} km)`,

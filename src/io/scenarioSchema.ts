@@ -39,7 +39,12 @@ const text = z.string().min(1);
 const vec3 = z.tuple([z.number(), z.number(), z.number()]);
 const TLE_SHAPE = 'a TLE must be a text of 2 or 3 lines, or a list [line1, line2] or [name, line1, line2]';
 
+/** Lunar station heights [m] above the 1737.4 km sphere: relief spans about −9 … +11 km, with margin. */
+export const LUNAR_STATION_HEIGHT_LIMIT_M = 20_000;
+const body = z.enum(['earth', 'moon']);
+
 const KeplerianSchema = z.strictObject({
+  body: body.optional(),
   epoch: text,
   aKm: z.number().positive(),
   e: z.number().min(0).lt(1),
@@ -53,7 +58,7 @@ const OrbitSchema = z.strictObject({
   tle: z.union([z.string(), z.array(z.string()).min(2).max(3)], { error: TLE_SHAPE }).optional(),
   omm: z.record(z.string(), z.union([z.string(), z.number()], { error: 'an OMM value must be a string or a number' })).optional(),
   keplerian: KeplerianSchema.optional(),
-  state: z.strictObject({ epoch: text, frame: z.enum(['GCRF', 'TEME']), positionKm: vec3, velocityKmPerS: vec3 }).optional(),
+  state: z.strictObject({ body: body.optional(), epoch: text, frame: z.enum(['GCRF', 'TEME', 'LCRS']), positionKm: vec3, velocityKmPerS: vec3 }).optional(),
   sp3: z.strictObject({ file: text, id: text }).optional(),
   oem: z.strictObject({ file: text, object: text.optional() }).optional(),
 });
@@ -92,9 +97,11 @@ const SatelliteSchema = z.strictObject({
 
 const StationSchema = z.strictObject({
   id: text,
+  body: body.optional(),
   latDeg: z.number().min(-90).max(90),
   lonDeg: z.number().min(-180).lt(360),
-  heightM: z.number().min(STATION_MIN_HEIGHT_M).max(STATION_MAX_HEIGHT_M),
+  // The Earth's range (−500 … 10 000 m) is checked in scenarioBuild.ts, where the body is known.
+  heightM: z.number().min(-LUNAR_STATION_HEIGHT_LIMIT_M).max(LUNAR_STATION_HEIGHT_LIMIT_M),
   geoidHeightM: z.number().min(-GEOID_HEIGHT_LIMIT_M).max(GEOID_HEIGHT_LIMIT_M).optional(),
   maskDeg: z.number().min(-5).lt(90).optional(),
   minPassS: z.number().min(0).optional(),
@@ -158,6 +165,8 @@ export const FIELD_HINTS: Record<string, string> = {
   nominalHz: 'give the nominal oscillator frequency in Hz, greater than 0 (default 10.23e6)',
   uplink: 'write uplink: true or uplink: false',
   prefer: 'use phase, frequency or combined',
+  body: 'use earth or moon (the central body of the orbit or station)',
+  frame: 'use GCRF or TEME (Earth-centred), or LCRS (Moon-centred, ICRS axes)',
   id: 'give a non-empty text id; in YAML quote an id that looks like a number, e.g. id: "43873"',
 };
 

@@ -30,9 +30,18 @@ export interface OmmOrbitSpec {
   fields: Record<string, string | number>;
 }
 
-/** Osculating Keplerian elements at `epoch`, about the WGS-84 GM. */
+/** The body an orbit or a station belongs to (lunar issue). */
+export type CentralBody = 'earth' | 'moon';
+
+/**
+ * Osculating Keplerian elements at `epoch`: about the WGS-84 GM (body earth, the default), or about
+ * the Moon (body moon: GM_M of DE430, angles to the Moon's mean equator of the epoch; aKm from the
+ * Moon's centre, periselene above the 1737.4 km sphere).
+ */
 export interface KeplerianOrbitSpec {
   kind: 'keplerian';
+  /** Central body; absent means the Earth. */
+  body?: CentralBody;
   epoch: Instant;
   /** Semi-major axis from the Earth's centre [km]. Perigee aKm·(1−e) is above 6378.137 km. */
   aKm: number;
@@ -52,8 +61,9 @@ export interface KeplerianOrbitSpec {
 export interface StateOrbitSpec {
   kind: 'state';
   epoch: Instant;
-  frame: 'GCRF' | 'TEME';
-  /** Position [km] in `frame`; |r| is at least the WGS-84 polar radius. */
+  /** GCRF and TEME are Earth-centred; LCRS is Moon-centred with ICRS axes (lunar orbits). */
+  frame: 'GCRF' | 'TEME' | 'LCRS';
+  /** Position [km] in `frame`; |r| is at least the WGS-84 polar radius (LCRS: the 1737.4 km lunar sphere). */
   positionKm: [number, number, number];
   /** Velocity [km/s] in `frame`. */
   velocityKmPerS: [number, number, number];
@@ -155,6 +165,11 @@ export interface SatelliteSpec {
  * defaults geoidHeightM 0, maskDeg 10, minPassS 300).
  */
 export interface StationSpec extends Station {
+  /**
+   * Extra key `body`: `moon` for a station on the Moon (latDeg, lonDeg selenographic in the
+   * mean-Earth/polar-axis frame, heightM above the 1737.4 km sphere, geoidHeightM unused). Absent: the Earth.
+   */
+  body?: CentralBody;
   /** Extra key `uplink`: the station can send adjustments (default true). Passes list every station. */
   uplink: boolean;
   /** JSON path of this entry (`stations[0]`), for messages from later stages. */

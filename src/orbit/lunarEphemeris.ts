@@ -56,11 +56,17 @@ function nodeAt(k: number): Float64Array {
   return n;
 }
 
+/** A TT instant as a calendar date and time (seconds since J2000.0 TT → `YYYY-MM-DDThh:mm:ss TT`), for messages. */
+function ttText(ttJ2000S: number): string {
+  const ms = Date.UTC(2000, 0, 1, 12) + ttJ2000S * 1000;
+  return Number.isFinite(ms) && Math.abs(ms) < 8.64e15 ? `${new Date(ms).toISOString().slice(0, 19)} TT` : `${ttJ2000S} s from J2000.0 TT`;
+}
+
 /** Refuse an instant outside the served span. */
-export function checkLunarEphemerisSpan(ttJ2000S: number, where: string, format: (t: number) => string = (t) => `${t} s from J2000 TT`): void {
+export function checkLunarEphemerisSpan(ttJ2000S: number, where: string, format: (t: number) => string = ttText): void {
   if (!(ttJ2000S >= LUNAR_EPHEMERIS_VALID_FROM_TT_J2000_S && ttJ2000S <= LUNAR_EPHEMERIS_VALID_TO_TT_J2000_S)) {
     throw new SpanError(
-      `time ${format(ttJ2000S)} is outside the Moon ephemeris' span 1900-01-01 to 2100-01-01 TT`,
+      `time ${format(ttJ2000S)} is outside the Moon ephemeris' span 1900-01-01 to 2100-01-01 (TT)`,
       where,
       format(LUNAR_EPHEMERIS_VALID_FROM_TT_J2000_S),
       format(LUNAR_EPHEMERIS_VALID_TO_TT_J2000_S),

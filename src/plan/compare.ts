@@ -13,6 +13,9 @@ import { SECONDS_PER_DAY } from '../constants.ts';
 import { geodeticToEcefM, type Station } from '../events/station.ts';
 import { allocStateBlock, type Trajectory } from '../orbit/trajectory.ts';
 import { lineFit, orbitSummaryAt } from './size.ts';
+import { bodyOf, lunarFieldOf, lunarStationTrack, lunarTrackFigures, type BodyStation } from './lunarScenario.ts';
+import type { CentralBody } from '../model/scenario.ts';
+import { LunarOrbitTrajectory } from '../orbit/lunarOrbit.ts';
 
 export interface CompareSatellite {
   id: string;
@@ -24,6 +27,8 @@ export interface CompareSatellite {
 export interface ClockComparison {
   id: string;
   kind: 'satellite' | 'station';
+  /** Where the clock is: about or on the Earth, or the Moon. */
+  body: CentralBody;
   /** Satellites: slope of the offset with −2r·v/c² removed (as in `size`); stations: their constant rate. */
   meanFractionalOffset: number;
   driftNsPerDay: number;
@@ -74,7 +79,7 @@ type Elapsed = (from: number, to: number) => number;
  * Compare clocks over [from, to]. `against` names the reference clock of the offset series (a
  * satellite or station id); without it the series are against TT.
  */
-export function compareClocks(sats: CompareSatellite[], stations: Station[], gravity: GravityModel, fromTtJ2000S: number, toTtJ2000S: number, against?: string): CompareResult {
+export function compareClocks(sats: CompareSatellite[], stations: BodyStation[], gravity: GravityModel, fromTtJ2000S: number, toTtJ2000S: number, against?: string): CompareResult {
   const clocks: ClockComparison[] = [];
   const elapsed = new Map<string, Elapsed>();
   // Orbits are integrated over the window, widened to cover every flight so pairs can be formed.
@@ -89,18 +94,21 @@ export function compareClocks(sats: CompareSatellite[], stations: Station[], gra
   for (const s of sats) {
     const from = s.flight?.startTtJ2000S ?? lo;
     const to = s.flight?.endTtJ2000S ?? hi;
-    const orbit = orbitSummaryAt(s.trajectory, from, gravity.gmM3PerS2);
+    // A lunar orbit's step follows its period about the Moon, not its geocentric one.
+    const orbit = s.trajectory instanceof LunarOrbitTrajectory ? { periodS: s.trajectory.periodS, e: s.trajectory.elements.e } : orbitSummaryAt(s.trajectory, from, gravity.gmM3PerS2);
     const periodS = Number.isFinite(orbit.periodS) && orbit.periodS > 0 ? orbit.periodS : 6000;
     const maxStep = s.flight === null ? clockStepS(periodS, Math.min(orbit.e, 0.95)) : Math.min(10, (to - from) / 20);
     const [track] = integrateAlong(s.trajectory, from, to, maxStep, [(x, y, z, vx, vy, vz, t) => fractionalOffset(gravity, x, y, z, vx, vy, vz, t)]);
     const reportFrom = s.flight === null ? fromTtJ2000S : from;
     const reportTo = s.flight === null ? toTtJ2000S : to;
     // A flight is no orbit: its mean is the plain average over the flight, not an orbit-mean slope.
-    const fig = s.flight === null ? trackFigures(s.trajectory, track, reportFrom, reportTo) : flightFigures(track, reportFrom, reportTo);
+    const body = bodyOf(s.trajectory);
+    const fig = s.flight !== null ? flightFigures(track, reportFrom, reportTo) : body === 'moon' ? lunarTrackFigures(s.trajectory, track, lunarFieldOf(gravity), reportFrom, reportTo, true) : trackFigures(s.trajectory, track, reportFrom, reportTo);
     elapsed.set(s.id, (a, b) => track.integralAt(b) - track.integralAt(a));
     clocks.push({
       id: s.id,
       kind: 'satellite',
+      body,
       meanFractionalOffset: fig.slope,
       driftNsPerDay: fig.slope * SECONDS_PER_DAY * 1e9,
       periodicAmplitudeNs: fig.periodicNs,
@@ -111,12 +119,32 @@ export function compareClocks(sats: CompareSatellite[], stations: Station[], gra
     });
   }
   for (const st of stations) {
+    if (st.body === 'moon') {
+      // A clock at rest on the Moon: its rate follows the Earth–Moon distance (monthly term), so it is integrated.
+      const { trajectory, track } = lunarStationTrack(st, gravity, fromTtJ2000S, toTtJ2000S);
+      const fig = lunarTrackFigures(trajectory, track, lunarFieldOf(gravity), fromTtJ2000S, toTtJ2000S, false);
+      elapsed.set(st.id, (a, b) => track.integralAt(b) - track.integralAt(a));
+      clocks.push({
+        id: st.id,
+        kind: 'station',
+        body: 'moon',
+        meanFractionalOffset: fig.slope,
+        driftNsPerDay: fig.slope * SECONDS_PER_DAY * 1e9,
+        periodicAmplitudeNs: fig.periodicNs,
+        elapsedOffsetNs: track.total * 1e9,
+        fromTtJ2000S,
+        toTtJ2000S,
+        flightEndTtJ2000S: null,
+      });
+      continue;
+    }
     const r = geodeticToEcefM(st.latDeg, st.lonDeg, st.heightM);
     const y = groundClockFractionalOffset(gravity, r[0], r[1], r[2], st.geoidHeightM);
     elapsed.set(st.id, (a, b) => y * (b - a));
     clocks.push({
       id: st.id,
       kind: 'station',
+      body: 'earth',
       meanFractionalOffset: y,
       driftNsPerDay: y * SECONDS_PER_DAY * 1e9,
       periodicAmplitudeNs: 0,

@@ -4,6 +4,7 @@
  * Orbits come from an {@link OrbitResolver} passed in (the edge's, which may read SP3 files), so
  * nothing here reads a file.
  */
+import { lunarAwareGravity } from './lunarScenario.ts';
 import { gravityModel, type GravityModel } from '../orbit/gravity.ts';
 import { TidalField } from '../clock/tides.ts';
 import type { OscillatorParams } from '../clock/oscillator.ts';
@@ -128,7 +129,8 @@ export function gravityWithTides(name: string, tides: boolean, ts: TimeSystem, w
 
 /** The scenario's gravity model, with the solar and lunar tides when it asks for them. */
 export function scenarioGravity(scenario: ScenarioSpec, ts: TimeSystem, path: string, name: string = scenario.gravity): GravityModel {
-  return gravityWithTides(name, scenario.tides, ts, `${path} gravity`);
+  // With clocks near the Moon: the Moon taken exactly and the Sun's tide, for every clock (lunarScenario.ts).
+  return lunarAwareGravity(scenario, gravityWithTides(name, scenario.tides, ts, `${path} gravity`));
 }
 
 /** Days from an element set's epoch to the farthest end of [from, to] when past SGP4's usual span, else null. */

@@ -21,6 +21,7 @@ export function compareToJson(r: CompareResult, ts: TimeSystem, meta: { scenario
     clocks: r.clocks.map((c) => ({
       id: c.id,
       kind: c.kind,
+      body: c.body,
       meanFractionalOffset: c.meanFractionalOffset,
       driftNsPerDay: c.driftNsPerDay,
       periodicAmplitudeNs: c.periodicAmplitudeNs,
@@ -38,10 +39,10 @@ export type CompareJson = ReturnType<typeof compareToJson>;
 /** Clocks, then pairs (kind `pair`, with a, b and the difference over their common interval from–to). */
 export function compareToCsv(r: CompareResult, ts: TimeSystem): string {
   return toCsv(
-    ['id', 'kind', 'meanFractionalOffset', 'driftNsPerDay', 'periodicAmplitudeNs', 'elapsedOffsetNs', 'from', 'to', 'flightEnd', 'a', 'b', 'elapsedDifferenceNs'],
+    ['id', 'kind', 'meanFractionalOffset', 'driftNsPerDay', 'periodicAmplitudeNs', 'elapsedOffsetNs', 'from', 'to', 'flightEnd', 'a', 'b', 'elapsedDifferenceNs', 'body'],
     [
-      ...r.clocks.map((c) => [c.id, c.kind, c.meanFractionalOffset, c.driftNsPerDay, c.periodicAmplitudeNs, c.elapsedOffsetNs, utc(ts, c.fromTtJ2000S), utc(ts, c.toTtJ2000S), c.flightEndTtJ2000S === null ? null : utc(ts, c.flightEndTtJ2000S), null, null, null]),
-      ...r.pairs.map((p) => [`${p.a} - ${p.b}`, 'pair', null, null, null, null, utc(ts, p.fromTtJ2000S), utc(ts, p.toTtJ2000S), null, p.a, p.b, p.elapsedDifferenceNs]),
+      ...r.clocks.map((c) => [c.id, c.kind, c.meanFractionalOffset, c.driftNsPerDay, c.periodicAmplitudeNs, c.elapsedOffsetNs, utc(ts, c.fromTtJ2000S), utc(ts, c.toTtJ2000S), c.flightEndTtJ2000S === null ? null : utc(ts, c.flightEndTtJ2000S), null, null, null, c.body]),
+      ...r.pairs.map((p) => [`${p.a} - ${p.b}`, 'pair', null, null, null, null, utc(ts, p.fromTtJ2000S), utc(ts, p.toTtJ2000S), null, p.a, p.b, p.elapsedDifferenceNs, null]),
     ],
   );
 }
@@ -63,7 +64,7 @@ export function compareToText(r: CompareResult, ts: TimeSystem, meta: { scenario
       ['clock', 'kind', 'mean fractional offset', 'ns/day', 'periodic ns', 'elapsed − TT ns', 'interval'],
       r.clocks.map((c) => [
         c.id,
-        c.kind,
+        c.body === 'moon' ? `${c.kind} (Moon)` : c.kind,
         sci(c.meanFractionalOffset, 5),
         signed(c.driftNsPerDay, 3),
         fixed(c.periodicAmplitudeNs, 3),
@@ -81,6 +82,9 @@ export function compareToText(r: CompareResult, ts: TimeSystem, meta: { scenario
     ),
     '',
     'Station clocks: W = U + ω²ρ²/2 in the scenario gravity model, lowered by g·N/c² for the given geoid undulation N.',
+    ...(r.clocks.some((c) => c.body === 'moon')
+      ? ['Clocks near the Moon: geocentric-metric rate with the Moon\'s potential taken exactly and the Sun\'s tide (for every clock of this scenario); orbiters\' means remove −2ρ·u/c² and −v_M·ρ/c²; the monthly Earth–Moon term (about 0.47 µs) stays in, so use whole anomalistic months for long-term rates.']
+      : []),
     PLANNING_CAUTION,
     '',
   ];

@@ -2,9 +2,9 @@
  * Lunar orbits from user input (Keplerian elements about the Moon, or an LCRS state) for the use
  * cases: the checks, the propagation, and the ±1 km rebuild for the measured sensitivity.
  */
-import { checkLunarElements, lunarElementsToLcrs, type LcrsState, type LunarElementsDegKm } from '../orbit/lunarFrames.ts';
-import { LunarOrbitTrajectory, type LunarForces } from '../orbit/lunarOrbit.ts';
-import { MOON_DEGREE_2, MOON_POINT_MASS } from '../orbit/moonGravity.ts';
+import { checkLunarElements, lunarElementsToLcrs, type LcrsState, type LunarElementsDegKm } from './lunarFrames.ts';
+import { LunarOrbitTrajectory, type LunarForces } from './lunarOrbit.ts';
+import { MOON_DEGREE_2, MOON_POINT_MASS } from './moonGravity.ts';
 
 /** Named force models of a lunar orbit: `point` (two-body, exact) or `full` (J2, C22, Earth, Sun; the default). */
 export type LunarForceModelName = 'point' | 'full';
