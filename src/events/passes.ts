@@ -30,11 +30,9 @@
  * (`truncated`). A planner that needs `minPassS` inside the window checks `durationS` itself.
  * Every iteration is capped; hitting a cap throws InternalError.
  */
-import { WGS84_GM_M3_PER_S2 } from '../constants.ts';
+import { WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../constants.ts';
 import { InputError, InternalError } from '../errors.ts';
-import { temeToEcef } from '../orbit/frames.ts';
-import { allocStateBlock, checkSpan, positionInto, type Trajectory } from '../orbit/trajectory.ts';
-import { vec3 } from '../orbit/vec.ts';
+import { allocStateBlock, checkSpan, positionInto, stateInto, type Trajectory } from '../orbit/trajectory.ts';
 import { elevationRad, elevationRateSignM4PerS, stationFrame, type StationFrame } from './lookAngles.ts';
 import { checkStation, type Station } from './station.ts';
 
@@ -174,15 +172,21 @@ class Evaluator {
   ) {}
   /** Earth-fixed position [m] and velocity [m/s] at t, into out[0..5]. */
   ecefAt(t: number, out: Float64Array): void {
-    const s = this.traj.stateAt(t);
+    stateInto(this.traj, t, out);
     this.statesEvaluated++;
-    const { r, v } = temeToEcef(vec3<'TEME'>(s.positionM[0], s.positionM[1], s.positionM[2]), vec3<'TEME'>(s.velocityMPerS[0], s.velocityMPerS[1], s.velocityMPerS[2]), this.gmstRadAt(t));
-    out[0] = r[0];
-    out[1] = r[1];
-    out[2] = r[2];
-    out[3] = v[0];
-    out[4] = v[1];
-    out[5] = v[2];
+    // temeToEcef (src/orbit/frames.ts) in place: r_e = R·r, v_e = R·v − ω × r_e.
+    const g = this.gmstRadAt(t);
+    const c = Math.cos(g);
+    const s = Math.sin(g);
+    const x = c * out[0] + s * out[1];
+    const y = -s * out[0] + c * out[1];
+    const vx = c * out[3] + s * out[4];
+    const vy = -s * out[3] + c * out[4];
+    const w = WGS84_OMEGA_RAD_PER_S;
+    out[0] = x;
+    out[1] = y;
+    out[3] = vx + w * y;
+    out[4] = vy - w * x;
   }
   /** Earth-fixed position [m] only at t, into out[0..2] (one SGP4 call where `ecefAt` may take several). */
   ecefPositionAt(t: number, out: Float64Array): void {
@@ -382,9 +386,19 @@ export function findPassesMany(
     ev.statesEvaluated += n;
     const p = block.positionM;
     const v = block.velocityMPerS;
+    const w = WGS84_OMEGA_RAD_PER_S;
     for (let i = 0; i < n; i++) {
-      const { r, v: ve } = temeToEcef(vec3<'TEME'>(p[3 * i], p[3 * i + 1], p[3 * i + 2]), vec3<'TEME'>(v[3 * i], v[3 * i + 1], v[3 * i + 2]), gmstRadAt(ts[i]));
-      for (const scan of scans) scan.push(ts[i], scan.fOf(r[0], r[1], r[2]), scan.gOf(r[0], r[1], r[2], ve[0], ve[1], ve[2]));
+      // temeToEcef (src/orbit/frames.ts) without allocation.
+      const g = gmstRadAt(ts[i]);
+      const c = Math.cos(g);
+      const s = Math.sin(g);
+      const x = c * p[3 * i] + s * p[3 * i + 1];
+      const y = -s * p[3 * i] + c * p[3 * i + 1];
+      const z = p[3 * i + 2];
+      const vx = c * v[3 * i] + s * v[3 * i + 1] + w * y;
+      const vy = -s * v[3 * i] + c * v[3 * i + 1] - w * x;
+      const vz = v[3 * i + 2];
+      for (const scan of scans) scan.push(ts[i], scan.fOf(x, y, z), scan.gOf(x, y, z, vx, vy, vz));
     }
   }
   for (const scan of scans) scan.finish();

@@ -213,6 +213,23 @@ export class Sgp4Trajectory implements Trajectory {
     return { ...s, velocityMPerS: vec3<'TEME'>((a.x - 8 * b.x + 8 * c.x - d.x) * k, (a.y - 8 * b.y + 8 * c.y - d.y) * k, (a.z - 8 * b.z + 8 * c.z - d.z) * k) };
   }
 
+  /** State at `ttJ2000S` into out[0..5] (TEME, m and m/s): the numbers `stateAt` gives, with no allocation. */
+  stateInto(ttJ2000S: number, out: Float64Array): void {
+    const satrec = satrecOf.get(this) as SatRec;
+    if (!(this.derivativeVelocity && rateCovers(satrec as unknown as Sgp4RecordFields))) {
+      const s = this.stateAt(ttJ2000S);
+      for (let k = 0; k < 3; k++) {
+        out[k] = s.positionM[k];
+        out[3 + k] = s.velocityMPerS[k];
+      }
+      return;
+    }
+    checkSpan(this, ttJ2000S, (t) => this.formatUtc(t));
+    this.differentiated(satrec, ttJ2000S);
+    countStates(1, 1);
+    for (let k = 0; k < 6; k++) out[k] = rateOut[k] * 1000;
+  }
+
   /** Position [m, TEME] at `ttJ2000S` into out[0..2]: one SGP4 call, the position `stateAt` gives. */
   positionInto(ttJ2000S: number, out: Float64Array): void {
     checkSpan(this, ttJ2000S, (t) => this.formatUtc(t));

@@ -41,6 +41,23 @@ export interface Trajectory {
    * errors as `stateAt`; the position is the one `stateAt` gives, bit for bit.
    */
   positionInto?(ttJ2000S: number, out: Float64Array): void;
+  /** State at one instant into out[0..5] (position m, velocity m/s), as `stateAt` gives it, with no allocation. Optional. */
+  stateInto?(ttJ2000S: number, out: Float64Array): void;
+}
+
+/** State of `traj` at one instant into out[0..5]: {@link Trajectory.stateInto} when the source has it. */
+export function stateInto(traj: Trajectory, ttJ2000S: number, out: Float64Array): void {
+  if (traj.stateInto !== undefined) {
+    traj.stateInto(ttJ2000S, out);
+    return;
+  }
+  const s = traj.stateAt(ttJ2000S);
+  out[0] = s.positionM[0];
+  out[1] = s.positionM[1];
+  out[2] = s.positionM[2];
+  out[3] = s.velocityMPerS[0];
+  out[4] = s.velocityMPerS[1];
+  out[5] = s.velocityMPerS[2];
 }
 
 /** Position [m] of `traj` at one instant into out[0..2]: {@link Trajectory.positionInto} when the source has it. */

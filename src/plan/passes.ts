@@ -5,7 +5,7 @@
  */
 import { conventionalPeriodicS } from '../clock/rate.ts';
 import { oneWayTerms } from '../events/oneWay.ts';
-import { findPassesMany, type GmstRadAt, type Pass } from '../events/passes.ts';
+import { findPassesMany, passGridStepS, type GmstRadAt, type Pass } from '../events/passes.ts';
 import { geodeticToEcefM, type Station } from '../events/station.ts';
 import type { SatelliteClockRun } from './satelliteClock.ts';
 
@@ -67,4 +67,24 @@ export function planPasses(runs: readonly SatelliteClockRun[], stations: readonl
 /** The report order: AOS, then satellite id, then station id. */
 export function comparePassRows(a: PassClockRow, b: PassClockRow): number {
   return a.aosTtJ2000S - b.aosTtJ2000S || a.satelliteId.localeCompare(b.satelliteId) || a.stationId.localeCompare(b.stationId);
+}
+
+/**
+ * The passes a keep-in plan can use, per run (same order): only at uplink stations and at least the
+ * station's `minPassS` long, with no clock rows (a plan needs AOS, TCA and LOS only). The search
+ * grid is the one {@link planPasses} uses over all `stations`, so the passes found are the same.
+ */
+export function uplinkContacts(runs: readonly SatelliteClockRun[], stations: readonly (Station & { uplink?: boolean })[], gmstRadAt: GmstRadAt, fromTtJ2000S: number, toTtJ2000S: number): Pass[][] {
+  const uplink = stations.filter((s) => s.uplink !== false);
+  const minPassS = Math.min(...stations.map((s) => s.minPassS));
+  return runs.map((run) => {
+    const from = Math.max(fromTtJ2000S, run.startTtJ2000S ?? fromTtJ2000S);
+    const to = Math.min(toTtJ2000S, run.endTtJ2000S);
+    if (uplink.length === 0 || !(to > from)) return [];
+    const s0 = run.trajectory.stateAt(from);
+    const gridStepS = passGridStepS(s0.positionM, s0.velocityMPerS, minPassS);
+    const found = findPassesMany(run.trajectory, uplink, gmstRadAt, from, to, { gridStepS });
+    const minOf = new Map(uplink.map((s) => [s.id, s.minPassS]));
+    return found.passes.filter((p) => p.durationS >= (minOf.get(p.stationId) ?? 0));
+  });
 }
