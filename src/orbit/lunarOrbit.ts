@@ -17,6 +17,7 @@ import { IERS2010_GM_SUN_M3_PER_S2, WGS84_GM_M3_PER_S2 } from '../constants.ts';
 import { InputError, InternalError } from '../errors.ts';
 import { elementsFromState, keplerState, type KeplerianElements } from './keplerian.ts';
 import { checkLunarEphemerisSpan, moonStateGcrfInto, sunStateGcrfInto } from './lunarEphemeris.ts';
+import { lcrsToLunarElements } from './lunarFrames.ts';
 import { IAU_MOON_MEAN_RADIUS_M, icrfToMoonFixedInto } from './moonBody.ts';
 import { moonAccelerationInertialInto, type MoonGravityModel } from './moonGravity.ts';
 import { hermiteInto } from './numericalDense.ts';
@@ -127,6 +128,14 @@ export class LunarOrbitTrajectory implements Trajectory {
     const { taus, nodes } = this.integrate(opts);
     this.taus = taus;
     this.nodes = nodes;
+  }
+
+  /** Osculating elements about the Moon at an instant (Moon mean equator of that instant), two-body about GM_M. */
+  osculatingAt(ttJ2000S: number): KeplerianElements {
+    const r = new Float64Array(3);
+    const v = new Float64Array(3);
+    this.lcrsStateInto(ttJ2000S, r, v, 0);
+    return lcrsToLunarElements({ positionM: [r[0], r[1], r[2]], velocityMPerS: [v[0], v[1], v[2]] }, this.forces.moon.gmM3PerS2, ttJ2000S);
   }
 
   /** Orbital period of the osculating epoch elements about the Moon [s]. */

@@ -15,12 +15,10 @@ import { SPEED_OF_LIGHT_SQUARED_M2_PER_S2 as C2 } from '../clock/rate.ts';
 import { clockStepS } from '../clock/integrate.ts';
 import { LunarExternalField, type LunarRateParts } from '../clock/lunarRate.ts';
 import type { GravityModel } from '../orbit/gravity.ts';
-import { lcrsToLunarElements } from '../orbit/lunarFrames.ts';
 import { LunarOrbitTrajectory } from '../orbit/lunarOrbit.ts';
 import { LunarSurfaceTrajectory, MEAN_SUB_EARTH_POINT, type SelenographicSite } from '../orbit/lunarSurface.ts';
-import { IAU_MOON_MEAN_RADIUS_M } from '../orbit/moonBody.ts';
 import { analyseLunarRate, ANOMALISTIC_MONTH_S } from './lunarRates.ts';
-import type { OrbitSummary, SizeResult } from './size.ts';
+import { orbitSummaryAt, type OrbitSummary, type SizeResult } from './size.ts';
 
 /** What the recommended frequency keeps: TT (a geoid clock's rate) or the lunar surface reference. */
 export type LunarKeep = 'TT' | 'lunar-surface';
@@ -57,25 +55,12 @@ export interface LunarSizeResult extends SizeResult {
   crossTermAmplitudeNs: number;
 }
 
-function summary(traj: LunarOrbitTrajectory | LunarSurfaceTrajectory, t: number, gm: number): OrbitSummary {
+function summary(traj: LunarOrbitTrajectory | LunarSurfaceTrajectory, t: number): OrbitSummary {
   if (traj instanceof LunarSurfaceTrajectory) {
     const h = traj.site.heightM / 1000;
     return { aKm: NaN, e: 0, iDeg: NaN, periodS: NaN, perigeeAltitudeKm: h, apogeeAltitudeKm: h };
   }
-  const r = new Float64Array(3);
-  const v = new Float64Array(3);
-  traj.lcrsStateInto(t, r, v, 0);
-  const el = lcrsToLunarElements({ positionM: [r[0], r[1], r[2]], velocityMPerS: [v[0], v[1], v[2]] }, gm, t);
-  const aKm = el.aM / 1000;
-  const rKm = IAU_MOON_MEAN_RADIUS_M / 1000;
-  return {
-    aKm,
-    e: el.e,
-    iDeg: (el.iRad * 180) / Math.PI,
-    periodS: 2 * Math.PI * Math.sqrt(el.aM ** 3 / gm),
-    perigeeAltitudeKm: aKm * (1 - el.e) - rKm,
-    apogeeAltitudeKm: aKm * (1 + el.e) - rKm,
-  };
+  return orbitSummaryAt(traj, t, traj.forces.moon.gmM3PerS2);
 }
 
 /** The step for a lunar clock: as for Earth orbits, by its period about the Moon; an hour for surface clocks. */
@@ -91,7 +76,7 @@ export function sizeLunarClock(req: LunarSizeRequest): LunarSizeResult {
   const orbiting = traj instanceof LunarOrbitTrajectory;
   const gmMoon = orbiting ? traj.forces.moon.gmM3PerS2 : 4.902800066e12;
   const field = new LunarExternalField(orbiting ? traj.forces.moon : undefined);
-  const orbit = summary(traj, from, gmMoon);
+  const orbit = summary(traj, from);
   const step = stepFor(orbit);
   const run = analyseLunarRate(traj, earthGravity, field, from, spanS, step, orbiting);
   const refTraj = new LunarSurfaceTrajectory('lunar surface reference', reference, from, from + spanS);

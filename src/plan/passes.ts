@@ -8,6 +8,9 @@ import { oneWayTerms } from '../events/oneWay.ts';
 import { findPassesMany, passGridStepS, type GmstRadAt, type Pass } from '../events/passes.ts';
 import { geodeticToEcefM, type Station } from '../events/station.ts';
 import type { SatelliteClockRun } from './satelliteClock.ts';
+import { needsLunarPasses } from '../events/lunarPasses.ts';
+import { lunarPassRows } from './lunarPasses.ts';
+import type { BodyStation } from './lunarScenario.ts';
 
 /** One pass with the clock along it. Times in seconds since J2000.0 TT. */
 export interface PassClockRow extends Pass {
@@ -30,12 +33,24 @@ export interface PassPlan {
 }
 
 /** Passes with the clock along them, sorted by AOS then satellite then station. */
-export function planPasses(runs: readonly SatelliteClockRun[], stations: readonly Station[], gmstRadAt: GmstRadAt, fromTtJ2000S: number, toTtJ2000S: number): PassPlan {
+export function planPasses(runs: readonly SatelliteClockRun[], stations: readonly BodyStation[], gmstRadAt: GmstRadAt, fromTtJ2000S: number, toTtJ2000S: number): PassPlan {
   const rows: PassClockRow[] = [];
   let statesEvaluated = 0;
   const stationEcef = new Map(stations.map((s) => [s.id, geodeticToEcefM(s.latDeg, s.lonDeg, s.heightM)]));
   for (const run of runs) {
-    const found = findPassesMany(run.trajectory, stations, gmstRadAt, Math.max(fromTtJ2000S, run.startTtJ2000S ?? fromTtJ2000S), Math.min(toTtJ2000S, run.endTtJ2000S));
+    const from = Math.max(fromTtJ2000S, run.startTtJ2000S ?? fromTtJ2000S);
+    const to = Math.min(toTtJ2000S, run.endTtJ2000S);
+    // Stations on the Moon and satellites about it go through the lunar pass finder (light time,
+    // the other body blocking the line of sight); the rest through the Earth one, unchanged.
+    const lunar = stations.filter((st) => needsLunarPasses(run.trajectory, st));
+    const earth = stations.filter((st) => !needsLunarPasses(run.trajectory, st));
+    if (lunar.length > 0) {
+      const lunarRows = lunarPassRows(run, lunar, gmstRadAt, from, to);
+      rows.push(...lunarRows.rows);
+      statesEvaluated += lunarRows.statesEvaluated;
+    }
+    if (earth.length === 0) continue;
+    const found = findPassesMany(run.trajectory, earth, gmstRadAt, from, to);
     statesEvaluated += found.statesEvaluated;
     for (const p of found.passes) {
       const atAos = run.clock.offsetNs(p.aosTtJ2000S);
