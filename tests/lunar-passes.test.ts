@@ -95,3 +95,29 @@ describe('passes on the invented relay scenario (tests/fixtures/lunar/relay.yaml
     }
   });
 });
+
+describe('resets for a lunar orbiter (invented relay, LR-1 given a clock)', () => {
+  it('plans adjustments inside real passes of lunar and Earth stations, before the crossing', async () => {
+    const { readFileSync } = await import('node:fs');
+    const { loadScenario } = await import('../src/api/scenario.ts');
+    const { planResets } = await import('../src/api/resets.ts');
+    const { predictPasses } = await import('../src/api/passes.ts');
+    // Tuned to about −6.664e-10 (its monthly mean, `size --body moon`), keep-in ±200 ns: the monthly
+    // Earth–Moon term (0.47 µs against TT) crosses the limit within days.
+    const text = readFileSync('tests/fixtures/lunar/relay.yaml', 'utf8').replace(
+      '    name: Lunar relay 1 (invented)\n',
+      '    name: Lunar relay 1 (invented)\n    clock: { hardwareFractionalOffset: -6.664e-10, keepInNs: 200 }\n',
+    );
+    const scenario = loadScenario(text.replace('end: 2027-01-28T13:18:33 TT', 'end: 2027-01-11T00:00:00 TT'), { fileName: 'relay-clock.yaml' });
+    const plan = planResets(scenario, { horizon: '10d' });
+    const sats = plan.satellites as { satellite: string; firstCrossing: unknown; adjustments: { at: string; station: string }[] }[];
+    const lr1 = sats.find((s) => s.satellite === 'LR-1')!;
+    expect(lr1.firstCrossing).not.toBeNull();
+    expect(lr1.adjustments.length).toBeGreaterThan(0);
+    const passes = predictPasses(scenario, { to: '2027-01-11T00:00:00 TT' }).passes.filter((p) => p.satellite === 'LR-1');
+    for (const a of lr1.adjustments) {
+      const inside = passes.some((p) => p.station === a.station && p.aos <= a.at && a.at <= p.los);
+      expect(inside, `adjustment at ${a.at} via ${a.station} is not inside a pass`).toBe(true);
+    }
+  });
+});

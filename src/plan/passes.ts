@@ -8,7 +8,7 @@ import { oneWayTerms } from '../events/oneWay.ts';
 import { findPassesMany, passGridStepS, type GmstRadAt, type Pass } from '../events/passes.ts';
 import { geodeticToEcefM, type Station } from '../events/station.ts';
 import type { SatelliteClockRun } from './satelliteClock.ts';
-import { needsLunarPasses } from '../events/lunarPasses.ts';
+import { earthLinkStation, findLunarPasses, lunarLinkStation, needsLunarPasses } from '../events/lunarPasses.ts';
 import { lunarPassRows } from './lunarPasses.ts';
 import type { BodyStation } from './lunarScenario.ts';
 
@@ -96,10 +96,16 @@ export function uplinkContacts(runs: readonly SatelliteClockRun[], stations: rea
     const from = Math.max(fromTtJ2000S, run.startTtJ2000S ?? fromTtJ2000S);
     const to = Math.min(toTtJ2000S, run.endTtJ2000S);
     if (uplink.length === 0 || !(to > from)) return [];
+    // Stations on the Moon, and any station for a satellite about the Moon: the lunar pass finder.
+    const lunar = uplink.filter((st) => needsLunarPasses(run.trajectory, st as BodyStation));
+    const earth = uplink.filter((st) => !needsLunarPasses(run.trajectory, st as BodyStation));
+    const lunarPasses = lunar.flatMap((st) => findLunarPasses(run.trajectory, (st as BodyStation).body === 'moon' ? lunarLinkStation(st, from, to) : earthLinkStation(st, gmstRadAt), from, to).passes);
+    const minOf = new Map(uplink.map((s) => [s.id, s.minPassS]));
+    const keep = (p: Pass): boolean => p.durationS >= (minOf.get(p.stationId) ?? 0);
+    if (earth.length === 0) return lunarPasses.filter(keep).sort((a, b) => a.aosTtJ2000S - b.aosTtJ2000S);
     const s0 = run.trajectory.stateAt(from);
     const gridStepS = passGridStepS(s0.positionM, s0.velocityMPerS, minPassS);
-    const found = findPassesMany(run.trajectory, uplink, gmstRadAt, from, to, { gridStepS });
-    const minOf = new Map(uplink.map((s) => [s.id, s.minPassS]));
-    return found.passes.filter((p) => p.durationS >= (minOf.get(p.stationId) ?? 0));
+    const found = findPassesMany(run.trajectory, earth, gmstRadAt, from, to, { gridStepS });
+    return [...found.passes, ...lunarPasses].filter(keep).sort((a, b) => a.aosTtJ2000S - b.aosTtJ2000S || a.stationId.localeCompare(b.stationId));
   });
 }

@@ -3,6 +3,8 @@
  * ECEF, for analysts' own tools (contract `tauplan track`).
  */
 import { conventionalPeriodicS } from '../clock/rate.ts';
+import { LunarOrbitTrajectory } from '../orbit/lunarOrbit.ts';
+import { periodicTermAtS } from './lunarPasses.ts';
 import { applyMatrix, equationOfEquinoxesRadAtTt, temeToEcef, todToTeme, transpose, type Matrix3 } from '../orbit/frames.ts';
 import { gcrfToTemeInto } from '../orbit/temeOfDate.ts';
 
@@ -58,13 +60,15 @@ export function trackSatellite(run: SatelliteClockRun, fromTtJ2000S: number, toT
   const block = allocStateBlock(n);
   run.trajectory.sampleInto(t, block);
   const src = run.trajectory.frame;
+  const lunar = run.trajectory instanceof LunarOrbitTrajectory;
   const rows: TrackRow[] = [];
   for (let i = 0; i < n; i++) {
     const p = block.positionM;
     const v = block.velocityMPerS;
     const r0 = [p[3 * i], p[3 * i + 1], p[3 * i + 2]];
     const v0 = [v[3 * i], v[3 * i + 1], v[3 * i + 2]];
-    const periodicNs = conventionalPeriodicS(r0[0], r0[1], r0[2], v0[0], v0[1], v0[2]) * 1e9;
+    // About the Moon the periodic pair is −2ρ·u/c² − v_M·ρ/c² (lunarPasses.ts), else −2r·v/c².
+    const periodicNs = (lunar ? periodicTermAtS(run.trajectory, t[i]) : conventionalPeriodicS(r0[0], r0[1], r0[2], v0[0], v0[1], v0[2])) * 1e9;
     // Bring the state to TEME of date first (the hub here), then to the wanted frame.
     let rTeme: Vec3<'TEME'>;
     let vTeme: Vec3<'TEME'>;
