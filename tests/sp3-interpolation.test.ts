@@ -11,11 +11,14 @@
  * from tauplan's two-body trajectory; truth.json holds the generating elements, so every
  * reference state below is recomputed (derived), never pasted.
  */
-import { readFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { gzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
 import { buildSp3Fixtures, truthJson, truthStateTeme, type Sp3FixtureTruth } from '../scripts/make-sp3-fixtures.ts';
 import { OrbitFileError, SpanError } from '../src/errors.ts';
-import { parseSp3, type Sp3File } from '../src/io/sp3.ts';
+import { parseSp3, readSp3File, type Sp3File } from '../src/io/sp3.ts';
 import { defaultTimeSystem } from '../src/io/tables.ts';
 import { gmstRad } from '../src/orbit/frames.ts';
 import { gmstRadFromUtcJ2000S, Sp3Trajectory } from '../src/orbit/sp3.ts';
@@ -176,6 +179,19 @@ describe('parseSp3 (SP3-d header and records)', () => {
     throw new Error('no error thrown');
   }
   const lineOf = (name: string, prefix: string): number => readText(name).split('\n').findIndex((l) => l.startsWith(prefix)) + 1;
+
+  it('refuses a blank line inside the data section at the blank line, but accepts blank lines after EOF', () => {
+    const at = lineOf(MEO, '*  ') + 3;
+    const e = broken((l) => l.splice(at - 1, 0, '   '));
+    expect([e.line, e.what]).toEqual([at, 'blank line in the data section']);
+    expect(() => parseSp3(`${readText(MEO)}\n\n  \n`, 'tail.sp3')).not.toThrow();
+  });
+
+  it('refuses text after EOF at its line, after the epoch count is checked', () => {
+    const n = readText(MEO).split('\n').findIndex((l) => l.startsWith('EOF')) + 1;
+    const e = broken((l) => l.splice(n, 0, '', 'extra'));
+    expect([e.line, e.what]).toEqual([n + 2, 'text after "EOF"']);
+  });
 
   it('refuses a wrong version character at line 1 column 2', () => {
     const e = broken((l) => (l[0] = '#e' + l[0].slice(2)));
@@ -402,5 +418,18 @@ describe('Sp3Trajectory: gaps, bad records and maneuvers are refused', () => {
 
   it('an unknown satellite id is refused', () => {
     expect(() => new Sp3Trajectory(f, 'X03', ts)).toThrow(/X03 is not in the SP3 file/);
+  });
+});
+
+describe('streamed read (header part, then the epochs line by line)', () => {
+  it('a gzip copy read from disk gives the same file as the text parsed whole, for P and P+V files', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'tauplan-sp3-'));
+    for (const name of [MEO, LEO, GAP]) {
+      const p = join(dir, `${name}.gz`);
+      writeFileSync(p, gzipSync(readText(name)));
+      const streamed = readSp3File(p, '--orbit');
+      const whole = load(name);
+      expect({ ...streamed, fileName: name }).toEqual(whole);
+    }
   });
 });

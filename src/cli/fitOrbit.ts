@@ -7,12 +7,12 @@ import { gravityModel, type GravityModel } from '../orbit/gravity.ts';
 import { InputError } from '../errors.ts';
 import type { ClockFile } from '../io/clockReader.ts';
 import { loadScenario, scenarioSatellite } from '../io/loadScenario.ts';
-import { parseOmmFile, type OmmRecord } from '../io/omm.ts';
-import { idOf, oemTrajectory, pickElementSet, sgp4Span } from '../io/orbitSources.ts';
-import { parseSp3, type Sp3File } from '../io/sp3.ts';
+import type { OmmRecord } from '../io/omm.ts';
+import { idOf, oemTrajectory, pickElementSet, readElementSets, sgp4Span } from '../io/orbitSources.ts';
+import { readSp3File, type Sp3File } from '../io/sp3.ts';
 import type { Sp3ClockFile } from '../io/sp3Clock.ts';
-import { readTextWhole } from '../io/textSource.ts';
-import { parseTleFile, type TleRecord } from '../io/tle.ts';
+import { readHeadLines } from '../io/textSource.ts';
+import type { TleRecord } from '../io/tle.ts';
 import { trajectoryForSatellite } from '../io/orbitSources.ts';
 import { Sgp4Trajectory } from '../orbit/sgp4.ts';
 import { Sp3Trajectory } from '../orbit/sp3.ts';
@@ -41,16 +41,9 @@ export function orbitFileKind(text: string): 'sp3' | 'oem' | 'omm' | 'tle' | 'sc
   return 'scenario';
 }
 
-const sp3Cache = new Map<string, Sp3File>();
-
 /** A parsed SP3 file (gzip or not), read once per process. */
 export function readSp3Orbit(path: string, flag: string): Sp3File {
-  let f = sp3Cache.get(path);
-  if (f === undefined) {
-    f = parseSp3(readTextWhole(path, 'orbit', flag), path);
-    sp3Cache.set(path, f);
-  }
-  return f;
+  return readSp3File(path, flag);
 }
 
 /** Orbit flags of `fit`. */
@@ -83,7 +76,7 @@ export function fitOrbit(a: FitOrbitFlags, clock: string | undefined, file: Cloc
     return null;
   }
   const flag = a.orbit !== undefined ? '--orbit' : '--scenario';
-  const kind = a.scenario !== undefined ? 'scenario' : orbitFileKind(readTextWhole(path, 'orbit', flag).slice(0, 4000));
+  const kind = a.scenario !== undefined ? 'scenario' : orbitFileKind(readHeadLines(path, 'orbit', flag, 60).join('\n').slice(0, 4000));
   switch (kind) {
     case 'sp3': {
       const sp3 = readSp3Orbit(path, flag);
@@ -96,8 +89,7 @@ export function fitOrbit(a: FitOrbitFlags, clock: string | undefined, file: Cloc
       return { trajectory: oemTrajectory(path, clock, ts, flag), gravity: gravityModel(gravityName), label: `OEM ${path}`, where: path };
     case 'tle':
     case 'omm': {
-      const text = readTextWhole(path, 'elements', flag);
-      const recs: (TleRecord | OmmRecord)[] = kind === 'tle' ? parseTleFile(text, path) : parseOmmFile(text, path);
+      const recs: (TleRecord | OmmRecord)[] = readElementSets(path, kind, flag);
       const rec = pickElementSet(recs, clock, path);
       const trajectory = new Sgp4Trajectory(rec, ts, { id: idOf(rec), spanFor: (epoch) => sgp4Span(epoch, span) });
       return { trajectory, gravity: gravityModel(gravityName), label: `${kind.toUpperCase()} ${path}`, where: path };

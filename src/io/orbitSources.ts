@@ -18,7 +18,7 @@ import type { TimeSystem } from '../time/timeSystem.ts';
 import { readLinesSync, readTextWhole, type InputKind } from './textSource.ts';
 import { parseOmmFile, ommFromObject, type OmmRecord } from './omm.ts';
 import type { SatelliteSpec, ScenarioSpec } from './scenario.ts';
-import { parseSp3, type Sp3File } from './sp3.ts';
+import { readSp3File, type Sp3File } from './sp3.ts';
 import { parseTleFile, parseTleLines, type TleRecord } from './tle.ts';
 
 /** A span of interest, seconds since J2000.0 TT. */
@@ -106,15 +106,8 @@ export function readElementSets(path: string, kind: 'tle' | 'omm', flag: string)
 /** Padding of computed trajectories beyond the requested span [s]. */
 export const SPAN_PAD_S = 120;
 
-const sp3Cache = new Map<string, Sp3File>();
-
 function readSp3(path: string, where: string): Sp3File {
-  let f = sp3Cache.get(path);
-  if (f === undefined) {
-    f = parseSp3(readTextFile(path, where, 'orbit'), path);
-    sp3Cache.set(path, f);
-  }
-  return f;
+  return readSp3File(path, where);
 }
 
 /** Read and parse every SP3 file a scenario names now, so that resolving its orbits reads nothing. */

@@ -1,7 +1,7 @@
 /**
  * The clock column of SP3-c/SP3-d files as a measurement series ("The Extended Standard Product 3
- * Orbit Format (SP3-d)", S. Hilla, IGS, 2016; same columns in SP3-c). The whole file is parsed
- * by {@link parseSp3} (an SP3 day is a few MB), so the same parse serves as the orbit.
+ * Orbit Format (SP3-d)", S. Hilla, IGS, 2016; same columns in SP3-c). The file streams through
+ * {@link Sp3Reader}, and the parsed file serves as the orbit too.
  *
  * Per satellite: the `P` record's clock (µs, columns 47–60) becomes offsetNs = µs × 1000;
  * `999999.999999` means no value and is skipped and counted, never read as a number; a clock-event
@@ -12,7 +12,7 @@
 import type { MeasurementSeries } from '../model/measurements.ts';
 import { noteSkipped } from '../model/measurements.ts';
 import { appendSample, seriesFor, type ClockFile, type ClockReadOptions, type LineReader } from './clockReader.ts';
-import { parseSp3, type Sp3File } from './sp3.ts';
+import { Sp3Reader, type Sp3File } from './sp3.ts';
 import type { TextLine } from './textSource.ts';
 
 /** A clock file read from SP3, with the parsed SP3 kept for use as the orbit. */
@@ -48,16 +48,16 @@ export function sp3ClockSeries(sp3: Sp3File, o: ClockReadOptions): Sp3ClockFile 
   return { format: 'sp3', fileName: sp3.fileName, clocks: [...sp3.satelliteIds], series, notes, sp3 };
 }
 
-/** Line-by-line front for the format dispatcher: collects the text, then parses it whole. */
+/** Line-by-line front for the format dispatcher: the SP3 reader streams, the series are taken at the end. */
 export class Sp3ClockReader implements LineReader {
-  private readonly lines: string[] = [];
-  constructor(private readonly o: ClockReadOptions) {}
+  private readonly sp3: Sp3Reader;
+  constructor(private readonly o: ClockReadOptions) {
+    this.sp3 = new Sp3Reader(o.fileName);
+  }
   push(l: TextLine): void {
-    this.lines.push(l.text);
+    this.sp3.push(l);
   }
   finish(): Sp3ClockFile {
-    const sp3 = parseSp3(this.lines.join('\n'), this.o.fileName);
-    this.lines.length = 0;
-    return sp3ClockSeries(sp3, this.o);
+    return sp3ClockSeries(this.sp3.finish(), this.o);
   }
 }

@@ -373,6 +373,36 @@ export function readTextWhole(path: string, kind: InputKind, where: string): str
   return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
 }
 
+/**
+ * The first `maxLines` lines of an input (to recognise its format) without reading the rest.
+ * Standard input and FIFOs are read whole and kept, so the reader that follows still gets them.
+ */
+export function readHeadLines(path: string, kind: InputKind, where: string, maxLines: number): string[] {
+  const out: string[] = [];
+  if (STDIN_PATHS.has(path) || streamed.has(path) || isFifo(path)) {
+    for (const l of linesOf(readTextWhole(path, kind, where))) {
+      if (out.length >= maxLines) break;
+      out.push(l.text);
+    }
+    return out;
+  }
+  const it = readLinesSync(path, kind, where);
+  try {
+    for (let r = it.next(); r.done !== true && out.length < maxLines; r = it.next()) out.push(r.value.text);
+  } finally {
+    it.return(undefined);
+  }
+  return out;
+}
+
+function isFifo(path: string): boolean {
+  try {
+    return statSync(path).isFIFO();
+  } catch {
+    return false;
+  }
+}
+
 /** {@link readTextWhole} with the arguments in the order of the former readInput.ts. */
 export function readInputText(path: string, where: string, kind: InputKind = 'text'): string {
   return readTextWhole(path, kind, where);

@@ -7,8 +7,8 @@ import type { NavSystem } from '../../clock/navMessage.ts';
 import { conventionalPeriodicS } from '../../clock/rate.ts';
 import { InputError } from '../../errors.ts';
 import { readRinexNav } from '../../io/rinexNav.ts';
-import { parseSp3, type Sp3File } from '../../io/sp3.ts';
-import { readInputText } from '../../io/textSource.ts';
+import { readSp3File as readSp3, type Sp3File } from '../../io/sp3.ts';
+import { readHeadLines } from '../../io/textSource.ts';
 import { Sp3Trajectory } from '../../orbit/sp3.ts';
 import { evaluateBroadcastClocks, type BroadcastEvalResult, type PreciseClockSeries } from '../../plan/navclockBroadcast.ts';
 import { broadcastEvalToCsv, broadcastEvalToJson, broadcastEvalToText, type BroadcastEvalMeta } from '../../report/navclockEvalReport.ts';
@@ -25,9 +25,9 @@ export interface NavEvalArgs {
 }
 
 function readSp3File(path: string, flag: string): Sp3File {
-  const text = readInputText(path, flag, 'orbit');
+  const text = readHeadLines(path, 'orbit', flag, 1).join('');
   if (!/^#[cd]/.test(text)) throw new InputError(`${path} is not an SP3-c or SP3-d file`, flag, 'give an SP3 file of precise orbits and clocks (RINEX clock files are not read yet)');
-  return parseSp3(text, path);
+  return readSp3(path, flag);
 }
 
 /** Precise clock series (SP3 clock column, µs → s) of the satellites of the wanted systems. */

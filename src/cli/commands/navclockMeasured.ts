@@ -8,8 +8,8 @@ import { conventionalPeriodicS } from '../../clock/rate.ts';
 import { InputError } from '../../errors.ts';
 import { parseMeasurementsCsv } from '../../io/measurements.ts';
 import { labelOf, pickElementSet, readElementSets, readTextFile, sgp4Trajectory } from '../../io/orbitSources.ts';
-import { parseSp3 } from '../../io/sp3.ts';
-import { readInputText } from '../../io/textSource.ts';
+import { readSp3File } from '../../io/sp3.ts';
+import { readHeadLines } from '../../io/textSource.ts';
 import { Sp3Trajectory } from '../../orbit/sp3.ts';
 import type { Trajectory } from '../../orbit/trajectory.ts';
 import { fitClock } from '../../plan/fit.ts';
@@ -23,9 +23,9 @@ const DAY_S = 86_400;
 
 /** The orbit of --orbit: SP3 (by its `#c`/`#d` start), OMM (by its keywords or markup), else TLE. */
 function orbitFromFile(path: string, sat: string | undefined, ts: TimeSystem, fromTt: number, toTt: number): { trajectory: Trajectory; id: string } {
-  const text = readInputText(path, '--orbit', 'orbit');
+  const text = readHeadLines(path, 'orbit', '--orbit', 60).join('\n');
   if (/^#[cd]/.test(text)) {
-    const file = parseSp3(text, path);
+    const file = readSp3File(path, '--orbit');
     const id = sat ?? (file.satelliteIds.length === 1 ? file.satelliteIds[0] : undefined);
     if (id === undefined) throw new InputError(`${path} holds ${file.satelliteIds.length} satellites`, '--sat', `name one with --sat, e.g. ${file.satelliteIds.slice(0, 4).join(', ')}`);
     if (!file.satelliteIds.includes(id)) throw new InputError(`satellite ${JSON.stringify(id)} is not in ${path}`, '--sat', `use one of ${file.satelliteIds.slice(0, 8).join(', ')}`);
