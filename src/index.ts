@@ -22,6 +22,8 @@ export { loadScenario, type LoadScenarioOptions } from './api/scenario.ts';
 export { sizeOrbit, DEFAULT_ELEMENTS_EPOCH, type SizeOptions, type OrbitInput, type KeplerianOrbit, type ScenarioSatellite } from './api/size.ts';
 /** Sizing of a clock about or on the Moon, against TT and against a lunar surface reference clock (`size --body moon`). */
 export { sizeLunarOrbit, type LunarSizeOptions, type LunarKeplerianOrbit, type LunarSurfaceClock } from './api/lunarSize.ts';
+/** Clock rate against altitude above the Moon, and the altitude matching a lunar surface clock (`sweep --body moon`). */
+export { sweepLunarAltitude, type LunarSweepOptions } from './api/lunarSweep.ts';
 export { predictPasses, type PassesOptions } from './api/passes.ts';
 export { planResets, type ResetsOptions } from './api/resets.ts';
 export { fitClock, type FitClockOptions, type MeasurementInput, type MeasurementsInput } from './api/fit.ts';
@@ -34,6 +36,7 @@ export type { CommonOptions, TimeInput, DurationInput } from './api/common.ts';
 // Results (the JSON objects of the commands)
 export type { SizeJson } from './report/sizeReport.ts';
 export type { LunarSizeJson } from './report/lunarSizeReport.ts';
+export type { LunarSweepJson } from './report/lunarSweepReport.ts';
 export type { PassesJson } from './report/passesReport.ts';
 export type { ResetsJson } from './report/resetsReport.ts';
 export type { FitJson } from './report/fitReport.ts';
