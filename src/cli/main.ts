@@ -17,6 +17,7 @@ import { runSizeAll } from './commands/sizeAll.ts';
 import { mergeOptions, runMerge } from './commands/merge.ts';
 import { passesOptions, runPasses } from './commands/passes.ts';
 import { resetsOptions, runResets } from './commands/resets.ts';
+import { SHARD_OPTIONS, sharded } from './shard.ts';
 import { demoOptions, reportOptions, runDemo, runReport } from './commands/report.ts';
 import { navclockOptions, runNavclock } from './commands/navclock.ts';
 import { runStability, stabilityOptions } from './commands/stability.ts';
@@ -63,21 +64,21 @@ function parser(args: string[]) {
     )
     .command(
       'merge <files..>',
-      'Join shard outputs of size --all (CSV or JSON Lines) back into file order',
+      'Join shard outputs (size --all CSV or JSON Lines; passes, resets JSON or CSV) into what one run writes',
       (y) => mergeOptions(y),
       (a) => runMerge(a.files as string[], a.out, a.quiet),
     )
     .command(
       'passes <scenario>',
       'Passes over the stations with each onboard clock offset at AOS and LOS',
-      (y) => passesOptions(common(y)),
-      async (a) => emit(await runPasses(a, ts), a.format, a.out, 'passes', ts),
+      (y) => passesOptions(common(y)).options(SHARD_OPTIONS),
+      async (a) => emit(await sharded(a, 'passes', ts, (b) => runPasses(b, ts)), a.format, a.out, 'passes', ts),
     )
     .command(
       'resets <scenario>',
       'When each clock leaves its keep-in limit, and the pass to adjust it in',
-      (y) => resetsOptions(common(y)),
-      async (a) => emit(await runResets(a, ts), a.format, a.out, 'resets', ts),
+      (y) => resetsOptions(common(y)).options(SHARD_OPTIONS),
+      async (a) => emit(await sharded(a, 'resets', ts, (b) => runResets(b, ts), (s) => s.clock !== null && s.clock.keepInNs !== null), a.format, a.out, 'resets', ts),
     )
     .command(
       'fit <measurements>',

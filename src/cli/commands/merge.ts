@@ -12,10 +12,11 @@ import { InputError } from '../../errors.ts';
 import { readTextFile } from '../../io/orbitSources.ts';
 import { writeFileAtomic } from '../../io/output.ts';
 import { safeCsvCell } from '../../report/csv.ts';
+import { mergeScenarioShards, scenarioShardTag } from '../../report/shardMerge.ts';
 
 export function mergeOptions<T>(y: Argv<T>) {
   return y
-    .positional('files', { type: 'string', array: true, demandOption: true, describe: 'shard outputs of size --all (CSV or JSON Lines)' })
+    .positional('files', { type: 'string', array: true, demandOption: true, describe: 'shard outputs of size --all (CSV or JSON Lines), or of passes / resets --shard (JSON or CSV)' })
     .option('out', { type: 'string', requiresArg: true, describe: 'write to this file (atomically) instead of stdout' })
     .option('quiet', { type: 'boolean', default: false, describe: 'no summary on stderr' });
 }
@@ -92,7 +93,8 @@ export function mergeShardTexts(inputs: readonly { name: string; text: string }[
 /** `tauplan merge`: read, merge, write (atomically with --out). */
 export function runMerge(files: string[], out: string | undefined, quiet = false): void {
   const inputs = files.map((name) => ({ name, text: readTextFile(name, 'merge') }));
-  const merged = mergeShardTexts(inputs);
+  // Scenario commands' shards carry a tag (src/report/shardMerge.ts); size --all shards an index.
+  const merged = inputs.some((f) => scenarioShardTag(f.text) !== null) ? mergeScenarioShards(inputs) : mergeShardTexts(inputs);
   if (out === undefined) process.stdout.write(merged);
   else writeFileAtomic(out, merged);
   if (!quiet) process.stderr.write(`tauplan: merged ${files.length} files\n`);

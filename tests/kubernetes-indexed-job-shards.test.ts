@@ -1,0 +1,42 @@
+/**
+ * `--shard auto --shard-count N` under a Kubernetes Indexed Job, and `tauplan merge` (issue 21).
+ * Reference: Kubernetes documentation, "Jobs — Completion mode": with completionMode: Indexed each
+ * pod gets its index 0..completions−1 in JOB_COMPLETION_INDEX — confirmed from the documentation.
+ * The pods run at once; the merge must be byte-identical to one unsharded run.
+ */
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { startCli } from './helpers/cli.ts';
+
+const DEMO = 'data/demo/tessera.yaml';
+const dir = mkdtempSync(join(tmpdir(), 'tauplan-k8s-'));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+describe('Kubernetes Indexed Job: --shard auto --shard-count', () => {
+  it('two indexed pods of resets, merged, equal one run byte for byte (CSV)', async () => {
+    const args = (out: string, extra: string[] = []): string[] => ['resets', DEMO, '--horizon', '15d', '--format', 'csv', '--jobs', '1', '--quiet', '--out', join(dir, out), ...extra];
+    const runs = await Promise.all([
+      startCli(args('one.csv'), {}),
+      ...[0, 1].map((i) => startCli(args(`pod${i}.csv`, ['--shard', 'auto', '--shard-count', '2']), { JOB_COMPLETION_INDEX: String(i) })),
+    ]);
+    for (const r of runs) expect(r.code, r.stderr).toBe(0);
+    const merged = await startCli(['merge', join(dir, 'pod1.csv'), join(dir, 'pod0.csv'), '--out', join(dir, 'merged.csv'), '--quiet'], {});
+    expect(merged.code, merged.stderr).toBe(0);
+    expect(readFileSync(join(dir, 'merged.csv'), 'utf8')).toBe(readFileSync(join(dir, 'one.csv'), 'utf8'));
+  });
+
+  it('an index without --shard-count, or outside it, is a one-line input error (exit 2)', async () => {
+    const base = ['resets', DEMO, '--format', 'json', '--shard', 'auto'];
+    const [noCount, outside, notNumber] = await Promise.all([
+      startCli(base, { JOB_COMPLETION_INDEX: '0' }),
+      startCli([...base, '--shard-count', '2'], { JOB_COMPLETION_INDEX: '2' }),
+      startCli([...base, '--shard-count', '2'], { JOB_COMPLETION_INDEX: 'one' }),
+    ]);
+    for (const r of [noCount, outside, notNumber]) expect(r.code, r.stderr).toBe(2);
+    expect(noCount.stderr).toMatch(/^tauplan: JOB_COMPLETION_INDEX needs --shard-count \(--shard-count\) — .+\n$/);
+    expect(outside.stderr).toMatch(/^tauplan: JOB_COMPLETION_INDEX 2 is outside 0–1 \(JOB_COMPLETION_INDEX\) — .+\n$/);
+    expect(notNumber.stderr).toMatch(/^tauplan: JOB_COMPLETION_INDEX "one" is not a whole number .+\n$/);
+  });
+});

@@ -1,0 +1,49 @@
+/**
+ * `--shard auto` under a Slurm job array, and `tauplan merge` of the shard outputs (issue 21).
+ * Reference: Slurm documentation, "Job Array Support" (sbatch --array): each task sees
+ * SLURM_ARRAY_TASK_ID, SLURM_ARRAY_TASK_COUNT, SLURM_ARRAY_TASK_MIN (and _MAX, _STEP) — confirmed
+ * from the documented variable list. The tasks run at once, as an array does; the merge must be
+ * byte-identical to one unsharded run (the contract of merge: exactly what one run writes).
+ */
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { startCli } from './helpers/cli.ts';
+
+const DEMO = 'data/demo/tessera.yaml';
+const dir = mkdtempSync(join(tmpdir(), 'tauplan-slurm-'));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+describe('Slurm job array: --shard auto', () => {
+  it('three array tasks (--array=4-6) of passes, merged, equal one run byte for byte (JSON)', async () => {
+    const args = (out: string, extra: string[] = []): string[] => ['passes', DEMO, '--to', '2027-01-05T00:00:00Z', '--format', 'json', '--jobs', '1', '--quiet', '--out', join(dir, out), ...extra];
+    const runs = await Promise.all([
+      startCli(args('one.json'), {}),
+      ...[4, 5, 6].map((id) => startCli(args(`task${id}.json`, ['--shard', 'auto']), { SLURM_ARRAY_TASK_ID: String(id), SLURM_ARRAY_TASK_COUNT: '3', SLURM_ARRAY_TASK_MIN: '4', SLURM_ARRAY_TASK_MAX: '6' })),
+    ]);
+    for (const r of runs) expect(r.code, r.stderr).toBe(0);
+    // Each task kept only its satellites (round-robin over the scenario order).
+    const task5 = JSON.parse(readFileSync(join(dir, 'task5.json'), 'utf8')) as { shard: { index: number; count: number }; passes: { satellite: string }[] };
+    expect(task5.shard).toMatchObject({ index: 2, count: 3 });
+    expect(new Set(task5.passes.map((p) => p.satellite))).toEqual(new Set(['TSR-2', 'TSR-E1']));
+    const merged = await startCli(['merge', join(dir, 'task6.json'), join(dir, 'task4.json'), join(dir, 'task5.json'), '--out', join(dir, 'merged.json'), '--quiet'], {});
+    expect(merged.code, merged.stderr).toBe(0);
+    expect(readFileSync(join(dir, 'merged.json'), 'utf8')).toBe(readFileSync(join(dir, 'one.json'), 'utf8'));
+  });
+
+  it('bad or missing array variables are one-line input errors (exit 2), and a missing task stops the merge', async () => {
+    const base = ['passes', DEMO, '--to', '2027-01-05T00:00:00Z', '--format', 'csv', '--shard', 'auto'];
+    const [noCount, outside] = await Promise.all([
+      startCli(base, { SLURM_ARRAY_TASK_ID: '1', SLURM_ARRAY_TASK_MIN: '0' }),
+      startCli(base, { SLURM_ARRAY_TASK_ID: '9', SLURM_ARRAY_TASK_COUNT: '3', SLURM_ARRAY_TASK_MIN: '0' }),
+    ]);
+    expect(noCount.code).toBe(2);
+    expect(noCount.stderr).toMatch(/^tauplan: SLURM_ARRAY_TASK_COUNT is not set \(SLURM_ARRAY_TASK_COUNT\) — .+\n$/);
+    expect(outside.code).toBe(2);
+    expect(outside.stderr).toMatch(/^tauplan: SLURM_ARRAY_TASK_ID 9 is not one of the 3 tasks .+\n$/);
+    const partial = await startCli(['merge', join(dir, 'task4.json'), join(dir, 'task6.json')], {});
+    expect(partial.code).toBe(2);
+    expect(partial.stderr).toMatch(/^tauplan: shard 2\/3 is missing \(merge\) — .+\n$/);
+  });
+});
