@@ -7,6 +7,9 @@ import type { GravityModelName } from '../orbit/gravity.ts';
 import type { ResolvedOrbit } from '../orbit/source.ts';
 import { checkKeplerianInput, orbitFromElementSet, orbitFromKeplerian, type KeplerianInput } from '../plan/orbitInput.ts';
 import type { SizeResult } from '../plan/size.ts';
+import { isLunarOrbiter } from '../orbit/lunarOrbit.ts';
+import { sizeLunarClock, type LunarSizeResult } from '../plan/lunarSize.ts';
+import { lunarSizeToJson, type LunarSizeJson } from '../report/lunarSizeReport.ts';
 import { sizeResolvedOrbit, spanStart } from '../plan/sizeOrbit.ts';
 import { sizeToJson, type SizeJson } from '../report/sizeReport.ts';
 import { durationArg, gravityArg, timeArg, timeSystemOf, type CommonOptions, type DurationInput, type TimeInput } from './common.ts';
@@ -90,6 +93,12 @@ export function runSize(orbitOrReader: OrbitInput | (() => OrbitInput), options?
     const epoch = timeArg(ts, orbit.epoch ?? DEFAULT_ELEMENTS_EPOCH, '--epoch') as number;
     resolved = orbitFromKeplerian(orbit, epoch, gravity, spanFor);
   }
+  // About the Moon (a scenario's lunar satellite, a Moon-centred OEM): the lunar sizing (size --body moon).
+  if (isLunarOrbiter(resolved.trajectory)) {
+    const traj = resolved.trajectory;
+    const from = fromGiven ?? traj.epochTtJ2000S ?? traj.validFromTtJ2000S;
+    return sizeLunarClock({ trajectory: traj, earthGravity: gravity, fromTtJ2000S: from, spanS, nominalHz, rebuildWithDeltaAKm: resolved.rebuildWithDeltaAKm });
+  }
   return sizeResolvedOrbit(resolved, gravity, fromGiven, spanS, nominalHz, ts);
 }
 
@@ -99,6 +108,7 @@ export function runSize(orbitOrReader: OrbitInput | (() => OrbitInput), options?
  * frequency to set on the ground [Hz], the eccentricity amplitude [ns] and the sensitivity to the
  * semi-major axis [1/km]: the object `tauplan size --format json` prints.
  */
-export function sizeOrbit(orbit: OrbitInput, options?: SizeOptions): SizeJson {
-  return sizeToJson(runSize(orbit, options), timeSystemOf(options));
+export function sizeOrbit(orbit: OrbitInput, options?: SizeOptions): SizeJson | LunarSizeJson {
+  const r = runSize(orbit, options);
+  return 'body' in r && r.body === 'moon' ? lunarSizeToJson(r as LunarSizeResult, timeSystemOf(options)) : sizeToJson(r, timeSystemOf(options));
 }

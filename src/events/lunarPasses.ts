@@ -26,7 +26,7 @@ import { SPEED_OF_LIGHT_M_PER_S, WGS84_A_M, WGS84_GM_M3_PER_S2 } from '../consta
 import { InternalError } from '../errors.ts';
 import { ecefToTemePosition, temeToEcefPosition } from '../orbit/frames.ts';
 import { moonStateGcrfInto } from '../orbit/lunarEphemeris.ts';
-import { LunarOrbitTrajectory } from '../orbit/lunarOrbit.ts';
+import { isLunarOrbiter, lunarElementsAt } from '../orbit/lunarOrbit.ts';
 import { LunarSurfaceTrajectory } from '../orbit/lunarSurface.ts';
 import { DE430_GM_MOON_M3_PER_S2, IAU_MOON_MEAN_RADIUS_M, IAU_MOON_ROTATION_RAD_PER_S, icrfToMoonFixedInto } from '../orbit/moonBody.ts';
 import { gcrfToTemeInto } from '../orbit/temeOfDate.ts';
@@ -138,10 +138,10 @@ function visibility(traj: Trajectory, st: LinkStation, t: number): number {
 
 /** Grid step [s] for a satellite: by its periapsis passage about its own body. */
 function gridStepS(traj: Trajectory, st: LinkStation, t: number): number {
-  if (traj instanceof LunarOrbitTrajectory) {
-    const el = traj.osculatingAt(t);
+  if (isLunarOrbiter(traj)) {
+    const el = lunarElementsAt(traj, t);
     const rp = el.aM * (1 - el.e);
-    const vp = Math.sqrt((traj.forces.moon.gmM3PerS2 * (1 + el.e)) / rp);
+    const vp = Math.sqrt((DE430_GM_MOON_M3_PER_S2 * (1 + el.e)) / rp);
     return Math.max(10, Math.min(600, Math.min(st.minPassS / 2 || 600, rp / vp / 4)));
   }
   const s = traj.stateAt(t);
@@ -291,5 +291,5 @@ export function lunarOneWayTerms(traj: Trajectory, st: LinkStation, gmstRadAt: G
 
 /** True when a pass of this satellite over this station needs the lunar pass finder. */
 export function needsLunarPasses(traj: Trajectory, station: { body?: 'earth' | 'moon' }): boolean {
-  return station.body === 'moon' || traj instanceof LunarOrbitTrajectory;
+  return station.body === 'moon' || isLunarOrbiter(traj);
 }

@@ -3,8 +3,8 @@
  * from that document): `CCSDS_OEM_VERS` (1.0, 2.0 or 3.0) first, header keywords, then one or more
  * segments of `META_START` … `META_STOP` and data lines `epoch x y z vx vy vz [ax ay az]` (km,
  * km/s, km/s²), optional `COVARIANCE_START` … `COVARIANCE_STOP` blocks (skipped), `COMMENT` lines
- * anywhere. Read: OBJECT_NAME, OBJECT_ID, CENTER_NAME (EARTH only), REF_FRAME (EME2000, GCRF,
- * ITRF…, TEME), TIME_SYSTEM (UTC, TAI, TT, GPS), START/STOP_TIME, USEABLE_START/STOP_TIME,
+ * anywhere. Read: OBJECT_NAME, OBJECT_ID, CENTER_NAME (EARTH, or MOON with ICRF/GCRF/EME2000 axes:
+ * LCRS), REF_FRAME (EME2000, GCRF, ICRF, ITRF…, TEME), TIME_SYSTEM (UTC, TAI, TT, GPS), START/STOP_TIME, USEABLE_START/STOP_TIME,
  * INTERPOLATION (LAGRANGE, HERMITE; LINEAR is refused: too coarse for clock rates) and
  * INTERPOLATION_DEGREE. Every fault throws {@link OrbitFileError} with the line.
  */
@@ -23,6 +23,8 @@ const DEFAULT_DEGREE = 7;
 
 function frameOf(text: string): OemFrame | null {
   if (text === 'EME2000' || text === 'GCRF' || text === 'TEME') return text;
+  // ICRF axes: GCRF's (the origin comes from CENTER_NAME); used by Moon-centred ephemerides.
+  if (text === 'ICRF') return 'GCRF';
   if (/^ITRF/.test(text)) return 'ITRF';
   return null;
 }
@@ -57,10 +59,12 @@ export function parseOemLines(source: Iterable<TextLine>, fileName: string, ts: 
       return v ?? null;
     };
     const center = (get('CENTER_NAME') as { value: string }).value.toUpperCase();
-    if (center !== 'EARTH') fail(`CENTER_NAME ${JSON.stringify(center)} is not EARTH`, meta.get('CENTER_NAME')?.line ?? line, 'tauplan reads Earth-centred ephemerides');
+    if (center !== 'EARTH' && center !== 'MOON') fail(`CENTER_NAME ${JSON.stringify(center)} is not EARTH or MOON`, meta.get('CENTER_NAME')?.line ?? line, 'tauplan reads Earth- and Moon-centred ephemerides');
     const fr = get('REF_FRAME') as { value: string; line: number };
     const frame = frameOf(fr.value.toUpperCase());
-    if (frame === null) fail(`REF_FRAME ${JSON.stringify(fr.value)} is not read`, fr.line, 'use EME2000, GCRF, ITRF (any realisation) or TEME');
+    if (frame === null) fail(`REF_FRAME ${JSON.stringify(fr.value)} is not read`, fr.line, 'use EME2000, GCRF, ICRF, ITRF (any realisation) or TEME');
+    // Moon-centred: inertial ICRS-aligned axes only (LCRS); the Earth's rotating and true-of-date frames do not apply.
+    if (center === 'MOON' && frame !== 'EME2000' && frame !== 'GCRF') fail(`REF_FRAME ${JSON.stringify(fr.value)} does not go with CENTER_NAME = MOON`, fr.line, 'give a Moon-centred ephemeris in ICRF, GCRF or EME2000 axes');
     const tsys = get('TIME_SYSTEM') as { value: string; line: number };
     if (!TIME_SYSTEMS.includes(tsys.value)) fail(`TIME_SYSTEM ${JSON.stringify(tsys.value)} is not read`, tsys.line, `use one of ${TIME_SYSTEMS.join(', ')}`);
     const t = (k: string): number | null => {

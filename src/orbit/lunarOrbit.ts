@@ -18,7 +18,7 @@ import { InputError, InternalError } from '../errors.ts';
 import { elementsFromState, keplerState, type KeplerianElements } from './keplerian.ts';
 import { checkLunarEphemerisSpan, moonStateGcrfInto, sunStateGcrfInto } from './lunarEphemeris.ts';
 import { lcrsToLunarElements } from './lunarFrames.ts';
-import { IAU_MOON_MEAN_RADIUS_M, icrfToMoonFixedInto } from './moonBody.ts';
+import { DE430_GM_MOON_M3_PER_S2, IAU_MOON_MEAN_RADIUS_M, icrfToMoonFixedInto } from './moonBody.ts';
 import { moonAccelerationInertialInto, type MoonGravityModel } from './moonGravity.ts';
 import { hermiteInto } from './numericalDense.ts';
 import { GbsStepper, K_MAX, K_MIN, WORK, type Force } from './numericalStepper.ts';
@@ -326,4 +326,27 @@ export class LunarOrbitTrajectory implements Trajectory {
   get nodeCount(): number {
     return this.taus.length;
   }
+}
+
+/** True for a trajectory about the Moon (a lunar orbit, or a Moon-centred OEM), not a clock at rest on it. */
+export function isLunarOrbiter(traj: Trajectory): boolean {
+  return traj instanceof LunarOrbitTrajectory || ((traj as { body?: string }).body === 'moon' && !('site' in traj));
+}
+
+/**
+ * Osculating two-body elements about the Moon (GM of DE430) at an instant, for any lunar orbiter:
+ * the lunar orbit's own, or from its geocentric state less the Moon's (TEME axes: a, e and the
+ * period are what the callers use).
+ */
+export function lunarElementsAt(traj: Trajectory, ttJ2000S: number): KeplerianElements {
+  if (traj instanceof LunarOrbitTrajectory) return traj.osculatingAt(ttJ2000S);
+  const s = traj.stateAt(ttJ2000S);
+  const g = moonStateGcrfInto(ttJ2000S, new Float64Array(6), 0);
+  const q = gcrfToTemeInto(ttJ2000S, new Float64Array(9));
+  const m = new Float64Array(6);
+  rotateInto(q, g, 0, m, 0);
+  rotateInto(q, g, 3, m, 3);
+  const r = [s.positionM[0] - m[0], s.positionM[1] - m[1], s.positionM[2] - m[2]];
+  const v = [s.velocityMPerS[0] - m[3], s.velocityMPerS[1] - m[4], s.velocityMPerS[2] - m[5]];
+  return elementsFromState(r, v, DE430_GM_MOON_M3_PER_S2, ttJ2000S);
 }

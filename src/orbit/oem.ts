@@ -10,6 +10,8 @@
  */
 import { InputError, SpanError } from '../errors.ts';
 import type { OemFile, OemSegment } from '../model/oem.ts';
+import { checkLunarEphemerisSpan, moonStateGcrfInto } from './lunarEphemeris.ts';
+import { gcrfToTemeMatrixAtTt } from './frames.ts';
 import { applyMatrix, ecefToTeme, equationOfEquinoxesRad, gcrfToTodMatrix, temeToTod } from './frames.ts';
 import { sampleByStateAt, type StateBlock, type Trajectory } from './trajectory.ts';
 import { vec3, type StateM, type Vec3 } from './vec.ts';
@@ -52,7 +54,10 @@ export function oemSegmentsOf(file: OemFile, object: string | undefined, where: 
 }
 
 export class OemTrajectory implements Trajectory {
-  readonly frame = 'TOD' as const;
+  /** TOD; TEME of date for a Moon-centred file (the axes the lunar clock field takes: see ../clock/lunarRate.ts). */
+  readonly frame: 'TOD' | 'TEME';
+  /** `moon` when the ephemeris is Moon-centred (CENTER_NAME = MOON); states are served geocentric all the same. */
+  readonly body: 'earth' | 'moon';
   readonly epochTtJ2000S = null;
   readonly sourceLabel: string;
   readonly validFromTtJ2000S: number;
@@ -65,6 +70,7 @@ export class OemTrajectory implements Trajectory {
     segments: readonly OemSegment[],
     private readonly time: OemTimeFunctions,
   ) {
+    this.frame = segments[0]?.centerName === 'MOON' ? 'TEME' : 'TOD';
     this.segs = segments.map((s) => {
       const hermite = s.interpolation === 'HERMITE';
       const points = hermite ? Math.ceil((s.degree + 1) / 2) : s.degree + 1;
@@ -80,14 +86,31 @@ export class OemTrajectory implements Trajectory {
       });
       return { from: s.usableFromTtJ2000S, to: s.usableToTtJ2000S, times: Float64Array.from(s.nodes, (n) => n.ttJ2000S), states, hermite, points };
     });
+    this.body = segments[0].centerName === 'MOON' ? 'moon' : 'earth';
+    if (segments.some((s) => (s.centerName === 'MOON') !== (this.body === 'moon'))) {
+      throw new InputError('segments of one object have different CENTER_NAME', file.fileName, 'give all segments of an object about the same body');
+    }
     this.validFromTtJ2000S = this.segs[0].from;
     this.validToTtJ2000S = this.segs[this.segs.length - 1].to;
     const s0 = segments[0];
     this.sourceLabel = `CCSDS OEM ${file.version} (${file.fileName}, ${s0.objectName}, ${s0.frameText}, ${s0.timeSystem}, ${s0.interpolation} degree ${s0.degree}, ${segments.length} segment(s))`;
   }
 
-  private toTod(s: OemSegment, tt: number, r: Vec3<'GCRF'>, v: Vec3<'GCRF'>): [Vec3<'TOD'>, Vec3<'TOD'>] {
+  private toTod(s: OemSegment, tt: number, r0: Vec3<'GCRF'>, v0: Vec3<'GCRF'>): [Vec3<'TOD'>, Vec3<'TOD'>] {
     const jd = this.time.jdUtcAt(tt);
+    let r = r0;
+    let v = v0;
+    if (s.centerName === 'MOON') {
+      // LCRS node → geocentric GCRF: add the Moon's geocentric state (./lunarEphemeris.ts).
+      checkLunarEphemerisSpan(tt, this.file.fileName);
+      const m = moonStateGcrfInto(tt, new Float64Array(6), 0);
+      r = vec3<'GCRF'>(r0[0] + m[0], r0[1] + m[1], r0[2] + m[2]);
+      v = vec3<'GCRF'>(v0[0] + m[3], v0[1] + m[4], v0[2] + m[5]);
+      // Served in TEME of date, the axes of the Moon's position in the clock field (TOD differs by
+      // the equation of the equinoxes, ~1″: 2 km at the Moon's distance).
+      const q = gcrfToTemeMatrixAtTt(tt);
+      return [applyMatrix<'GCRF', 'TOD'>(q, r), applyMatrix<'GCRF', 'TOD'>(q, v)];
+    }
     switch (s.frame) {
       case 'EME2000':
       case 'GCRF': {
@@ -117,6 +140,7 @@ export class OemTrajectory implements Trajectory {
     throw new SpanError(`time ${this.time.format(tt)} is outside the OEM's span ${from} to ${to}`, this.id, from, to, 'shorten the window to the ephemeris span');
   }
 
+  /** State in `this.frame` (typed TOD for the callers of Earth-centred files; TEME values for a Moon-centred one). */
   stateAt(ttJ2000S: number): StateM<'TOD'> {
     const s = this.segmentAt(ttJ2000S);
     const n = s.times.length;

@@ -15,7 +15,6 @@ import { allocStateBlock, type Trajectory } from '../orbit/trajectory.ts';
 import { lineFit, orbitSummaryAt } from './size.ts';
 import { bodyOf, lunarFieldOf, lunarStationTrack, lunarTrackFigures, type BodyStation } from './lunarScenario.ts';
 import type { CentralBody } from '../model/scenario.ts';
-import { LunarOrbitTrajectory } from '../orbit/lunarOrbit.ts';
 
 export interface CompareSatellite {
   id: string;
@@ -95,7 +94,7 @@ export function compareClocks(sats: CompareSatellite[], stations: BodyStation[],
     const from = s.flight?.startTtJ2000S ?? lo;
     const to = s.flight?.endTtJ2000S ?? hi;
     // A lunar orbit's step follows its period about the Moon, not its geocentric one.
-    const orbit = s.trajectory instanceof LunarOrbitTrajectory ? { periodS: s.trajectory.periodS, e: s.trajectory.elements.e } : orbitSummaryAt(s.trajectory, from, gravity.gmM3PerS2);
+    const orbit = orbitSummaryAt(s.trajectory, from, gravity.gmM3PerS2);
     const periodS = Number.isFinite(orbit.periodS) && orbit.periodS > 0 ? orbit.periodS : 6000;
     const maxStep = s.flight === null ? clockStepS(periodS, Math.min(orbit.e, 0.95)) : Math.min(10, (to - from) / 20);
     const [track] = integrateAlong(s.trajectory, from, to, maxStep, [(x, y, z, vx, vy, vz, t) => fractionalOffset(gravity, x, y, z, vx, vy, vz, t)]);

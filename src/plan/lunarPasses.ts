@@ -8,7 +8,7 @@ import { lunarPeriodicTermsS } from '../clock/lunarRate.ts';
 import { earthLinkStation, findLunarPasses, lunarLinkStation, lunarOneWayTerms } from '../events/lunarPasses.ts';
 import type { GmstRadAt } from '../events/passes.ts';
 import { moonStateGcrfInto } from '../orbit/lunarEphemeris.ts';
-import { LunarOrbitTrajectory } from '../orbit/lunarOrbit.ts';
+import { isLunarOrbiter } from '../orbit/lunarOrbit.ts';
 import { gcrfToTemeInto } from '../orbit/temeOfDate.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
 import type { BodyStation } from './lunarScenario.ts';
@@ -20,7 +20,7 @@ export function periodicTermAtS(traj: Trajectory, ttJ2000S: number): number {
   const s = traj.stateAt(ttJ2000S);
   const r = s.positionM;
   const v = s.velocityMPerS;
-  if (!(traj instanceof LunarOrbitTrajectory)) return conventionalPeriodicS(r[0], r[1], r[2], v[0], v[1], v[2]);
+  if (!isLunarOrbiter(traj)) return conventionalPeriodicS(r[0], r[1], r[2], v[0], v[1], v[2]);
   const g = moonStateGcrfInto(ttJ2000S, new Float64Array(6), 0);
   const q = gcrfToTemeInto(ttJ2000S, new Float64Array(9));
   const m = [0, 1, 2].map((k) => q[3 * k] * g[0] + q[3 * k + 1] * g[1] + q[3 * k + 2] * g[2]);

@@ -9,7 +9,7 @@ import { LunarExternalField, lunarPeriodicTermsS, withLunarField } from '../cloc
 import type { CentralBody, ScenarioSpec } from '../model/scenario.ts';
 import type { Station } from '../model/station.ts';
 import type { GravityModel } from '../orbit/gravity.ts';
-import { LunarOrbitTrajectory } from '../orbit/lunarOrbit.ts';
+import { isLunarOrbiter } from '../orbit/lunarOrbit.ts';
 import { LunarSurfaceTrajectory } from '../orbit/lunarSurface.ts';
 import { allocStateBlock, type Trajectory } from '../orbit/trajectory.ts';
 import { lineFit } from './size.ts';
@@ -36,7 +36,7 @@ export function lunarFieldOf(gravity: GravityModel): LunarExternalField {
 
 /** The body a trajectory is about. */
 export function bodyOf(traj: Trajectory): CentralBody {
-  return traj instanceof LunarOrbitTrajectory || traj instanceof LunarSurfaceTrajectory ? 'moon' : 'earth';
+  return isLunarOrbiter(traj) || traj instanceof LunarSurfaceTrajectory ? 'moon' : 'earth';
 }
 
 /** A station with its body (scenario stations carry it; plain stations are on the Earth). */

@@ -10,12 +10,14 @@
  * monthly term is common to both clocks.
  */
 import { SECONDS_PER_DAY } from '../constants.ts';
-import { InternalError } from '../errors.ts';
+import { InputError, InternalError } from '../errors.ts';
+import type { Trajectory } from '../orbit/trajectory.ts';
+import { DE430_GM_MOON_M3_PER_S2 } from '../orbit/moonBody.ts';
 import { SPEED_OF_LIGHT_SQUARED_M2_PER_S2 as C2 } from '../clock/rate.ts';
 import { clockStepS } from '../clock/integrate.ts';
 import { LunarExternalField, type LunarRateParts } from '../clock/lunarRate.ts';
 import type { GravityModel } from '../orbit/gravity.ts';
-import { LunarOrbitTrajectory } from '../orbit/lunarOrbit.ts';
+import { isLunarOrbiter, LunarOrbitTrajectory } from '../orbit/lunarOrbit.ts';
 import { LunarSurfaceTrajectory, MEAN_SUB_EARTH_POINT, type SelenographicSite } from '../orbit/lunarSurface.ts';
 import { analyseLunarRate, ANOMALISTIC_MONTH_S } from './lunarRates.ts';
 import { orbitSummaryAt, type OrbitSummary, type SizeResult } from './size.ts';
@@ -27,7 +29,8 @@ export type LunarKeep = 'TT' | 'lunar-surface';
 export const LUNAR_DEFAULT_SPAN_S = ANOMALISTIC_MONTH_S;
 
 export interface LunarSizeRequest {
-  trajectory: LunarOrbitTrajectory | LunarSurfaceTrajectory;
+  /** A lunar orbit, a Moon-centred OEM, or a clock at rest on the Moon. */
+  trajectory: Trajectory;
   /** The Earth's field (the scenario's or `--gravity`); the Moon's and Sun's come with the trajectory's model. */
   earthGravity: GravityModel;
   fromTtJ2000S: number;
@@ -37,7 +40,7 @@ export interface LunarSizeRequest {
   reference?: SelenographicSite;
   keep?: LunarKeep;
   /** The orbit with its semi-major axis changed by `deltaAKm` (for the measured sensitivity). */
-  rebuildWithDeltaAKm?: (deltaAKm: number) => LunarOrbitTrajectory;
+  rebuildWithDeltaAKm?: (deltaAKm: number) => Trajectory;
 }
 
 /** {@link SizeResult} for a clock near the Moon, plus the lunar fields. Orbit altitudes are above 1737.4 km. */
@@ -55,12 +58,12 @@ export interface LunarSizeResult extends SizeResult {
   crossTermAmplitudeNs: number;
 }
 
-function summary(traj: LunarOrbitTrajectory | LunarSurfaceTrajectory, t: number): OrbitSummary {
+function summary(traj: Trajectory, t: number): OrbitSummary {
   if (traj instanceof LunarSurfaceTrajectory) {
     const h = traj.site.heightM / 1000;
     return { aKm: NaN, e: 0, iDeg: NaN, periodS: NaN, perigeeAltitudeKm: h, apogeeAltitudeKm: h };
   }
-  return orbitSummaryAt(traj, t, traj.forces.moon.gmM3PerS2);
+  return orbitSummaryAt(traj, t, DE430_GM_MOON_M3_PER_S2);
 }
 
 /** The step for a lunar clock: as for Earth orbits, by its period about the Moon; an hour for surface clocks. */
@@ -73,9 +76,12 @@ export function sizeLunarClock(req: LunarSizeRequest): LunarSizeResult {
   const { trajectory: traj, earthGravity, fromTtJ2000S: from, spanS } = req;
   const keep = req.keep ?? 'TT';
   const reference = req.reference ?? MEAN_SUB_EARTH_POINT;
-  const orbiting = traj instanceof LunarOrbitTrajectory;
-  const gmMoon = orbiting ? traj.forces.moon.gmM3PerS2 : 4.902800066e12;
-  const field = new LunarExternalField(orbiting ? traj.forces.moon : undefined);
+  if (!isLunarOrbiter(traj) && !(traj instanceof LunarSurfaceTrajectory)) {
+    throw new InputError(`${traj.id} is not about the Moon`, '--body', 'give elements about the Moon, a Moon-centred OEM (CENTER_NAME = MOON) or a lunar scenario satellite, or leave --body at earth');
+  }
+  const orbiting = isLunarOrbiter(traj);
+  const gmMoon = DE430_GM_MOON_M3_PER_S2;
+  const field = new LunarExternalField(traj instanceof LunarOrbitTrajectory ? traj.forces.moon : undefined);
   const orbit = summary(traj, from);
   const step = stepFor(orbit);
   const run = analyseLunarRate(traj, earthGravity, field, from, spanS, step, orbiting);
@@ -110,7 +116,7 @@ export function sizeLunarClock(req: LunarSizeRequest): LunarSizeResult {
   return {
     satellite: traj.id,
     source: traj.sourceLabel,
-    gravity: `${earthGravity.name} (Earth) + Moon ${orbiting && traj.forces.moon.j2 === 0 ? 'point mass' : 'point mass + J2 + C22'} (exact) + Sun (tidal)`,
+    gravity: `${earthGravity.name} (Earth) + Moon ${traj instanceof LunarOrbitTrajectory && traj.forces.moon.j2 === 0 ? 'point mass' : 'point mass + J2 + C22'} (exact) + Sun (tidal)`,
     fromTtJ2000S: from,
     spanS,
     orbit,

@@ -4,7 +4,7 @@
  * periodic relativistic term −2 r·v/c² removed, as the navigation message needs. Pure.
  */
 import { conventionalPeriodicS } from '../clock/rate.ts';
-import { LunarOrbitTrajectory } from '../orbit/lunarOrbit.ts';
+import { isLunarOrbiter } from '../orbit/lunarOrbit.ts';
 import { periodicTermAtS } from './lunarPasses.ts';
 import { predictionSigmaNs, Z95 } from '../clock/noise.ts';
 import { allocStateBlock } from '../orbit/trajectory.ts';
@@ -29,7 +29,7 @@ export function predictedFromRun(run: SatelliteClockRun): PredictedClock {
       run.trajectory.sampleInto(t, block);
       const p = block.positionM;
       const v = block.velocityMPerS;
-      const lunar = run.trajectory instanceof LunarOrbitTrajectory;
+      const lunar = isLunarOrbiter(run.trajectory);
       for (let i = 0; i < t.length; i++) {
         // About the Moon the periodic pair is −2ρ·u/c² − v_M·ρ/c² (lunarPasses.ts), else −2r·v/c².
         const periodicNs = (lunar ? periodicTermAtS(run.trajectory, t[i]) : conventionalPeriodicS(p[3 * i], p[3 * i + 1], p[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2])) * 1e9;

@@ -10,8 +10,8 @@ import { conventionalPeriodicS, SPEED_OF_LIGHT_SQUARED_M2_PER_S2 as C2, totalPot
 import { IERS2010_L_G, SECONDS_PER_DAY } from '../constants.ts';
 import { elementsFromState } from '../orbit/keplerian.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
-import { LunarOrbitTrajectory } from '../orbit/lunarOrbit.ts';
-import { IAU_MOON_MEAN_RADIUS_M } from '../orbit/moonBody.ts';
+import { isLunarOrbiter, lunarElementsAt } from '../orbit/lunarOrbit.ts';
+import { DE430_GM_MOON_M3_PER_S2, IAU_MOON_MEAN_RADIUS_M } from '../orbit/moonBody.ts';
 
 export interface SizeRequest {
   trajectory: Trajectory;
@@ -187,12 +187,12 @@ export function lineFit(t: Float64Array, x: Float64Array, w?: Float64Array): { s
 
 /** Osculating summary of a trajectory at an instant. */
 export function orbitSummaryAt(traj: Trajectory, ttJ2000S: number, gmM3PerS2: number): OrbitSummary {
-  if (traj instanceof LunarOrbitTrajectory) {
+  if (isLunarOrbiter(traj)) {
     // About the Moon: elements, period and altitudes (above the 1737.4 km sphere) of the lunar orbit.
-    const el = traj.osculatingAt(ttJ2000S);
+    const el = lunarElementsAt(traj, ttJ2000S);
     const aKm = el.aM / 1000;
     const rKm = IAU_MOON_MEAN_RADIUS_M / 1000;
-    const periodS = 2 * Math.PI * Math.sqrt(el.aM ** 3 / traj.forces.moon.gmM3PerS2);
+    const periodS = 2 * Math.PI * Math.sqrt(el.aM ** 3 / DE430_GM_MOON_M3_PER_S2);
     return { aKm, e: el.e, iDeg: (el.iRad * 180) / Math.PI, periodS, perigeeAltitudeKm: aKm * (1 - el.e) - rKm, apogeeAltitudeKm: aKm * (1 + el.e) - rKm };
   }
   const s = traj.stateAt(ttJ2000S);

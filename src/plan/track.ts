@@ -3,7 +3,7 @@
  * ECEF, for analysts' own tools (contract `tauplan track`).
  */
 import { conventionalPeriodicS } from '../clock/rate.ts';
-import { LunarOrbitTrajectory } from '../orbit/lunarOrbit.ts';
+import { isLunarOrbiter } from '../orbit/lunarOrbit.ts';
 import { periodicTermAtS } from './lunarPasses.ts';
 import { applyMatrix, equationOfEquinoxesRadAtTt, temeToEcef, todToTeme, transpose, type Matrix3 } from '../orbit/frames.ts';
 import { gcrfToTemeInto } from '../orbit/temeOfDate.ts';
@@ -60,7 +60,7 @@ export function trackSatellite(run: SatelliteClockRun, fromTtJ2000S: number, toT
   const block = allocStateBlock(n);
   run.trajectory.sampleInto(t, block);
   const src = run.trajectory.frame;
-  const lunar = run.trajectory instanceof LunarOrbitTrajectory;
+  const lunar = isLunarOrbiter(run.trajectory);
   const rows: TrackRow[] = [];
   for (let i = 0; i < n; i++) {
     const p = block.positionM;
