@@ -55,8 +55,6 @@ const KNOWN_ARROWS: ReadonlySet<string> = new Set([
   'src/report/fitReport.ts → src/clock/edf.ts',
   'src/report/stabilityReport.ts → src/clock/edf.ts',
   'src/report/stabilityReport.ts → src/clock/stabilityTable.ts',
-  'src/cli/commands/resets.ts → src/plan/passes.ts',
-  'src/cli/commands/resets.ts → src/plan/resetsInputs.ts',
   'src/cli/commands/navclock.ts → src/clock/navMessage.ts',
   'src/cli/commands/navclock.ts → src/clock/noise.ts',
   'src/cli/commands/navclock.ts → src/plan/navclock.ts',

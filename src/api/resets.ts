@@ -37,6 +37,14 @@ export function resetsMeta(scenario: ScenarioSpec, notes: string[], fromTtJ2000S
   return { notes, scenario: scenario.name, fromTtJ2000S, toTtJ2000S, reference: scenario.reference, marginNs: p.marginNs, leadTimeS: p.leadTimeS ?? 0, prefer: p.prefer };
 }
 
+/**
+ * The keep-in plans of an already prepared scenario, one per satellite with a limit, in scenario
+ * order (the CLI prepares the context itself). `path` names the scenario in messages.
+ */
+export function planPreparedResets(context: ScenarioContext, path: string): SatelliteResetPlan[] {
+  return planScenarioResets(context, path);
+}
+
 /** Compute the keep-in plans (the writers' input; {@link planResets} gives the JSON). */
 export function runResets(scenario: ScenarioSpec, options?: ResetsOptions): ResetsRun {
   const ts = timeSystemOf(options);

@@ -1,9 +1,7 @@
 /** `tauplan resets SCENARIO [--horizon 180d]`. */
 import type { Argv } from 'yargs';
-import { InputError } from '../../errors.ts';
-import { planPasses } from '../../plan/passes.ts';
-import { planResets, type SatelliteResetPlan } from '../../plan/resets.ts';
-import { clockStepsOf, contactsFor, resetPolicyFrom } from '../../plan/resetsInputs.ts';
+import type { SatelliteResetPlan } from '../../plan/resets.ts';
+import { planPreparedResets } from '../../api/resets.ts';
 import { resetsToCsv, resetsToJson, resetsToText, type ResetsMeta } from '../../report/resetsReport.ts';
 import { parsePositiveDurationS } from '../../time/duration.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
@@ -45,29 +43,8 @@ export interface ResetsOutcome {
 export function computeResets(a: ResetsArgs, ts: TimeSystem): ResetsOutcome {
   const scenario = loadScenario(a.scenario, ts);
   const ctx = loadScenarioContext(a.scenario, ts, { ...a, horizonS: horizonOf(a, scenario) }, scenario);
-  const policy = ctx.scenario.policy;
-  const withLimit = ctx.runs.filter((r) => r.keepInNs !== null);
-  if (withLimit.length === 0) throw new InputError('no satellite has a keep-in limit', `${a.scenario} satellites[].clock.keepInNs`, 'give clock.keepInNs for the satellites to plan');
-  const passes = planPasses(withLimit, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
-  const chosenStations = ctx.scenario.stations.filter((s) => ctx.stations.some((c) => c.id === s.id));
-  const resetPolicy = resetPolicyFrom(policy);
-  const plans = withLimit.map((run) => {
-    const spec = ctx.scenario.satellites.find((s) => s.id === run.id);
-    const { steps, nominalHz } = clockStepsOf(spec?.clock ?? null, `${a.scenario} ${spec?.path ?? run.id}`);
-    return planResets({
-      satellite: run.id,
-      clock: run.clock,
-      limitNs: run.keepInNs as number,
-      noise: run.clock.params?.noise ?? null,
-      policy: resetPolicy,
-      fromTtJ2000S: Math.max(ctx.fromTtJ2000S, run.startTtJ2000S ?? ctx.fromTtJ2000S),
-      toTtJ2000S: Math.min(ctx.toTtJ2000S, run.endTtJ2000S),
-      periodS: Number.isFinite(run.orbit.periodS) ? run.orbit.periodS : 86400,
-      contacts: contactsFor(passes.rows, chosenStations, run.id, `${a.scenario} stations[].uplink`),
-      steps,
-      nominalHz,
-    });
-  });
+  // Contacts at uplink stations only, policy and hardware steps: the library's use case (same plans).
+  const plans = planPreparedResets(ctx, a.scenario);
   const meta = metaOf(ctx.scenario, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.runs.flatMap((r) => (r.note === null ? [] : [r.note])));
   return { ctx, plans, meta };
 }
