@@ -40,6 +40,7 @@
  *                           scripts/bench/scenarioBench.ts for each definition and goal.
  *
  * Options: --tiny (or TAUPLAN_BENCH_TINY=1) runs a few-second version for the smoke test;
+ * --scenario-only runs only the five scenario-command figures (printed, not written);
  * --results PATH (default ./bench-results.json); --work-dir DIR (default a new temp folder).
  * The catalogues are invented (scripts/make-catalogue.ts). Total time on 2 cores: about 2–3 min.
  */
@@ -108,6 +109,16 @@ const tiny = args.includes('--tiny') || process.env.TAUPLAN_BENCH_TINY === '1';
 const resultsPath = opt('--results') ?? 'bench-results.json';
 const workDir = opt('--work-dir') ?? mkdtempSync(join(tmpdir(), 'tauplan-bench-'));
 const ownWorkDir = opt('--work-dir') === undefined;
+
+// --scenario-only: just the five scenario-command figures (for repeated runs); prints them, writes nothing.
+if (args.includes('--scenario-only')) {
+  const { scenarioFigures } = await import('./bench/scenarioBench.ts');
+  const fig = await scenarioFigures(workDir, tiny, (s) => void process.stderr.write(`${s}\n`));
+  for (const r of fig.rows) process.stdout.write(`${r[0].padEnd(20)}${r[1].padStart(8)}  ${r[2].padEnd(6)}  ${r[3]}\n`);
+  process.stdout.write(`BENCH-SCENARIO ${JSON.stringify({ resetsVsFloor: fig.resetsVsFloor, passesVsFloor: fig.passesVsFloor, coldStartVsNode: fig.coldStartVsNode, resetsRssGrowth6x: fig.resetsRssGrowth6x, shardsVsOne: fig.shardsVsOne })}\n`);
+  if (opt('--work-dir') === undefined) rmSync(workDir, { recursive: true, force: true });
+  process.exit(0);
+}
 
 const CFG = tiny
   ? { sample: 6, sampleSpanS: 2 * 3600, repeats: 1, small: 20, large: 200, catalogueSpan: '1h', passSats: 2 }

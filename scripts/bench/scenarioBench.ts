@@ -9,15 +9,15 @@
  *   coldStartVsNode    wall time of `tauplan time 2027-01-01T00:00:00Z` ÷ `node -e 0` (best of 5
  *                      each, whole processes). Goal ≤ 4.
  *   resetsRssGrowth6x  peak RSS of the 180-day resets run ÷ a 30-day run. Goal ≤ 1.3.
- *   shardsVsOne        wall time of 2 concurrent shard processes (resets 180 d, satellites split
- *                      round-robin, --jobs 1 each) ÷ the one process. Goal ≤ 0.6.
+ *   shardsVsOne        wall time of 2 concurrent `--shard K/2` processes (resets 180 d, --jobs 1
+ *                      each) ÷ the one process. Goal ≤ 0.6. Their merge must equal the one run's bytes.
  *
  * Wall times are whole child processes (node start-up, module loading and the output written), as
  * a user waits for them. The state count comes from the CLI's own counter (src/orbit/stateCount.ts),
  * read by scripts/bench/child.mjs after the run: nothing is hard-coded.
  */
 import { spawn } from 'node:child_process';
-import { writeFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { BulkPropagator, createSingleThreadRuntime, EciBaseCalculator, twoline2satrec } from 'satellite.js';
@@ -138,12 +138,12 @@ export async function scenarioFigures(workDir: string, tiny: boolean, log: (s: s
   const resetsShort = await childRun(resetsArgs(shortDays, 'resets-short.json'));
   const passes = await childRun(['passes', file, '--jobs', '1', '--format', 'json', '--out', join(workDir, 'passes.json')]);
 
-  // Two shard processes at once: satellites split round-robin (as --shard K/2 does).
-  const ids = [...yaml.matchAll(/^ {2}- id: (\S+)$/gm)].map((m) => m[1]);
-  const half = (k: number): string => ids.filter((_, i) => i % 2 === k).join(',');
+  // Two shard processes at once (--shard 1/2 and 2/2), then a check that merge gives the one run's bytes.
   const t0 = performance.now();
-  await Promise.all([0, 1].map((k) => childRun(resetsArgs(longDays, `resets-shard${k}.json`, ['--sat', half(k)]))));
+  await Promise.all([1, 2].map((k) => childRun(resetsArgs(longDays, `resets-shard${k}.json`, ['--shard', `${k}/2`]))));
   const shardsMs = performance.now() - t0;
+  await childRun(['merge', join(workDir, 'resets-shard1.json'), join(workDir, 'resets-shard2.json'), '--out', join(workDir, 'resets-merged.json'), '--quiet']);
+  if (readFileSync(join(workDir, 'resets-merged.json'), 'utf8') !== readFileSync(join(workDir, 'resets-long.json'), 'utf8')) throw new Error('merged shards differ from the one-process run');
 
   const nodeMs = await bestOf(tiny ? 2 : 5, () => processMs(['-e', '0']));
   const timeMs = await bestOf(tiny ? 2 : 5, () => processMs([BIN, 'time', '2027-01-01T00:00:00Z']));
