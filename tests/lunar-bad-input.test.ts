@@ -51,3 +51,36 @@ describe('lunar bad input (compare)', () => {
     expectOneLine(['compare', fixed], ['Moon ephemeris', '2100']);
   });
 });
+
+describe('lunar bad input (size, sweep)', () => {
+  it('an unknown body', () => {
+    expectOneLine(['size', '--body', 'mars', '--a-km', '6142'], ['--body', 'earth or moon']);
+  });
+  it('an orbit that intersects the Moon', () => {
+    expectOneLine(['size', '--body', 'moon', '--a-km', '1800', '--e', '0.1'], ['--a-km', 'intersects the Moon']);
+  });
+  it('a reference latitude above 90°', () => {
+    expectOneLine(['size', '--body', 'moon', '--a-km', '6142', '--reference-lat-deg', '95'], ['--reference.latDeg', 'latitude']);
+  });
+  it('a window outside the Moon ephemeris\' span', () => {
+    expectOneLine(['size', '--body', 'moon', '--a-km', '6142', '--epoch', '2150-01-01T00:00:00 TT', '--span', '1d'], ['Moon ephemeris', '2100']);
+  });
+  it('--keep lunar-surface on an Earth orbit', () => {
+    expectOneLine(['size', '--a-km', '26561.75', '--keep', 'lunar-surface'], ['--keep', '--body moon']);
+  });
+  it('sweep --body moon whose lowest orbit is inside the Moon', () => {
+    expectOneLine(['sweep', '--body', 'moon', '--from-km', '10', '--to-km', '500', '--e', '0.2'], ['--from-km', 'intersects the Moon']);
+  });
+});
+
+describe('size --body moon through the CLI', () => {
+  it('the 12-hour frozen orbit, JSON with body, meanFractionalOffsetVsLunarSurface and parts', () => {
+    const r = runCli(['size', '--body', 'moon', '--a-km', '6142', '--e', '0.6', '--i-deg', '57.8', '--argp-deg', '90', '--span', '2d', '--format', 'json']);
+    expect(r.code, r.stderr).toBe(0);
+    const j = JSON.parse(r.stdout) as { body: string; meanFractionalOffsetVsLunarSurface: number; parts: Record<string, number>; meanFractionalOffset: number };
+    expect(j.body).toBe('moon');
+    // Derived (physics.md §12): −(3GM_M/(2a) − GM_M/R)/c² = +1.5617 µs/day; perturbations < 0.002.
+    expect(Math.abs(j.meanFractionalOffsetVsLunarSurface * 86_400e6 - 1.5617)).toBeLessThan(0.002);
+    expect(Object.keys(j.parts).sort()).toEqual(['earth', 'moon', 'sun', 'velocity']);
+  });
+});

@@ -98,3 +98,5 @@ export function runLunarSize(orbit: LunarKeplerianOrbit | LunarSurfaceClock, opt
 export function sizeLunarOrbit(orbit: LunarKeplerianOrbit | LunarSurfaceClock, options?: LunarSizeOptions): LunarSizeJson {
   return lunarSizeToJson(runLunarSize(orbit, options), timeSystemOf(options));
 }
+
+export type { LunarForceModelName, LunarKeep, LunarSizeResult };

@@ -149,3 +149,10 @@ export function checkEpochNearData(epochTtJ2000S: number, firstTtJ2000S: number,
     `give an epoch within ${(marginS / DAY_S).toFixed(1)} days of the data, or leave ${flag} out (the first sample)`,
   );
 }
+
+/** `--body`: earth (default) or moon; anything else is a one-line usage error. */
+export function bodyFlag(value: string | undefined): 'earth' | 'moon' {
+  const v = (value ?? 'earth').toLowerCase();
+  if (v !== 'earth' && v !== 'moon') throw new InputError(`unknown body ${JSON.stringify(value)}`, '--body', 'give earth or moon');
+  return v;
+}

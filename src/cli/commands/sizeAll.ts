@@ -241,7 +241,7 @@ export async function runSizeAll(a: SizeAllArgs, ts: TimeSystem): Promise<SizeAl
     throw new InputError(`size --all has no ${format} output`, '--format', 'use csv, jsonl, json or text');
   }
   const gravity = gravityModel(a.gravity, '--gravity');
-  const spanS = parsePositiveDurationS(a.span, '--span');
+  const spanS = parsePositiveDurationS(a.span ?? '1d', '--span');
   if (!(a.nominalHz > 0)) throw new InputError(`nominal frequency ${a.nominalHz} Hz is not positive`, '--nominal-hz', 'give e.g. 10.23e6');
   const fromTtJ2000S = a.from === undefined ? null : ts.parse(a.from, '--from').ttJ2000S;
   const jobs = positiveJobs(a.jobs);
