@@ -53,7 +53,7 @@ export function runCompare(scenario: ScenarioSpec, options?: CompareOptions): Co
   const all = compareScenario(scenario, ts, gravity, from, to, resolveOrbit, against);
   const keepAll = against === undefined || options?.pairs === 'all';
   const result = keepAll ? all : { ...all, pairs: all.pairs.filter((p) => p.a === against || p.b === against) };
-  const notes = scenario.stations.filter((s) => !s.geoidHeightGiven).map((s) => missingGeoidNote(s.id));
+  const notes = scenario.stations.filter((s) => !s.geoidHeightGiven && s.body !== 'moon').map((s) => missingGeoidNote(s.id));
   return { result, notes, meta: { scenario: scenario.name, gravity: gravity.name, fromTtJ2000S: from, toTtJ2000S: to, against: against ?? null } };
 }
 

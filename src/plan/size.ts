@@ -11,6 +11,7 @@ import { IERS2010_L_G, SECONDS_PER_DAY } from '../constants.ts';
 import { elementsFromState } from '../orbit/keplerian.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
 import { isLunarOrbiter, lunarElementsAt } from '../orbit/lunarOrbit.ts';
+import { sizeLunarClock } from './lunarSize.ts';
 import { DE430_GM_MOON_M3_PER_S2, IAU_MOON_MEAN_RADIUS_M } from '../orbit/moonBody.ts';
 
 export interface SizeRequest {
@@ -211,6 +212,8 @@ export function orbitSummaryAt(traj: Trajectory, ttJ2000S: number, gmM3PerS2: nu
 /** Run the sizing for one orbit. */
 export function sizeClock(req: SizeRequest): SizeResult {
   const { trajectory: traj, gravity, fromTtJ2000S: from, spanS } = req;
+  // About the Moon: the lunar sizing (lunar periodic terms, rate against a lunar surface clock).
+  if (isLunarOrbiter(traj)) return sizeLunarClock({ trajectory: traj, earthGravity: gravity, fromTtJ2000S: from, spanS, nominalHz: req.nominalHz, rebuildWithDeltaAKm: req.rebuildWithDeltaAKm });
   const orbit = orbitSummaryAt(traj, from, gravity.gmM3PerS2);
   if (!(orbit.aKm > 0) || orbit.e >= 1) {
     throw new InternalError(`orbit of ${traj.id} is not closed (a = ${orbit.aKm} km, e = ${orbit.e})`, 'orbit');

@@ -9,7 +9,7 @@ import { Instant } from '../time/instant.ts';
 import { PLANNING_CAUTION } from './caution.ts';
 import { toCsv } from './csv.ts';
 import { fixed, sci, signed } from './format.ts';
-import { sizeToJson } from './sizeReport.ts';
+import { earthSizeJson } from './sizeReport.ts';
 
 /** Notes every lunar sizing carries (JSON `notes`, CSV `#` lines, text NOTE lines). */
 export function lunarSizeNotes(r: LunarSizeResult): string[] {
@@ -23,7 +23,7 @@ export function lunarSizeNotes(r: LunarSizeResult): string[] {
 
 /** The JSON object: the `size` fields (altitudes above 1737.4 km) plus the lunar ones. */
 export function lunarSizeToJson(r: LunarSizeResult, ts: TimeSystem) {
-  const { elementsNote: _omit, ...base } = sizeToJson(r, ts) as ReturnType<typeof sizeToJson> & { elementsNote?: string };
+  const { elementsNote: _omit, ...base } = earthSizeJson(r, ts) as ReturnType<typeof earthSizeJson> & { elementsNote?: string };
   return {
     ...base,
     body: r.body,

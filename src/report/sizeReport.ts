@@ -1,5 +1,7 @@
 /** Writers for `tauplan size`: JSON (contract fields), CSV (one row per satellite), text worksheet. */
 import type { SizeResult } from '../plan/size.ts';
+import type { LunarSizeResult } from '../plan/lunarSize.ts';
+import { lunarSizeToJson, lunarSizeToText } from './lunarSizeReport.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import { Instant } from '../time/instant.ts';
 import { PLANNING_CAUTION } from './caution.ts';
@@ -8,6 +10,18 @@ import { fixed, sci, signed } from './format.ts';
 
 /** The contract's JSON object, plus our extras (never renamed). */
 export function sizeToJson(r: SizeResult, ts: TimeSystem) {
+  // A lunar clock's object is a superset of these fields (./lunarSizeReport.ts).
+  if (isLunarResult(r)) return lunarSizeToJson(r, ts) as unknown as ReturnType<typeof earthSizeJson>;
+  return earthSizeJson(r, ts);
+}
+
+/** True for a lunar sizing (`size --body moon` or a lunar orbit met in a scenario or catalogue). */
+function isLunarResult(r: SizeResult): r is LunarSizeResult {
+  return (r as Partial<LunarSizeResult>).body === 'moon';
+}
+
+/** The contract's object for an Earth orbit. */
+export function earthSizeJson(r: SizeResult, ts: TimeSystem) {
   return {
     satellite: r.satellite,
     source: r.source,
@@ -67,6 +81,7 @@ export function isKeplerianInput(r: SizeResult): boolean {
 
 /** The engineer's worksheet; `title` is the scenario id or the element set's object name. */
 export function sizeToText(r: SizeResult, ts: TimeSystem, title: string = r.satellite): string {
+  if (isLunarResult(r)) return lunarSizeToText(r, ts, title);
   const from = Instant.fromTtJ2000S(r.fromTtJ2000S);
   const to = from.plusS(r.spanS);
   const perDay = (y: number): string => `${signed(y * 86400e6, 3)} µs/day`;

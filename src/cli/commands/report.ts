@@ -103,7 +103,7 @@ function writeReport(a: ReportArgs, ts: TimeSystem, style: ReportStyle): void {
   const dir = resolve(a.out);
   const sel = { from: a.from, to: a.to };
   const ctx = loadScenarioContext(a.scenario, ts, sel);
-  const notes: string[] = [...notesOf(ctx.runs), ...ctx.scenario.stations.filter((s) => !s.geoidHeightGiven).map((s) => missingGeoidNote(s.id))];
+  const notes: string[] = [...notesOf(ctx.runs), ...ctx.scenario.stations.filter((s) => !s.geoidHeightGiven && s.body !== 'moon').map((s) => missingGeoidNote(s.id))];
   const passes = planPasses(ctx.runs, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
   const passMeta = { notes: notesOf(ctx.runs), scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, gravity: ctx.gravity.name };
 
