@@ -222,27 +222,32 @@ export function sgp4WithRate(rec: Sgp4RecordFields, tsince: number, c: Sgp4Const
     const zes = 0.01675;
     const znl = 1.5835218e-4;
     const zel = 0.0549;
-    // Sun, then Moon: f2, f3 and sin zf with their derivatives.
-    const terms = (zm0: number, rate: number, ecc: number): [number, number, number, number, number, number] => {
-      const zm = zm0 + rate * t;
-      const zf = zm + 2.0 * ecc * Math.sin(zm);
-      const zfD = rate * (1 + 2.0 * ecc * Math.cos(zm));
-      const sinzf = Math.sin(zf);
-      const coszf = Math.cos(zf);
-      const sinzfD = coszf * zfD;
-      const f2 = 0.5 * sinzf * sinzf - 0.25;
-      const f2D = sinzf * sinzfD;
-      const f3 = -0.5 * sinzf * coszf;
-      const f3D = -0.5 * (sinzfD * coszf - sinzf * sinzf * zfD);
-      return [f2, f3, sinzf, f2D, f3D, sinzfD];
-    };
-    const [sf2, sf3, ssz, sf2D, sf3D, sszD] = terms(rec.zmos, zns, zes);
+    // Sun, then Moon: f2, f3 and sin zf with their derivatives (written out twice: no allocation).
+    const szm = rec.zmos + zns * t;
+    const szf = szm + 2.0 * zes * Math.sin(szm);
+    const szfD = zns * (1 + 2.0 * zes * Math.cos(szm));
+    const ssz = Math.sin(szf);
+    const scz = Math.cos(szf);
+    const sszD = scz * szfD;
+    const sf2 = 0.5 * ssz * ssz - 0.25;
+    const sf2D = ssz * sszD;
+    const sf3 = -0.5 * ssz * scz;
+    const sf3D = -0.5 * (sszD * scz - ssz * ssz * szfD);
     const ses = rec.se2 * sf2 + rec.se3 * sf3;
     const sis = rec.si2 * sf2 + rec.si3 * sf3;
     const sls = rec.sl2 * sf2 + rec.sl3 * sf3 + rec.sl4 * ssz;
     const sghs = rec.sgh2 * sf2 + rec.sgh3 * sf3 + rec.sgh4 * ssz;
     const shs = rec.sh2 * sf2 + rec.sh3 * sf3;
-    const [lf2, lf3, lsz, lf2D, lf3D, lszD] = terms(rec.zmol, znl, zel);
+    const lzm = rec.zmol + znl * t;
+    const lzf = lzm + 2.0 * zel * Math.sin(lzm);
+    const lzfD = znl * (1 + 2.0 * zel * Math.cos(lzm));
+    const lsz = Math.sin(lzf);
+    const lcz = Math.cos(lzf);
+    const lszD = lcz * lzfD;
+    const lf2 = 0.5 * lsz * lsz - 0.25;
+    const lf2D = lsz * lszD;
+    const lf3 = -0.5 * lsz * lcz;
+    const lf3D = -0.5 * (lszD * lcz - lsz * lsz * lzfD);
     const sel = rec.ee2 * lf2 + rec.e3 * lf3;
     const sil = rec.xi2 * lf2 + rec.xi3 * lf3;
     const sll = rec.xl2 * lf2 + rec.xl3 * lf3 + rec.xl4 * lsz;

@@ -11,6 +11,7 @@
  */
 import { PREDICTION_RULE_TEXT, predictionSigmaNs, Z95 } from '../clock/noise.ts';
 import type { NoiseLevels } from '../clock/oscillator.ts';
+import { SECONDS_PER_DAY } from '../constants.ts';
 
 export { Z95 };
 
@@ -19,7 +20,15 @@ export const BAND_RULE_TEXT = PREDICTION_RULE_TEXT;
 
 /** 1-σ of the offset prediction [ns] after τ [s] from a known state; 0 without noise or at τ ≤ 0. */
 export function bandSigmaNs(noise: NoiseLevels | null, tauS: number): number {
-  return noise === null ? 0 : predictionSigmaNs(noise, tauS);
+  if (noise === null || !(tauS > 0)) return noise === null ? 0 : predictionSigmaNs(noise, tauS);
+  // predictionBandAt (clock/predictionBand.ts) with no fit and no random run, without its
+  // allocations: the planner's scans call this millions of times. Same operations, same result.
+  const a = noise.whiteFmAdev1s ?? 0;
+  const c = noise.randomWalkFmAdev1d ?? 0;
+  const white = a * a * tauS;
+  const rw = (((3 * c * c) / SECONDS_PER_DAY) * tauS ** 3) / 3;
+  const flicker = ((noise.flickerFmFloor ?? 0) * tauS) ** 2;
+  return Math.sqrt((white + rw + 0 + flicker) * 1e18 + 0);
 }
 
 /** Half-width [ns] of the 95 % band after τ [s]. */
