@@ -27,6 +27,15 @@ describe('Kubernetes Indexed Job: --shard auto --shard-count', () => {
     expect(readFileSync(join(dir, 'merged.csv'), 'utf8')).toBe(readFileSync(join(dir, 'one.csv'), 'utf8'));
   });
 
+  it('two indexed pods of navclock, merged, equal one run byte for byte (JSON)', async () => {
+    const args = (out: string, extra: string[] = []): string[] => ['navclock', DEMO, '--to', '2027-01-04T12:00:00Z', '--format', 'json', '--quiet', '--out', join(dir, out), ...extra];
+    const runs = await Promise.all([startCli(args('nav-one.json'), {}), ...[0, 1].map((i) => startCli(args(`nav-pod${i}.json`, ['--shard', 'auto', '--shard-count', '2']), { JOB_COMPLETION_INDEX: String(i) }))]);
+    for (const r of runs) expect(r.code, r.stderr).toBe(0);
+    const merged = await startCli(['merge', join(dir, 'nav-pod0.json'), join(dir, 'nav-pod1.json'), '--out', join(dir, 'nav-merged.json'), '--quiet'], {});
+    expect(merged.code, merged.stderr).toBe(0);
+    expect(readFileSync(join(dir, 'nav-merged.json'), 'utf8')).toBe(readFileSync(join(dir, 'nav-one.json'), 'utf8'));
+  });
+
   it('an index without --shard-count, or outside it, is a one-line input error (exit 2)', async () => {
     const base = ['resets', DEMO, '--format', 'json', '--shard', 'auto'];
     const [noCount, outside, notNumber] = await Promise.all([

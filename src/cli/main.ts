@@ -64,7 +64,7 @@ function parser(args: string[]) {
     )
     .command(
       'merge <files..>',
-      'Join shard outputs (size --all CSV or JSON Lines; passes, resets JSON or CSV) into what one run writes',
+      'Join shard outputs (size --all CSV or JSON Lines; passes, resets, navclock JSON or CSV) into what one run writes',
       (y) => mergeOptions(y),
       (a) => runMerge(a.files as string[], a.out, a.quiet),
     )
@@ -122,8 +122,8 @@ function parser(args: string[]) {
     .command(
       'navclock [scenario]',
       'Navigation-message clock parameter sets (af0, af1, af2) with their expected error',
-      (y) => navclockOptions(common(y)),
-      (a) => emit(runNavclock(a, ts), a.format, a.out, 'navclock'),
+      (y) => navclockOptions(common(y)).options(SHARD_OPTIONS),
+      async (a) => emit(await sharded(a, 'navclock', ts, (b) => runNavclock(b, ts)), a.format, a.out, 'navclock'),
     )
     .command(
       'demo',

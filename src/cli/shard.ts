@@ -1,5 +1,6 @@
 /**
- * `--shard K/N` and `--shard auto` for the scenario commands (passes, resets, compare, navclock):
+ * `--shard K/N` and `--shard auto` for the scenario commands passes, resets and navclock (compare's
+ * pairs need every clock in one run, and report's HTML every satellite, so they are not sharded):
  * the satellites a run selects are split round-robin (scenario order, after --sat) and this run
  * keeps those whose 0-based position i has i mod N = K − 1, as `size --all --shard` does with
  * element sets. The output is tagged (JSON: a `shard` field; CSV: a first `# shard` line) so that

@@ -1,6 +1,5 @@
 /**
- * Joining the outputs of scenario commands run with `--shard K/N` (passes, resets, compare,
- * navclock) into exactly what one unsharded run writes, byte for byte.
+ * Joining the outputs of scenario commands run with `--shard K/N` (passes, resets, navclock) into exactly what one unsharded run writes, byte for byte.
  *
  * Each shard output carries a tag (JSON: a leading `shard` field; CSV: a `# shard {...}` comment
  * line) with the command, K, N and the order of every satellite of the unsharded run. The join:
