@@ -8,7 +8,7 @@
  * ../shared/realdata; skipped with a message where absent), including the eccentric E14.
  */
 import { describe, expect, it } from 'vitest';
-import { readSp3Orbit } from '../src/cli/fitOrbit.ts';
+import { readSp3Orbit } from '../src/api/fitOrbit.ts';
 import { defaultTimeSystem } from '../src/io/tables.ts';
 import { gravityModel } from '../src/orbit/gravity.ts';
 import { elementsFromDegKm, elementsFromState } from '../src/orbit/keplerian.ts';

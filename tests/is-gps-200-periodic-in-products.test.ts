@@ -8,7 +8,7 @@
  */
 import { Matrix, solve } from 'ml-matrix';
 import { expect, it } from 'vitest';
-import { readSp3Orbit } from '../src/cli/fitOrbit.ts';
+import { readSp3Orbit } from '../src/api/fitOrbit.ts';
 import { pickSeries, readClockFile } from '../src/io/clockFormats.ts';
 import { defaultTimeSystem } from '../src/io/tables.ts';
 import { gravityModel } from '../src/orbit/gravity.ts';

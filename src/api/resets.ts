@@ -1,11 +1,18 @@
 /** Library use case: keep-in adjustment plans (command `resets`). */
 import type { ScenarioSpec } from '../model/scenario.ts';
+import { BAND_RULE_TEXT } from '../plan/band.ts';
 import type { SatelliteResetPlan } from '../plan/resets.ts';
 import { planScenarioResets, runNotes } from '../plan/scenarioResets.ts';
-import { prepareScenario, type ScenarioContext } from '../plan/scenarioRuns.ts';
+import { prepareScenario, resolveWindow, selectSatellites, type ScenarioContext } from '../plan/scenarioRuns.ts';
 import { resetsToJson, type ResetsJson, type ResetsMeta } from '../report/resetsReport.ts';
 import { durationArg, timeSystemOf, type CommonOptions, type DurationInput, type TimeInput } from './common.ts';
 import { resolveOrbit } from './scenario.ts';
+
+export type { SatelliteResetPlan } from '../plan/resets.ts';
+export type { ResetsMeta } from '../report/resetsReport.ts';
+
+/** How the 95 % prediction band of a plan is formed, in words (the reports print it). */
+export const PREDICTION_BAND_RULE: string = BAND_RULE_TEXT;
 
 /** Options of {@link planResets}: the `resets` flags in camelCase. */
 export interface ResetsOptions extends CommonOptions {
@@ -31,10 +38,23 @@ export function resetsHorizonS(scenario: ScenarioSpec, horizon: DurationInput | 
   return horizon === undefined ? scenario.policy.horizonS : durationArg(horizon, '--horizon');
 }
 
-/** The header of the `resets` output. */
+/** The header of the `resets` output; `notes` are the run's findings about its inputs. */
 export function resetsMeta(scenario: ScenarioSpec, notes: string[], fromTtJ2000S: number, toTtJ2000S: number): ResetsMeta {
   const p = scenario.policy;
-  return { notes, scenario: scenario.name, fromTtJ2000S, toTtJ2000S, reference: scenario.reference, marginNs: p.marginNs, leadTimeS: p.leadTimeS ?? 0, prefer: p.prefer };
+  return { notes, scenario: scenario.name, fromTtJ2000S, toTtJ2000S, reference: scenario.reference, marginNs: p.marginNs, leadTimeS: p.leadTimeS ?? 0, prefer: p.prefer, targetNs: p.targetNs, minSpacingS: p.minSpacingS, blackouts: p.blackouts.length };
+}
+
+/**
+ * The satellites a `resets` run plans (those the selection names that have a keep-in limit, in
+ * scenario order) and its window [s since J2000.0 TT], without preparing any orbit: what a caller
+ * needs to split the run over threads or shards, one satellite per part (`sat: id`).
+ */
+export function resetsParts(scenario: ScenarioSpec, options?: ResetsOptions): { satellites: string[]; fromTtJ2000S: number; toTtJ2000S: number } {
+  const ts = timeSystemOf(options);
+  const sats = selectSatellites(scenario, options ?? {}).filter((s) => s.clock !== null && s.clock.keepInNs !== null);
+  const horizonS = resetsHorizonS(scenario, options?.horizon);
+  const { from, to } = resolveWindow(scenario, ts, { ...(options ?? {}), horizonS }, scenario.fileName);
+  return { satellites: sats.map((s) => s.id), fromTtJ2000S: from, toTtJ2000S: to };
 }
 
 /**
@@ -57,7 +77,8 @@ export function runResets(scenario: ScenarioSpec, options?: ResetsOptions): Rese
 /**
  * When each satellite clock with a keep-in limit (`clock.keepInNs`) first leaves it, with the 95 %
  * band from the noise model, and the adjustments (phase step [ns] or frequency step [1]) placed in
- * real passes before it: the object `tauplan resets --format json` prints.
+ * real passes of uplink stations before it, respecting the policy's target, spacing and blackouts
+ * and the clock's step resolution: the object `tauplan resets --format json` prints.
  * @throws InputError when no selected satellite has a keep-in limit
  */
 export function planResets(scenario: ScenarioSpec, options?: ResetsOptions): ResetsJson {

@@ -39,3 +39,6 @@ export function loadScenario(pathOrText: string, options?: LoadScenarioOptions):
 
 /** The orbit resolver the use cases get: scenario orbits to trajectories (SP3 files from the cache). */
 export const resolveOrbit: OrbitResolver = trajectoryForSatellite;
+
+/** A comma-separated list of names (`--station A,B`); refuses one that names nothing (`--station ,`). */
+export { nameList } from '../plan/scenarioRuns.ts';

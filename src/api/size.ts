@@ -11,6 +11,8 @@ import { isLunarOrbiter } from '../orbit/lunarOrbit.ts';
 import { sizeLunarClock, type LunarSizeResult } from '../plan/lunarSize.ts';
 import { lunarSizeToJson, type LunarSizeJson } from '../report/lunarSizeReport.ts';
 import { sizeResolvedOrbit, spanStart } from '../plan/sizeOrbit.ts';
+import type { ScenarioContext } from '../plan/scenarioRuns.ts';
+import { sizeScenarioRuns } from '../plan/scenarioSizes.ts';
 import { sizeToJson, type SizeJson } from '../report/sizeReport.ts';
 import { durationArg, gravityArg, timeArg, timeSystemOf, type CommonOptions, type DurationInput, type TimeInput } from './common.ts';
 import { resolveOrbit } from './scenario.ts';
@@ -111,4 +113,13 @@ export function runSize(orbitOrReader: OrbitInput | (() => OrbitInput), options?
 export function sizeOrbit(orbit: OrbitInput, options?: SizeOptions): SizeJson | LunarSizeJson {
   const r = runSize(orbit, options);
   return 'body' in r && r.body === 'moon' ? lunarSizeToJson(r as LunarSizeResult, timeSystemOf(options)) : sizeToJson(r, timeSystemOf(options));
+}
+
+/**
+ * Size every satellite of a prepared scenario run (the `context` of `runPasses` or
+ * runResets) over one day from the window start, or the part of it its orbit covers: what the
+ * whole-job report shows. `notes` say which satellites were shortened or left out.
+ */
+export function sizeScenarioSatellites(context: ScenarioContext, nominalHz: number = GNSS_NOMINAL_HZ): { sizes: { result: SizeResult; title: string }[]; notes: string[] } {
+  return sizeScenarioRuns(context, nominalHz);
 }

@@ -9,7 +9,7 @@ import { checkOutputTarget, hookSignals, noteInputFile, removePendingTemps, setO
 import { checkNumberOptions, refuseCatalogueOptionsWithoutAll, refuseRepeatedOptions } from './options.ts';
 import { oneLineText } from '../report/safeText.ts';
 import { withCliNow } from './now.ts';
-import { enableWasmSgp4 } from '../orbit/sgp4.ts';
+import { enableSgp4Engine } from '../api/engine.ts';
 import { emit, OUTPUT_FORMATS, type OutputFormat } from './emit.ts';
 import { runTime } from './commands/time.ts';
 import { runSize, sizeOptions } from './commands/size.ts';
@@ -238,7 +238,7 @@ export async function main(args: string[]): Promise<number> {
   }
   try {
     refuseRepeatedOptions(args);
-    await enableWasmSgp4();
+    await enableSgp4Engine();
     // The leap-second table is needed before the commands are parsed: take --leap-seconds first.
     const leapIdx = args.findIndex((x) => x === '--leap-seconds' || x.startsWith('--leap-seconds='));
     if (leapIdx >= 0) {

@@ -116,8 +116,8 @@ export function checkNumberOptions(argv: Record<string, unknown>, args: readonly
   }
 }
 
-/** Comma-separated names (`--station A,B`); kept with the scenario selection in src/plan. */
-export { nameList } from '../plan/scenarioRuns.ts';
+/** Comma-separated names (`--station A,B`); kept with the scenario selection behind src/api. */
+export { nameList } from '../api/scenario.ts';
 
 /** `size` options that only mean something for a catalogue run refuse to be given without `--all`. */
 export function refuseCatalogueOptionsWithoutAll(argv: { all?: unknown; jobs?: unknown; shard?: unknown; strict?: unknown }): void {
@@ -129,26 +129,8 @@ export function refuseCatalogueOptionsWithoutAll(argv: { all?: unknown; jobs?: u
   }
 }
 
-/** Seconds in a day. */
-const DAY_S = 86_400;
-
-/**
- * A fit epoch must lie near the data: within the data span, widened on each side by the span itself
- * (at least one day). Further out the fitted offset is an extrapolation whose error grows with the
- * square (degree 2: the cube) of the distance, and the message says so instead of printing it.
- * @param epochTtJ2000S the epoch asked for; first/last the first and last sample (s since J2000.0 TT)
- * @param format formats an instant for the message
- */
-export function checkEpochNearData(epochTtJ2000S: number, firstTtJ2000S: number, lastTtJ2000S: number, format: (t: number) => string, flag = '--epoch'): void {
-  const marginS = Math.max(lastTtJ2000S - firstTtJ2000S, DAY_S);
-  if (epochTtJ2000S >= firstTtJ2000S - marginS && epochTtJ2000S <= lastTtJ2000S + marginS) return;
-  const awayDays = (epochTtJ2000S < firstTtJ2000S ? firstTtJ2000S - epochTtJ2000S : epochTtJ2000S - lastTtJ2000S) / DAY_S;
-  throw new InputError(
-    `epoch ${format(epochTtJ2000S)} is ${awayDays.toFixed(1)} days outside the data (${format(firstTtJ2000S)} to ${format(lastTtJ2000S)})`,
-    flag,
-    `give an epoch within ${(marginS / DAY_S).toFixed(1)} days of the data, or leave ${flag} out (the first sample)`,
-  );
-}
+/** The fit epoch check (kept with the fit use case in src/api/fitFile.ts). */
+export { checkEpochNearData } from '../api/fitFile.ts';
 
 /** `--body`: earth (default) or moon; anything else is a one-line usage error. */
 export function bodyFlag(value: string | undefined): 'earth' | 'moon' {

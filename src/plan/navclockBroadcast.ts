@@ -15,6 +15,8 @@ import { broadcastPolynomialS, broadcastRelativisticS, type BroadcastClockRecord
 import type { NavSystem } from '../clock/navMessage.ts';
 import { InputError } from '../errors.ts';
 
+export type { NavSystem } from '../clock/navMessage.ts';
+
 /** Precise clock of one satellite: s since J2000.0 TT and clock offset [s] without the periodic term. */
 export interface PreciseClockSeries {
   satellite: string;

@@ -9,6 +9,10 @@ import { regularGrid } from '../clock/grid.ts';
 import { stabilityTable, type StabilityTable, type TauSet } from '../clock/stabilityTable.ts';
 
 /** What the samples are. */
+/** Row and interval types of the tables, for the writers. */
+export type { StabilityTableRow } from '../clock/stabilityTable.ts';
+export type { DeviationInterval } from '../clock/edf.ts';
+
 export type StabilityDataType = 'phase' | 'frequency';
 
 /** Input of {@link stabilityOfRecord}. */

@@ -8,7 +8,7 @@ import type { FitResult } from '../plan/fit.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import { Instant } from '../time/instant.ts';
 import { textTable } from './format.ts';
-import type { DeviationInterval } from '../clock/edf.ts';
+import type { DeviationInterval } from '../plan/stability.ts';
 import { noiseTypeName } from './stabilityReport.ts';
 
 /** JSON shape of `tauplan fit`: the fit result without its internal time coordinate. */

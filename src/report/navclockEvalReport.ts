@@ -2,7 +2,7 @@
  * Writers for the broadcast clock evaluation of `tauplan navclock --nav --precise --orbit`
  * ({@link BroadcastEvalResult} from src/plan/navclockBroadcast.ts). Pure string building.
  */
-import type { NavSystem } from '../clock/navMessage.ts';
+import type { NavSystem } from '../plan/navclockBroadcast.ts';
 import type { BroadcastEvalResult } from '../plan/navclockBroadcast.ts';
 import { PLANNING_CAUTION } from './caution.ts';
 import { toCsv } from './csv.ts';

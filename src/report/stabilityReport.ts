@@ -4,8 +4,7 @@
  * src/clock/stabilityTable.ts.
  */
 import { stringify } from 'csv-stringify/sync';
-import type { DeviationInterval } from '../clock/edf.ts';
-import type { StabilityTableRow } from '../clock/stabilityTable.ts';
+import type { DeviationInterval, StabilityTableRow } from '../plan/stability.ts';
 import type { StabilityResult } from '../plan/stability.ts';
 import { PLANNING_CAUTION } from './caution.ts';
 import { textTable } from './format.ts';

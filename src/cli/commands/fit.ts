@@ -5,20 +5,16 @@
  */
 import type { Argv } from 'yargs';
 import { InputError } from '../../errors.ts';
-import type { ClockFile } from '../../io/clockReader.ts';
-import { MEASUREMENT_FORMATS, pickSeries, readClockFile, readClockText } from '../../io/clockFormats.ts';
+import { checkFitOptions, clockFileOptions, fitFromFile, type FitResult } from '../../api/fitFile.ts';
+import { MEASUREMENT_FORMATS, readClockFile, readClockText } from '../../io/clockFormats.ts';
 import { readTextWhole } from '../../io/textSource.ts';
 import { updateScenarioClock } from '../../io/updateScenario.ts';
-import type { MeasurementFormat, MeasurementSeries, PeriodicTerm } from '../../model/measurements.ts';
-import { fitSeries } from '../../plan/clockFit.ts';
-import type { FitResult } from '../../plan/fit.ts';
+import type { MeasurementFormat } from '../../model/measurements.ts';
 import { fitToCsv, fitToJson, fitToText } from '../../report/fitReport.ts';
 import { fitSection, page } from '../../report/htmlReport.ts';
-import { Instant, TIME_SCALES, type TimeScale } from '../../time/instant.ts';
+import { TIME_SCALES, type TimeScale } from '../../time/instant.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
-import { fitOrbit } from '../fitOrbit.ts';
-import { checkEpochNearData } from '../options.ts';
 
 export function fitOptions<T>(y: Argv<T>) {
   return y
@@ -40,6 +36,8 @@ export function fitOptions<T>(y: Argv<T>) {
     .option('update-scenario', { type: 'string', requiresArg: true, describe: 'write the fitted clock block of --sat into this scenario file (atomically)' });
 }
 
+export { clockFileOptions, fitFromFile };
+
 export interface FitArgs {
   measurements: string;
   degree: number;
@@ -57,50 +55,7 @@ export interface FitArgs {
 }
 
 function checkArgs(a: FitArgs): void {
-  if (a.degree !== 0 && a.degree !== 1 && a.degree !== 2) throw new InputError(`degree ${a.degree} is not 0, 1 or 2`, '--degree', 'use 0, 1 or 2');
-  if (!(a.clip >= 0)) throw new InputError(`--clip ${a.clip} is negative`, '--clip', 'give a threshold ≥ 0 (0 disables clipping)');
-  const segments = a.segments ?? 'none';
-  if (segments !== 'none' && segments !== 'auto') throw new InputError(`--segments ${JSON.stringify(segments)}`, '--segments', 'use none or auto');
-}
-
-/** Reading options shared by fit and fit --all. */
-export function clockFileOptions(a: FitArgs, ts: TimeSystem, wanted: ReadonlySet<string> | null) {
-  return {
-    timeSystem: ts,
-    wanted,
-    ...(a.inputFormat === undefined ? {} : { format: a.inputFormat as MeasurementFormat }),
-    ...(a.timeScale === undefined ? {} : { defaultScale: a.timeScale as TimeScale }),
-  };
-}
-
-/** Fit one series of a read file (the orbit resolved from the flags, the file, or none). */
-export function fitFromFile(file: ClockFile, a: FitArgs, ts: TimeSystem, series: MeasurementSeries = pickSeries(file, a.sat)): FitResult {
-  const first = series.ttJ2000S[0];
-  const last = series.ttJ2000S[series.ttJ2000S.length - 1];
-  if (series.format === 'csv' && a.sat !== undefined && a.orbit === undefined && a.scenario === undefined) {
-    throw new InputError('--sat without --scenario or --orbit (a CSV holds one clock; --sat names its satellite in the orbit file)', '--sat', 'give --scenario FILE or --orbit FILE too, or leave out --sat');
-  }
-  if (a.epoch !== undefined && series.ttJ2000S.length > 0) {
-    checkEpochNearData(ts.parse(a.epoch, '--epoch').ttJ2000S, first, last, (t) => ts.format(Instant.fromTtJ2000S(t)));
-  }
-  const orbitSat = series.kind === 'unknown' ? a.sat : series.clock;
-  if (series.kind === 'receiver' && (a.orbit !== undefined || a.scenario !== undefined)) {
-    throw new InputError(`${series.clock} is a receiver (AR) clock, which has no orbit`, '--orbit', 'leave out --orbit for station clocks');
-  }
-  const orbit = series.kind === 'receiver' ? null : fitOrbit(a, orbitSat, file, ts, first, last);
-  const result = fitSeries(series, {
-    degree: a.degree as 0 | 1 | 2,
-    timeSystem: ts,
-    clipSigma: a.clip,
-    segments: (a.segments ?? 'none') as 'none' | 'auto',
-    sourceName: file.fileName,
-    trajectory: orbit?.trajectory ?? null,
-    ...(orbit === null ? {} : { gravity: orbit.gravity, orbitWhere: orbit.where }),
-    ...(a.periodic === undefined ? {} : { periodic: a.periodic as PeriodicTerm, periodicReason: 'set with --periodic' }),
-    ...(a.epoch === undefined ? {} : { epochTtJ2000S: ts.parse(a.epoch, '--epoch').ttJ2000S }),
-  });
-  const notes = [...file.notes.map((n) => `source: ${n}`), ...(orbit === null ? [] : [`orbit: ${orbit.label}, ${orbit.gravity.name} gravity`]), ...result.notes];
-  return { ...result, notes };
+  checkFitOptions(a);
 }
 
 /** Fit a file read whole (small files, the demo, library callers). */

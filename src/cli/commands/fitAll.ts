@@ -4,56 +4,22 @@
  * samples and the residuals' stability at 1000 s and 1 d where the data reach. A clock that cannot
  * be fitted is a row with its reason; the run goes on.
  */
-import { availableParallelism } from 'node:os';
 import { InputError } from '../../errors.ts';
 import { readClockFile } from '../../io/clockFormats.ts';
 import { toJsonText, writeFileAtomic } from '../../io/output.ts';
-import type { MeasurementFormat, MeasurementSeries, PeriodicTerm } from '../../model/measurements.ts';
-import { fitSeries } from '../../plan/clockFit.ts';
-import { failedRow, SURVEY_TAUS_S, surveyRow, type FitSurveyRow } from '../../plan/fitAll.ts';
+import { failedSurveyRow, fitSurveyOne, type FitSurveyOptions, type FitSurveyRow } from '../../api/fitFile.ts';
+import type { MeasurementSeries } from '../../model/measurements.ts';
 import { surveyToCsv, surveyToHtml, surveyToJson, surveyToJsonl, surveyToText, type SurveyMeta } from '../../report/fitAllReport.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
-import { fitOrbit } from '../fitOrbit.ts';
-import { runPool } from '../workers.ts';
+import { checkJobs, jobsFor, runPool } from '../workers.ts';
 import type { FitWorkerTask } from '../fitWorker.ts';
 import { clockFileOptions, type FitArgs } from './fit.ts';
 
 /** The plain-data arguments a worker needs. */
-export interface FitSurveyArgs {
-  measurements: string;
-  fileFormat: MeasurementFormat;
-  degree: number;
-  clip: number;
-  orbit?: string;
-  scenario?: string;
-  gravity?: string;
-  periodic?: string;
-  epoch?: string;
-}
+export type FitSurveyArgs = FitSurveyOptions;
 
 /** Series shorter than this are fitted in process: a worker's start-up costs more than the fit. */
 const MIN_SERIES_FOR_WORKERS = 4;
-
-/** Fit one clock of a survey (in a worker or in process). */
-export function fitSurveyOne(series: MeasurementSeries, a: FitSurveyArgs, ts: TimeSystem): FitSurveyRow {
-  if (series.ttJ2000S.length === 0) return failedRow(series.clock, series.kind, 0, series.skipped, 'no usable value');
-  const first = series.ttJ2000S[0];
-  const last = series.ttJ2000S[series.ttJ2000S.length - 1];
-  const flags = { orbit: a.orbit ?? (a.fileFormat === 'sp3' ? a.measurements : undefined), scenario: a.scenario, gravity: a.gravity };
-  const orbit = series.kind === 'receiver' ? null : fitOrbit(flags, series.clock, null, ts, first, last);
-  const r = fitSeries(series, {
-    degree: a.degree as 0 | 1 | 2,
-    timeSystem: ts,
-    clipSigma: a.clip,
-    sourceName: a.measurements,
-    trajectory: orbit?.trajectory ?? null,
-    ...(orbit === null ? {} : { gravity: orbit.gravity }),
-    ...(a.periodic === undefined ? {} : { periodic: a.periodic as PeriodicTerm, periodicReason: 'set with --periodic' }),
-    ...(a.epoch === undefined ? {} : { epochTtJ2000S: ts.parse(a.epoch, '--epoch').ttJ2000S }),
-    stabilityTausS: SURVEY_TAUS_S,
-  });
-  return surveyRow(series.kind, r);
-}
 
 function failure(e: unknown): string {
   if (e instanceof InputError) return `${e.what} (${e.where})`;
@@ -64,7 +30,7 @@ function failure(e: unknown): string {
 export async function runFitAll(a: FitArgs & { format: string; out?: string; jobs?: number; quiet?: boolean }, ts: TimeSystem): Promise<void> {
   if (a.updateScenario !== undefined) throw new InputError('--update-scenario writes one clock', '--update-scenario', 'leave out --all, and name the clock with --sat');
   if (a.sat !== undefined) throw new InputError('--sat and --all given together', '--sat', 'leave out --sat to survey every clock, or --all to fit one');
-  if (a.jobs !== undefined && !(Number.isInteger(a.jobs) && a.jobs >= 1)) throw new InputError(`--jobs ${a.jobs} is not a whole number ≥ 1`, '--jobs', 'give 1 or more');
+  checkJobs(a.jobs);
   const file = await readClockFile(a.measurements, clockFileOptions(a, ts, null));
   const args: FitSurveyArgs = {
     measurements: a.measurements,
@@ -79,18 +45,18 @@ export async function runFitAll(a: FitArgs & { format: string; out?: string; job
   };
   const series = file.clocks.map((c) => file.series.get(c)).filter((s): s is MeasurementSeries => s !== undefined);
   if (series.length === 0) throw new InputError(`${file.fileName} holds no clock`, 'measurements', 'give a file with clock records');
-  const jobs = Math.min(a.jobs ?? availableParallelism(), series.length);
+  const jobs = jobsFor(a.jobs, series.length, ['clock', 'clocks'], a.quiet === true);
   let rows: FitSurveyRow[];
   if (jobs <= 1 || series.length < MIN_SERIES_FOR_WORKERS) {
     rows = series.map((s) => {
       try {
         return fitSurveyOne(s, args, ts);
       } catch (e) {
-        return failedRow(s.clock, s.kind, s.ttJ2000S.length, s.skipped, failure(e));
+        return failedSurveyRow(s, failure(e));
       }
     });
   } else {
-    rows = await runPool<FitWorkerTask, FitSurveyRow>('fitWorker', series.map((s) => ({ args, series: s })), jobs);
+    rows = await runPool<FitWorkerTask, FitSurveyRow>('fitWorker', null, series.map((s) => ({ args, series: s })), jobs);
   }
   if (a.quiet !== true) {
     for (const r of rows) if (r.error !== null) process.stderr.write(`tauplan: ${r.satellite} not fitted: ${r.error}\n`);

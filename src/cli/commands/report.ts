@@ -8,8 +8,9 @@
  */
 import { join, resolve } from 'node:path';
 import type { Argv } from 'yargs';
-import { PREDICTION_RULE_TEXT } from '../../clock/noise.ts';
-import { GNSS_NOMINAL_HZ } from '../../constants.ts';
+import { runPasses } from '../../api/passes.ts';
+import { PREDICTION_BAND_RULE, runResets } from '../../api/resets.ts';
+import { sizeScenarioSatellites } from '../../api/size.ts';
 import { InputError } from '../../errors.ts';
 import { loadScenario } from '../../io/loadScenario.ts';
 import { toJsonText } from '../../io/output.ts';
@@ -17,8 +18,6 @@ import { prepareOutputFolder, writeOutputFolder } from '../../io/outputFolder.ts
 import { escapeUnsafeText } from '../../report/safeText.ts';
 import { dataPath } from '../../io/tables.ts';
 import type { FitResult } from '../../plan/fit.ts';
-import { planPasses } from '../../plan/passes.ts';
-import { sizeClock, type SizeResult } from '../../plan/size.ts';
 import { compareToCsv, compareToJson, compareToText, sweepToCsv } from '../../report/analysisReports.ts';
 import { PLANNING_CAUTION } from '../../report/caution.ts';
 import { fitToCsv, fitToJson, fitToText } from '../../report/fitReport.ts';
@@ -31,12 +30,9 @@ import { resetsToCsv, resetsToJson, resetsToText } from '../../report/resetsRepo
 import { sizeToCsv, sizeToJson, sizeToText } from '../../report/sizeReport.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import { runNotes } from '../emit.ts';
-import { loadScenarioContext } from '../scenarioContext.ts';
 import { computeCompare } from './compare.ts';
 import { computeFit } from './fit.ts';
 import { computeSweep } from './sweep.ts';
-import { notesOf } from './passes.ts';
-import { computeResets } from './resets.ts';
 
 export function reportOptions<T>(y: Argv<T>) {
   return y
@@ -69,12 +65,6 @@ export interface ReportArgs {
 /** Files every report writes (resets and fit files depend on the scenario). */
 const ALWAYS_WRITTEN = ['report.html', 'passes.txt', 'passes.csv', 'passes.json', 'size.txt', 'size.csv', 'size.json', 'compare.txt', 'compare.csv', 'compare.json', 'sweep.csv'];
 
-/** Sizing span per satellite [s]: one day from the window start (or the part of it the orbit covers). */
-const SIZE_SPAN_S = 86400;
-
-/** Nothing in the whole job is sized below this span [s] (a flight that has barely started). */
-const MIN_SIZE_SPAN_S = 60;
-
 interface ReportStyle {
   title: string;
   subtitle: string;
@@ -101,28 +91,19 @@ function writeReport(a: ReportArgs, ts: TimeSystem, style: ReportStyle): void {
   const folderOptions = { force: a.force === true };
   prepareOutputFolder(a.out, ALWAYS_WRITTEN, folderOptions);
   const dir = resolve(a.out);
-  const sel = { from: a.from, to: a.to };
-  const ctx = loadScenarioContext(a.scenario, ts, sel);
-  const notes: string[] = [...notesOf(ctx.runs), ...ctx.scenario.stations.filter((s) => !s.geoidHeightGiven && s.body !== 'moon').map((s) => missingGeoidNote(s.id))];
-  const passes = planPasses(ctx.runs, ctx.stations, ctx.gmstRadAt, ctx.fromTtJ2000S, ctx.toTtJ2000S);
-  const passMeta = { notes: notesOf(ctx.runs), scenario: ctx.scenario.name, fromTtJ2000S: ctx.fromTtJ2000S, toTtJ2000S: ctx.toTtJ2000S, reference: ctx.scenario.reference, gravity: ctx.gravity.name };
+  const scenario = loadScenario(a.scenario, ts);
+  const passes = runPasses(scenario, { timeSystem: ts, from: a.from, to: a.to });
+  const ctx = passes.context;
+  const notes: string[] = [...passes.meta.notes, ...ctx.scenario.stations.filter((s) => !s.geoidHeightGiven && s.body !== 'moon').map((s) => missingGeoidNote(s.id))];
+  const passMeta = passes.meta;
 
   const withLimit = ctx.runs.some((r) => r.keepInNs !== null);
-  const resets = withLimit ? computeResets({ scenario: a.scenario, horizon: a.horizon, from: a.from }, ts) : null;
+  const resets = withLimit ? runResets(scenario, { timeSystem: ts, horizon: a.horizon, from: a.from }) : null;
   if (resets === null) notes.push('no satellite has a keep-in limit (clock.keepInNs): the report has no adjustment plan');
   else notes.push(...resets.meta.notes);
 
-  const sizes: { result: SizeResult; title: string }[] = [];
-  for (const run of ctx.runs) {
-    const from = Math.max(ctx.fromTtJ2000S, run.startTtJ2000S ?? ctx.fromTtJ2000S);
-    const spanS = Math.min(SIZE_SPAN_S, run.endTtJ2000S - from);
-    if (!(spanS >= MIN_SIZE_SPAN_S)) {
-      notes.push(`${run.id}: not sized (less than ${MIN_SIZE_SPAN_S} s of orbit in the window)`);
-      continue;
-    }
-    if (spanS < SIZE_SPAN_S) notes.push(`${run.id}: sized over ${(spanS / 3600).toFixed(2)} h, the part of the first day its orbit source covers`);
-    sizes.push({ result: sizeClock({ trajectory: run.trajectory, gravity: ctx.gravity, fromTtJ2000S: from, spanS, nominalHz: GNSS_NOMINAL_HZ }), title: run.id });
-  }
+  const { sizes, notes: sizeNotes } = sizeScenarioSatellites(ctx);
+  notes.push(...sizeNotes);
 
   const fits: { satellite: string; result: FitResult }[] = [];
   for (const sat of ctx.satellites) {
@@ -137,7 +118,7 @@ function writeReport(a: ReportArgs, ts: TimeSystem, style: ReportStyle): void {
 
   const sections: SectionSpec[] = [
     ...passesSections(ts, ctx.runs, passes.rows, ctx.stations.map((s) => s.id), ctx.fromTtJ2000S, ctx.toTtJ2000S),
-    ...(resets === null ? [] : [resetsSection(ts, resets.ctx.runs, resets.plans, resets.ctx.fromTtJ2000S, resets.ctx.toTtJ2000S, PREDICTION_RULE_TEXT)]),
+    ...(resets === null ? [] : [resetsSection(ts, resets.context.runs, resets.plans, resets.context.fromTtJ2000S, resets.context.toTtJ2000S, PREDICTION_BAND_RULE)]),
     ...sizes.map((s) => sizeSection(s.result, s.title)),
     ...fits.map((f) => fitSection(f.result)),
     compareSection(ts, compare.result, compare.meta, compareFigures(ts, compare.result)),
@@ -190,7 +171,7 @@ function writeReport(a: ReportArgs, ts: TimeSystem, style: ReportStyle): void {
   const lines = [
     `${style.title}`,
     `  ${ctx.runs.length} satellites, ${ctx.stations.length} stations; ${passes.rows.length} passes in ${((ctx.toTtJ2000S - ctx.fromTtJ2000S) / 86400).toFixed(1)} days`,
-    resets === null ? '  no keep-in plan (no satellite has a keep-in limit)' : `  ${adjustments} keep-in adjustments planned over ${((resets.ctx.toTtJ2000S - resets.ctx.fromTtJ2000S) / 86400).toFixed(0)} days`,
+    resets === null ? '  no keep-in plan (no satellite has a keep-in limit)' : `  ${adjustments} keep-in adjustments planned over ${((resets.context.toTtJ2000S - resets.context.fromTtJ2000S) / 86400).toFixed(0)} days`,
     ...fits.map((f) => `  ${f.satellite} fit from ${f.result.used} measurements: y = ${f.result.fractionalFrequency === null ? '—' : f.result.fractionalFrequency.toExponential(3)} (hardware + mean relativistic)`),
     `  break-even altitude ${sweep.result.breakEvenAltitudeKm?.toFixed(1)} km (i = 55°, ${ctx.gravity.name} gravity)`,
     ...all.map((n) => `  NOTE: ${n}`),

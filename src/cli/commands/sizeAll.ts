@@ -2,7 +2,8 @@
  * `tauplan size --tle FILE --all` (or `--omm FILE --all`): every element set of a catalogue, one row
  * each, in file order whatever the number of worker threads.
  *
- * - `--jobs N` caps the worker threads (default os.availableParallelism()); `--jobs 1` sizes in-process.
+ * - `--jobs N` asks for worker threads (default os.availableParallelism()), capped by the element sets
+ *   and the cores (../workers.ts); `--jobs 1` sizes in-process.
  * - `--shard K/N` sizes only the element sets whose 0-based file index i has i mod N = K − 1.
  *   Rows carry `index`, so `tauplan merge` can put shard outputs back into file order.
  * - csv and jsonl stream: a row is written as soon as every row before it is done; only the rows
@@ -11,25 +12,22 @@
  *   goes on and exits 0. `--strict` makes any such failure a failed run (exit 2, no --out file).
  *   A fault in the file itself (bad checksum, ...) still fails the whole run at once.
  */
-import { availableParallelism } from 'node:os';
-import type { Worker } from 'node:worker_threads';
-import { startModuleWorker } from '../workers.ts';
+import { checkJobs, jobsFor, runOrderedPool } from '../workers.ts';
 import cliProgress from 'cli-progress';
-import { gravityModel } from '../../orbit/gravity.ts';
-import { InputError, InternalError } from '../../errors.ts';
+import { InputError } from '../../errors.ts';
 import { idOf, labelOf, readElementSets } from '../../io/orbitSources.ts';
 import { openOutput, toJsonText } from '../../io/output.ts';
 import { escapeUnsafeText } from '../../report/safeText.ts';
 import {
+  catalogueGravity,
   inShard,
-  InOrderBuffer,
   parseShard,
   sizeCatalogueItem,
   type CatalogueItem,
   type CatalogueOutcome,
   type CatalogueSizeOptions,
   type ShardSpec,
-} from '../../plan/catalogue.ts';
+} from '../../api/catalogue.ts';
 import { SIZE_CSV_COLUMNS, sizeCsvRow, sizeToJson } from '../../report/sizeReport.ts';
 import { toCsv, type CsvCell } from '../../report/csv.ts';
 import { fixed, signed } from '../../report/format.ts';
@@ -37,7 +35,7 @@ import { PLANNING_CAUTION } from '../../report/caution.ts';
 import { parsePositiveDurationS } from '../../time/duration.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { SizeArgs } from './size.ts';
-import type { WorkerBatch, WorkerInit, WorkerReply } from '../sizeWorker.ts';
+import type { WorkerInit, WorkerReply } from '../sizeWorker.ts';
 
 /** Output formats of `size --all`. */
 export const SIZE_ALL_FORMATS = ['csv', 'jsonl', 'json', 'text'] as const;
@@ -105,14 +103,9 @@ function jsonObject(o: CatalogueOutcome, sourceLabel: string, gravityName: strin
   return { index: o.index, name: o.name, satellite: o.id, source: sourceLabel, gravity: gravityName, error: o.error };
 }
 
-/** Start a size worker (bundle or sources, see ../workers.ts). */
-function startWorker(init: WorkerInit): Worker {
-  return startModuleWorker('sizeWorker', init);
-}
-
 /**
  * Size `items` and call `onOutcomes` with outcomes in item order, as soon as an in-order prefix is complete.
- * `jobs` = 1 runs in-process; more starts up to that many worker threads.
+ * `jobs` = 1 runs in-process; more spreads batches over the worker pool (../workers.ts).
  */
 export async function sizeItems(
   items: readonly CatalogueItem[],
@@ -123,7 +116,7 @@ export async function sizeItems(
 ): Promise<void> {
   if (items.length === 0) return;
   if (jobs <= 1) {
-    const gravity = gravityModel(options.gravityName, '--gravity');
+    const gravity = catalogueGravity(options.gravityName);
     const batch = 16;
     for (let i = 0; i < items.length; i += batch) {
       onOutcomes(items.slice(i, i + batch).map((it) => sizeCatalogueItem(it, options, ts, gravity)));
@@ -133,67 +126,13 @@ export async function sizeItems(
     return;
   }
   const batchSize = Math.max(1, Math.min(32, Math.ceil(items.length / (jobs * 8))));
-  const batchCount = Math.ceil(items.length / batchSize);
-  const workerCount = Math.min(jobs, batchCount);
-  // Never dispatch further ahead of the oldest unfinished batch than this: bounds what waits in `order`
-  // (a few thousand results at most) while a slow batch (deep-space orbits) does not stall the others.
-  const window = workerCount * 64;
-  const order = new InOrderBuffer<CatalogueOutcome[]>();
+  const batches: CatalogueItem[][] = [];
+  for (let i = 0; i < items.length; i += batchSize) batches.push(items.slice(i, i + batchSize));
   const init: WorkerInit = { options };
-  const workers: Worker[] = [];
-  try {
-    await new Promise<void>((resolve, reject) => {
-      let nextBatch = 0;
-      let done = 0;
-      let failed = false;
-      const inFlight = new Map<Worker, number>();
-      const fail = (e: unknown): void => {
-        if (failed) return;
-        failed = true;
-        reject(e instanceof Error ? e : new InternalError(String(e), 'worker'));
-      };
-      const feed = (w: Worker): void => {
-        while (!failed && (inFlight.get(w) ?? 0) < 2 && nextBatch < batchCount && nextBatch < order.next + window) {
-          const b = nextBatch++;
-          const msg: WorkerBatch = { batch: b, items: items.slice(b * batchSize, (b + 1) * batchSize) };
-          inFlight.set(w, (inFlight.get(w) ?? 0) + 1);
-          w.postMessage(msg);
-        }
-      };
-      for (let i = 0; i < workerCount; i++) {
-        const w = startWorker(init);
-        workers.push(w);
-        inFlight.set(w, 0);
-        w.on('message', (reply: WorkerReply) => {
-          if (failed) return;
-          inFlight.set(w, (inFlight.get(w) ?? 1) - 1);
-          if (reply.usedPastExpiry) ts.leap.usedPastExpiry = true;
-          try {
-            for (const outcomes of order.put(reply.batch, reply.outcomes)) {
-              done++;
-              onOutcomes(outcomes);
-            }
-          } catch (e) {
-            fail(e);
-            return;
-          }
-          if (done === batchCount) {
-            resolve();
-            return;
-          }
-          // A released prefix may unblock the window for every worker, not only this one.
-          for (const other of workers) feed(other);
-        });
-        w.on('error', (e) => fail(new InternalError(`size worker failed: ${e instanceof Error ? e.message : String(e)}`, 'worker')));
-        w.on('exit', (code) => {
-          if (done < batchCount) fail(new InternalError(`size worker exited early with code ${code}`, 'worker'));
-        });
-      }
-      for (const w of workers) feed(w);
-    });
-  } finally {
-    await Promise.all(workers.map((w) => w.terminate()));
-  }
+  await runOrderedPool<CatalogueItem[], WorkerReply>('sizeWorker', init, batches, jobs, (reply) => {
+    if (reply.usedPastExpiry) ts.leap.usedPastExpiry = true;
+    onOutcomes(reply.outcomes);
+  });
 }
 
 /** Progress on stderr for runs longer than about 2 s, only on a terminal and without --quiet. */
@@ -222,12 +161,6 @@ function progress(total: number, enabled: boolean): { tick(n: number, failed: nu
   };
 }
 
-function positiveJobs(jobs: number | undefined): number {
-  if (jobs === undefined) return availableParallelism();
-  if (!(Number.isInteger(jobs) && jobs >= 1)) throw new InputError(`--jobs ${jobs} is not a whole number ≥ 1`, '--jobs', 'give e.g. --jobs 4, or --jobs 1 to run without worker threads');
-  return jobs;
-}
-
 /** Run `size --all`; writes the rows and returns the counts. Throws InputError for --strict failures. */
 export async function runSizeAll(a: SizeAllArgs, ts: TimeSystem): Promise<SizeAllSummary> {
   if (a.tle === undefined && a.omm === undefined) throw new InputError('--all needs an element-set file', '--all', 'give --tle FILE or --omm FILE');
@@ -240,11 +173,11 @@ export async function runSizeAll(a: SizeAllArgs, ts: TimeSystem): Promise<SizeAl
   if (!(SIZE_ALL_FORMATS as readonly string[]).includes(format)) {
     throw new InputError(`size --all has no ${format} output`, '--format', 'use csv, jsonl, json or text');
   }
-  const gravity = gravityModel(a.gravity, '--gravity');
+  const gravity = catalogueGravity(a.gravity);
   const spanS = parsePositiveDurationS(a.span ?? '1d', '--span');
   if (!(a.nominalHz > 0)) throw new InputError(`nominal frequency ${a.nominalHz} Hz is not positive`, '--nominal-hz', 'give e.g. 10.23e6');
   const fromTtJ2000S = a.from === undefined ? null : ts.parse(a.from, '--from').ttJ2000S;
-  const jobs = positiveJobs(a.jobs);
+  checkJobs(a.jobs);
   const shard: ShardSpec | null = a.shard === undefined ? null : parseShard(a.shard, '--shard');
   const kind = a.tle !== undefined ? 'tle' : 'omm';
   const file = (a.tle ?? a.omm) as string;
@@ -254,6 +187,7 @@ export async function runSizeAll(a: SizeAllArgs, ts: TimeSystem): Promise<SizeAl
   records.forEach((record, index) => {
     if (inShard(index, shard)) items.push({ index, id: idOf(record), name: labelOf(record), record });
   });
+  const jobs = jobsFor(a.jobs, items.length, ['element set', 'element sets'], a.quiet === true);
   const options: CatalogueSizeOptions = { gravityName: a.gravity, spanS, fromTtJ2000S, nominalHz: a.nominalHz };
   const sourceLabel = kind === 'tle' ? 'SGP4 (TLE)' : 'SGP4 (OMM)';
   const streaming = format === 'csv' || format === 'jsonl';

@@ -4,7 +4,7 @@ import { InputError } from '../../errors.ts';
 import { parseMeasurementsCsv } from '../../io/measurements.ts';
 import { readInputText } from '../../io/textSource.ts';
 import { looksLikeMeasurementCsv, parseSingleColumn } from '../../io/stabilityInput.ts';
-import { stabilityOfRecord, type StabilityDataType, type StabilityRecord } from '../../plan/stability.ts';
+import { frequencyStability, type StabilityDataType, type StabilityRecord } from '../../api/stability.ts';
 import { page } from '../../report/htmlReport.ts';
 import { stabilitySection, stabilityToCsv, stabilityToJson, stabilityToText } from '../../report/stabilityReport.ts';
 import { parsePositiveDurationS } from '../../time/duration.ts';
@@ -54,7 +54,7 @@ export function computeStability(a: StabilityArgs, ts: TimeSystem) {
     const col = parseSingleColumn(text, a.file);
     record = { values: col.values, dataType: a.data as StabilityDataType, tau0S, timesS: null, lines: Array.from(col.lines), nanCount: col.nanCount, source: a.file, tauSet: a.taus };
   }
-  return stabilityOfRecord(record);
+  return frequencyStability(record);
 }
 
 export function runStability(a: StabilityArgs, ts: TimeSystem): Rendered {

@@ -1,5 +1,6 @@
 /**
- * The orbit of a measured clock for `fit`: `--orbit FILE` (SP3, TLE/3LE, OMM or a scenario; the
+ * The orbit of a measured clock for `fit` (the library reads the orbit file, as loadScenario reads
+ * a scenario): `--orbit FILE` (SP3, TLE/3LE, OMM or a scenario; the
  * kind is read from the content), the older `--scenario FILE`, or the SP3 file whose clock column
  * is being fitted. Returns null when there is none.
  */
@@ -18,7 +19,7 @@ import { Sgp4Trajectory } from '../orbit/sgp4.ts';
 import { Sp3Trajectory } from '../orbit/sp3.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
-import { scenarioGravity } from './scenarioContext.ts';
+import { scenarioGravity } from '../plan/scenarioRuns.ts';
 
 /** An orbit for the fit, with the gravity model to integrate the clock rate in. */
 export interface FitOrbit {
