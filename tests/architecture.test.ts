@@ -41,24 +41,6 @@ const ALLOWED: Record<Layer, readonly Layer[]> = {
 /** Arrows against the layering that remain to be removed (`from → to`, paths under src/). */
 const KNOWN_ARROWS: ReadonlySet<string> = new Set([
   // fit with real products and fit --all (issue 14), landed in parallel with the public API:
-  'src/cli/commands/navclock.ts → src/clock/navMessage.ts',
-  'src/cli/commands/navclock.ts → src/clock/noise.ts',
-  'src/cli/commands/navclock.ts → src/plan/navclock.ts',
-  'src/cli/commands/navclock.ts → src/plan/navclockSources.ts',
-  'src/cli/commands/navclockEval.ts → src/clock/navMessage.ts',
-  'src/cli/commands/navclockEval.ts → src/clock/rate.ts',
-  'src/cli/commands/navclockEval.ts → src/orbit/sp3.ts',
-  'src/cli/commands/navclockEval.ts → src/plan/navclockBroadcast.ts',
-  'src/cli/commands/navclockMeasured.ts → src/clock/rate.ts',
-  'src/cli/commands/navclockMeasured.ts → src/orbit/sp3.ts',
-  'src/cli/commands/navclockMeasured.ts → src/orbit/trajectory.ts',
-  'src/cli/commands/navclockMeasured.ts → src/plan/fit.ts',
-  'src/cli/commands/navclockMeasured.ts → src/plan/navclock.ts',
-  'src/cli/commands/navclockMeasured.ts → src/plan/navclockSources.ts',
-  'src/cli/commands/report.ts → src/plan/fit.ts',
-  'src/cli/scenarioContext.ts → src/plan/scenarioRuns.ts',
-  'src/report/htmlReport.ts → src/clock/rate.ts',
-  'src/report/htmlReport.ts → src/orbit/trajectory.ts',
 ]);
 
 /** The layer of a file under src/ (path relative to src, with `/`). */

@@ -8,6 +8,7 @@ import { preloadScenarioFiles, trajectoryForSatellite } from '../io/orbitSources
 import { parseScenarioText } from '../io/scenario.ts';
 import type { ScenarioSpec } from '../model/scenario.ts';
 import type { OrbitResolver } from '../orbit/source.ts';
+import { prepareScenario, type ScenarioContext, type ScenarioSelection } from '../plan/scenarioRuns.ts';
 import { timeSystemOf, type CommonOptions } from './common.ts';
 
 /** Options of {@link loadScenario}. */
@@ -42,3 +43,15 @@ export const resolveOrbit: OrbitResolver = trajectoryForSatellite;
 
 /** A comma-separated list of names (`--station A,B`); refuses one that names nothing (`--station ,`). */
 export { nameList } from '../plan/scenarioRuns.ts';
+
+/** Which part of a scenario a run uses: the scenario commands' flags in camelCase. */
+export type { ScenarioSelection, ScenarioContext } from '../plan/scenarioRuns.ts';
+
+/**
+ * A scenario made ready for the use cases: the window and selection checked, each selected
+ * satellite's trajectory and clock prepared, the stations picked. `path` names the scenario in
+ * messages (default its file name).
+ */
+export function prepareScenarioRun(scenario: ScenarioSpec, selection: ScenarioSelection, options?: CommonOptions, path: string = scenario.fileName): ScenarioContext {
+  return prepareScenario(scenario, timeSystemOf(options), selection, resolveOrbit, path);
+}

@@ -11,8 +11,7 @@ import type { SatelliteClockRun } from '../plan/satelliteClock.ts';
 import type { SizeResult } from '../plan/size.ts';
 import type { CompareResult } from '../plan/compare.ts';
 import type { SweepResult } from '../plan/sweep.ts';
-import { allocStateBlock } from '../orbit/trajectory.ts';
-import { conventionalPeriodicS } from '../clock/rate.ts';
+import { clockOffsetSeriesNs, periodicSeriesNs, runSpan } from '../plan/series.ts';
 import { Instant } from '../time/instant.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import { PLANNING_CAUTION } from './caution.ts';
@@ -94,17 +93,7 @@ export function sizeSection(r: SizeResult, title: string = r.satellite): Section
 
 // ---- passes and clocks ------------------------------------------------------------------------
 
-/** The part of [from, to] a run covers (a sub-orbital flight or a decaying orbit covers less). */
-export function runSpan(run: SatelliteClockRun, fromTt: number, toTt: number): { from: number; to: number } {
-  return { from: Math.max(fromTt, run.startTtJ2000S ?? fromTt), to: Math.min(toTt, run.endTtJ2000S) };
-}
-
-/** n + 1 evenly spaced instants over [from, to]. */
-function sampleTimes(from: number, to: number, n: number): Float64Array {
-  const t = new Float64Array(n + 1);
-  for (let k = 0; k <= n; k++) t[k] = from + ((to - from) * k) / n;
-  return t;
-}
+export { runSpan };
 
 /**
  * A time-offset axis unit for values given in ns: ns, µs, ms or s, so that tick labels stay short
@@ -119,12 +108,10 @@ export function offsetUnit(maxAbsNs: number): { unit: string; perUnitNs: number 
 
 /** Clock offset against time per satellite, passes shaded, keep-in limits drawn. */
 export function clockOffsetFigures(ts: TimeSystem, runs: readonly SatelliteClockRun[], rows: readonly PassClockRow[], fromTt: number, toTt: number): string[] {
-  const n = 600;
   return runs.map((run) => {
-    const span = runSpan(run, fromTt, toTt);
-    const t = sampleTimes(span.from, span.to, n);
-    const x = Array.from(t, (tt) => utcMs(ts, tt));
-    const yNs = Array.from(t, (tt) => run.clock.offsetNs(tt));
+    const series = clockOffsetSeriesNs(run, fromTt, toTt);
+    const x = Array.from(series.tTtJ2000S, (tt) => utcMs(ts, tt));
+    const yNs = series.values;
     const u = offsetUnit(Math.max(...yNs.map(Math.abs), run.keepInNs ?? 0));
     const mine = rows.filter((r) => r.satelliteId === run.id);
     return linePlot({
@@ -144,16 +131,7 @@ export function clockOffsetFigures(ts: TimeSystem, runs: readonly SatelliteClock
  */
 export function periodicFigures(ts: TimeSystem, runs: readonly SatelliteClockRun[], fromTt: number, toTt: number): string[] {
   return runs.map((run) => {
-    const span = runSpan(run, fromTt, toTt);
-    const orbits = Number.isFinite(run.orbit.periodS) && run.orbit.periodS > 0 ? (span.to - span.from) / run.orbit.periodS : 1;
-    const n = Math.min(6000, Math.max(400, Math.ceil(orbits * 60)));
-    const t = sampleTimes(span.from, span.to, n);
-    const block = allocStateBlock(n + 1);
-    run.trajectory.sampleInto(t, block);
-    const p = block.positionM;
-    const v = block.velocityMPerS;
-    const y: number[] = [];
-    for (let i = 0; i <= n; i++) y.push(conventionalPeriodicS(p[3 * i], p[3 * i + 1], p[3 * i + 2], v[3 * i], v[3 * i + 1], v[3 * i + 2]) * 1e9);
+    const { tTtJ2000S: t, values: y } = periodicSeriesNs(run, fromTt, toTt);
     return linePlot({ title: `${run.id} — periodic term −2 r·v/c² (corrected in the receiver)`, xKind: 'time', yAxis: { label: '−2 r·v/c²', unit: 'ns' }, series: [{ label: run.id, x: Array.from(t, (tt) => utcMs(ts, tt)), y }], heightPx: 240 });
   });
 }

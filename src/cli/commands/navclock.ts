@@ -4,22 +4,16 @@
  */
 import type { Argv } from 'yargs';
 import { InputError } from '../../errors.ts';
-import { PREDICTION_RULE_TEXT } from '../../clock/noise.ts';
-import type { NavSystem } from '../../clock/navMessage.ts';
-import { navigationClockSets, type NavClockOptions, type NavClockResult, type PredictedClock } from '../../plan/navclock.ts';
-import { predictedFromRun } from '../../plan/navclockSources.ts';
-import { navClockToCsv, navClockToJson, navClockToText, type NavClockMeta } from '../../report/navclockReport.ts';
+import { DEFAULT_PREDICTION_SPACING_S, runNavClockSets, type NavClockRun, type NavClockSetOptions } from '../../api/navclock.ts';
+import { loadScenario } from '../../io/loadScenario.ts';
+import { navClockToCsv, navClockToJson, navClockToText } from '../../report/navclockReport.ts';
 import { navClockToHtml } from '../../report/navclockHtml.ts';
-import { parsePositiveDurationS } from '../../time/duration.ts';
-import { Instant } from '../../time/instant.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import type { Rendered } from '../emit.ts';
-import { loadScenarioContext } from '../scenarioContext.ts';
 import { runNavEval } from './navclockEval.ts';
 import { computeNavclockMeasured } from './navclockMeasured.ts';
 
-/** Spacing of the prediction samples the polynomial is fitted to [s] (default of --spacing). */
-export const DEFAULT_PREDICTION_SPACING_S = 300;
+export { DEFAULT_PREDICTION_SPACING_S };
 
 export function navclockOptions<T>(y: Argv<T>) {
   return y
@@ -54,33 +48,14 @@ export interface NavclockArgs {
   measurements?: string;
 }
 
-/** The generation options shared by the scenario and measurement modes. */
-export function navClockOptionsFrom(a: NavclockArgs, ts: TimeSystem, fromTtJ2000S: number, toTtJ2000S: number): NavClockOptions {
-  if (a.degree !== 1 && a.degree !== 2) throw new InputError(`degree ${a.degree} is not 1 or 2`, '--degree', 'use 1 (offset and rate) or 2 (and drift)');
-  const system = a.system ?? 'gps';
-  if (system !== 'gps' && system !== 'galileo') throw new InputError(`system ${JSON.stringify(a.system)}`, '--system', 'use gps or galileo');
-  return {
-    system: system as NavSystem,
-    degree: a.degree,
-    intervalS: parsePositiveDurationS(a.interval, '--interval'),
-    fitIntervalS: parsePositiveDurationS(a.fitInterval, '--fit-interval'),
-    spacingS: a.spacing === undefined ? DEFAULT_PREDICTION_SPACING_S : parsePositiveDurationS(a.spacing, '--spacing'),
-    fromTtJ2000S,
-    toTtJ2000S,
-    gpsWeekOf: (t) => ts.gpsWeek(Instant.fromTtJ2000S(t)),
-    utcOf: (t) => ts.format(Instant.fromTtJ2000S(t)),
-  };
+/** The `navclock` flags as the library's options. */
+export function navClockSetOptions(a: NavclockArgs, ts: TimeSystem): NavClockSetOptions {
+  return { timeSystem: ts, system: a.system, degree: a.degree, interval: a.interval, fitInterval: a.fitInterval, spacing: a.spacing, from: a.from, to: a.to, sat: a.sat };
 }
 
 /** Parameter sets for the satellites of a scenario. */
-export function computeNavclockScenario(a: NavclockArgs & { scenario: string }, ts: TimeSystem): { result: NavClockResult; meta: NavClockMeta } {
-  const ctx = loadScenarioContext(a.scenario, ts, a);
-  const options = navClockOptionsFrom(a, ts, ctx.fromTtJ2000S, ctx.toTtJ2000S);
-  const clocks: PredictedClock[] = ctx.runs.map(predictedFromRun);
-  const result = navigationClockSets(clocks, options);
-  const notes = ctx.runs.flatMap((r) => (r.note === null ? [] : [r.note]));
-  for (const r of ctx.runs) if (r.clock.params?.noise === undefined) notes.push(`${r.id}: no noise model in the scenario, so the prediction band is 0`);
-  return { result, meta: { source: `scenario ${ctx.scenario.name} (${a.scenario})`, bandRule: PREDICTION_RULE_TEXT, notes } };
+export function computeNavclockScenario(a: NavclockArgs & { scenario: string }, ts: TimeSystem): NavClockRun {
+  return runNavClockSets(loadScenario(a.scenario, ts), navClockSetOptions(a, ts));
 }
 
 export function runNavclock(a: NavclockArgs, ts: TimeSystem): Rendered {

@@ -17,7 +17,7 @@ import { toJsonText } from '../../io/output.ts';
 import { prepareOutputFolder, writeOutputFolder } from '../../io/outputFolder.ts';
 import { escapeUnsafeText } from '../../report/safeText.ts';
 import { dataPath } from '../../io/tables.ts';
-import type { FitResult } from '../../plan/fit.ts';
+import type { FitResult } from '../../api/fitFile.ts';
 import { compareToCsv, compareToJson, compareToText, sweepToCsv } from '../../report/analysisReports.ts';
 import { PLANNING_CAUTION } from '../../report/caution.ts';
 import { fitToCsv, fitToJson, fitToText } from '../../report/fitReport.ts';
