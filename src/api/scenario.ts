@@ -55,3 +55,6 @@ export type { ScenarioSelection, ScenarioContext } from '../plan/scenarioRuns.ts
 export function prepareScenarioRun(scenario: ScenarioSpec, selection: ScenarioSelection, options?: CommonOptions, path: string = scenario.fileName): ScenarioContext {
   return prepareScenario(scenario, timeSystemOf(options), selection, resolveOrbit, path);
 }
+
+/** The satellites a selection names (`sat`: comma-separated ids, names or catalogue numbers; all by default), in scenario order. */
+export { selectSatellites } from '../plan/scenarioRuns.ts';

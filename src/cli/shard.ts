@@ -16,7 +16,7 @@ import { loadScenario } from '../io/loadScenario.ts';
 import type { SatelliteSpec } from '../model/scenario.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import type { Rendered } from './emit.ts';
-import { selectSatellites } from './scenarioContext.ts';
+import { selectSatellites } from '../api/scenario.ts';
 
 /** Shard K of N (1 ≤ K ≤ N). */
 export interface ShardSpec {
