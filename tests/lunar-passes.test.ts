@@ -84,6 +84,9 @@ describe('passes on the invented relay scenario (tests/fixtures/lunar/relay.yaml
     expect(fromMoon.length).toBeGreaterThan(0);
     for (const p of fromEarth) expect(p.lightTimeAtTcaNs / 1e9).toBeGreaterThan(1.19);
     for (const p of fromMoon) expect(p.lightTimeAtTcaNs / 1e9).toBeLessThan(0.05);
+    // Marked so in every format (JSON here).
+    for (const p of fromMoon) expect([p.satelliteBody, p.stationBody]).toEqual(['moon', 'moon']);
+    for (const p of fromEarth) expect([p.satelliteBody, p.stationBody]).toEqual(['moon', 'earth']);
     // The untuned clocks run ~57.6 µs/day (LR) and ~54.9 µs/day (LLO) fast against TT (compare and
     // size): the drift over a pass follows, within the periodic terms between AOS and LOS (up to twice
     // 73 ns + 92 ns, the eccentricity and cross-term amplitudes) and the one-day departure from the

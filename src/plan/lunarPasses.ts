@@ -56,6 +56,8 @@ export function lunarPassRows(run: SatelliteClockRun, stations: readonly BodySta
         sagnacAtTcaNs: oneWay.sagnacNs,
         shapiroAtTcaNs: oneWay.shapiroNs,
         keepInMarginNs: run.keepInNs === null ? null : run.keepInNs - Math.abs(atLos),
+        satelliteBody: isLunarOrbiter(run.trajectory) ? 'moon' : 'earth',
+        stationBody: st.body === 'moon' ? 'moon' : 'earth',
       });
     }
   }

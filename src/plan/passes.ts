@@ -25,6 +25,9 @@ export interface PassClockRow extends Pass {
   shapiroAtTcaNs: number;
   /** keepInNs − |offset| at LOS, or null without a keep-in limit. */
   keepInMarginNs: number | null;
+  /** Where the satellite orbits and where the station stands (absent: the Earth). */
+  satelliteBody?: 'earth' | 'moon';
+  stationBody?: 'earth' | 'moon';
 }
 
 export interface PassPlan {

@@ -59,6 +59,9 @@ export function passToJson(r: PassClockRow, ts: TimeSystem) {
     aosGpsWeek: aosGps.week,
     aosGpsSecondsOfWeek: microseconds(aosGps.secondsOfWeek),
     clockOffsetAtTcaNs: r.clockOffsetAtTcaNs,
+    // Lunar issue: satellites about the Moon and stations on it are marked so.
+    satelliteBody: r.satelliteBody ?? 'earth',
+    stationBody: r.stationBody ?? 'earth',
   };
 }
 
@@ -81,7 +84,7 @@ export type PassesJson = ReturnType<typeof passesToJson>;
 const CSV_COLUMNS = [
   'satellite', 'satelliteName', 'station', 'aos', 'tca', 'los', 'aosGpsWeek', 'aosGpsSecondsOfWeek', 'maxElevationDeg', 'durationS', 'truncated',
   'clockOffsetAtAosNs', 'clockOffsetAtLosNs', 'driftDuringPassNs', 'relativisticPeriodicAtTcaNs', 'lightTimeAtTcaNs', 'sagnacAtTcaNs',
-  'shapiroAtTcaNs', 'keepInMarginNs',
+  'shapiroAtTcaNs', 'keepInMarginNs', 'satelliteBody', 'stationBody',
 ];
 
 export function passesToCsv(rows: PassClockRow[], ts: TimeSystem): string {
@@ -105,7 +108,8 @@ export function passesToText(rows: PassClockRow[], meta: PassesMeta, ts: TimeSys
   const stations = [...new Set(rows.map((r) => r.stationId))].sort();
   for (const st of stations) {
     const mine = rows.filter((r) => r.stationId === st);
-    out.push(`Station ${st} — ${mine.length} passes`);
+    const onMoon = mine.some((r) => r.stationBody === 'moon');
+    out.push(`Station ${st}${onMoon ? ' (on the Moon)' : ''} — ${mine.length} passes`);
     out.push('='.repeat(Math.max(20, st.length + 20)));
     const days = new Map<string, PassClockRow[]>();
     for (const r of mine) {
@@ -119,7 +123,7 @@ export function passesToText(rows: PassClockRow[], meta: PassesMeta, ts: TimeSys
         list.map((r) => {
           const g = ts.gpsWeek(Instant.fromTtJ2000S(r.aosTtJ2000S));
           return [
-            r.satelliteId,
+            r.satelliteBody === 'moon' ? `${r.satelliteId} (Moon)` : r.satelliteId,
             `${utc(ts, r.aosTtJ2000S).slice(11, 19)}${r.aosTruncated ? '*' : ''}`,
             timeOfDay(ts, r.tcaTtJ2000S, r.aosTtJ2000S),
             `${timeOfDay(ts, r.losTtJ2000S, r.aosTtJ2000S)}${r.losTruncated ? '*' : ''}`,
@@ -144,6 +148,9 @@ export function passesToText(rows: PassClockRow[], meta: PassesMeta, ts: TimeSys
   }
   if (rows.length === 0) out.push('No pass rises above a station mask for its minimum pass length in this window.', '');
   out.push('Light time, Sagnac and Shapiro are one-way, satellite to station, at TCA. Polar motion and UT1−UTC are neglected (see DEVELOPERS.md).');
+  if (rows.some((r) => r.satelliteBody === 'moon' || r.stationBody === 'moon')) {
+    out.push('About the Moon: the −2r·v/c² column holds −2ρ·u/c² − v_M·ρ/c² (Moon-centred); light time is solved in the geocentric frame, Sagnac is the station body\'s own, Shapiro the Earth\'s plus the Moon\'s; the other body blocks the line of sight.');
+  }
   out.push(PLANNING_CAUTION, '');
   return out.join('\n');
 }
