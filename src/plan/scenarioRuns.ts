@@ -194,10 +194,23 @@ export function prepareScenario(scenario: ScenarioSpec, ts: TimeSystem, sel: Sce
     }
     checkWindowInSpan(resolved.trajectory, from, to, ts, `${path} ${sat.path}`);
     if (params !== null) checkWindowInSpan(resolved.trajectory, Math.min(from, params.epochTtJ2000S), Math.max(to, params.epochTtJ2000S), ts, `${path} ${sat.path}.clock.epoch`, 'give a clock epoch inside the orbit source span (the clock is integrated from it)');
-    // An orbit that fails inside the window (an SGP4 decay) is reported up to the failure.
-    const { endTtJ2000S, failure } = usableEnd(resolved.trajectory, from, to);
-    if (failure !== null && endTtJ2000S - from < 60) throw failure;
-    const run = prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, params, from, endTtJ2000S);
+    // An orbit that fails inside the window (an SGP4 decay) is reported up to the failure. The
+    // integration samples the whole window anyway: only when it (or the window end) fails is the
+    // failure located by a scan, instead of scanning every orbit first.
+    let endTtJ2000S = to;
+    let failure: Error | null = null;
+    let run: SatelliteClockRun | null = null;
+    try {
+      resolved.trajectory.stateAt(to);
+      run = prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, params, from, to);
+    } catch (e) {
+      if (!(e instanceof InputError)) throw e;
+    }
+    if (run === null) {
+      ({ endTtJ2000S, failure } = usableEnd(resolved.trajectory, from, to));
+      if (failure !== null && endTtJ2000S - from < 60) throw failure;
+      run = prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, params, from, endTtJ2000S);
+    }
     const notes: string[] = [];
     const stale = staleElementSetDays(resolved.trajectory, from, endTtJ2000S);
     if (stale !== null) notes.push(`${sat.id}: the window reaches ${stale.toFixed(0)} days from its element-set epoch, beyond SGP4's ${SGP4_DEFAULT_HALF_SPAN_S / 86400}-day span — the orbit is extrapolated; use a newer element set`);
