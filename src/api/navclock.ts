@@ -7,6 +7,7 @@
  * Times are seconds since J2000.0 TT inside, UTC ISO text in the JSON; clock values in seconds or
  * nanoseconds as the names say.
  */
+import { isLunarOrbiter } from '../orbit/lunarOrbit.ts';
 import { conventionalPeriodicS } from '../clock/rate.ts';
 import { InputError } from '../errors.ts';
 import type { MeasurementRow } from '../io/measurements.ts';
@@ -92,6 +93,9 @@ export function runNavClockSets(scenario: ScenarioSpec, options?: NavClockSetOpt
   const result = clockSets(clocks, o);
   const notes = ctx.runs.flatMap((r) => (r.note === null ? [] : [r.note]));
   for (const r of ctx.runs) if (r.clock.params?.noise === undefined) notes.push(`${r.id}: no noise model in the scenario, so the prediction band is 0`);
+  for (const r of ctx.runs) {
+    if (isLunarOrbiter(r.trajectory)) notes.push(`${r.id} orbits the Moon: the periodic term removed before the fit (and left to the user) is −2ρ·u/c² − v_M·ρ/c² (Moon-centred), not −2r·v/c²`);
+  }
   return { result, meta: { source: `scenario ${ctx.scenario.name} (${scenario.fileName})`, bandRule: BAND_RULE_TEXT, notes } };
 }
 
