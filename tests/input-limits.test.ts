@@ -224,3 +224,38 @@ describe('leap-second tables (ITU-R TF.460-6)', () => {
     expect(r.stderr).toMatch(ONE_LINE_ERROR);
   });
 });
+
+describe('measurement files past the row limit of fit (TAUPLAN_MAX_ROWS)', () => {
+  // 1 Hz rows, offsets along a line: a small file stands in for a 5-million-row one under a lowered limit.
+  const rows = 2001;
+  const csv = join(tmp, 'rows.csv');
+  const body = Array.from({ length: rows }, (_, i) => `${new Date(Date.UTC(2027, 0, 1) + i * 1000).toISOString()},${(12.5 + 1e-4 * i).toFixed(4)}`);
+  writeFileSync(csv, `time,offsetNs\n${body.join('\n')}\n`);
+  const fit = (limit: string) => spawnSync(process.execPath, ['bin/tauplan.mjs', 'fit', csv, '--format', 'json'], { encoding: 'utf8', env: { ...process.env, TAUPLAN_MAX_ROWS: limit } });
+
+  it('one row over the limit is refused at the first row past it, naming the limit and the way out', () => {
+    const r = fit(String(rows - 1));
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(ONE_LINE_ERROR);
+    expect(r.stderr).toContain(`more than ${rows - 1} measurement rows`);
+    // Header on line 1, so row k is on line k + 1: the refused row is the last, line rows + 1.
+    expect(r.stderr).toContain(`rows.csv:${rows + 1}`);
+    expect(r.stderr).toContain('TAUPLAN_MAX_ROWS');
+    expect(r.stdout).toBe('');
+  });
+
+  it('at the limit the file is fitted (1e-4 ns per s = 1e-13, by construction)', () => {
+    const r = fit(String(rows));
+    expect(r.status, r.stderr).toBe(0);
+    const got = (JSON.parse(r.stdout) as { fractionalFrequency: number }).fractionalFrequency;
+    // Offsets rounded to 1e-4 ns over 2000 s: a slope error far below 1e-16.
+    expect(Math.abs(got - 1e-13), `wanted 1e-13, got ${got}`).toBeLessThan(1e-16);
+  });
+
+  it('a limit that is not a whole number is refused as an input error', () => {
+    const r = fit('lots');
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(ONE_LINE_ERROR);
+    expect(r.stderr).toContain('TAUPLAN_MAX_ROWS');
+  });
+});

@@ -5,11 +5,11 @@
  * TDM (KVN). Any of them may be gzip-compressed (see textSource.ts).
  */
 import { InputError } from '../errors.ts';
-import { emptySeries, type MeasurementFormat, type MeasurementSeries } from '../model/measurements.ts';
+import type { MeasurementFormat, MeasurementSeries } from '../model/measurements.ts';
 import type { TimeScale } from '../time/instant.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import type { ClockFile, ClockReadOptions, LineReader } from './clockReader.ts';
-import { parseMeasurementsCsv, scaleOfTimeText } from './measurements.ts';
+import { MeasurementCsvReader } from './measurements.ts';
 import { RinexClockReader } from './rinexClock.ts';
 import { Sp3ClockReader } from './sp3Clock.ts';
 import { TdmReader } from './tdm.ts';
@@ -27,6 +27,10 @@ export interface ClockFileOptions {
   format?: MeasurementFormat;
   /** Scale of CSV times written without one (`--time-scale`). */
   defaultScale?: TimeScale;
+  /** Most CSV rows kept (default: no limit); a longer file is refused naming the limit and `maxRowsFix`. */
+  maxRows?: number;
+  /** The way out named when `maxRows` is passed. */
+  maxRowsFix?: string;
 }
 
 /** The format a first line announces, or null. */
@@ -40,31 +44,25 @@ export function detectFormat(firstLine: string): MeasurementFormat | null {
   return null;
 }
 
-/** Our CSV, collected and parsed whole (measurement CSVs are small), as one clock named `clock`. */
+/** Our CSV, streamed row by row into one clock named `clock`. */
 class CsvReader implements LineReader {
-  private readonly lines: string[] = [];
+  private readonly csv: MeasurementCsvReader;
   constructor(
     private readonly o: ClockReadOptions,
-    private readonly defaultScale: TimeScale | undefined,
-  ) {}
-  push(l: TextLine): void {
-    this.lines.push(l.text);
+    opts: ClockFileOptions,
+  ) {
+    this.csv = new MeasurementCsvReader(o.fileName, o.timeSystem, opts.defaultScale, opts.maxRows, opts.maxRowsFix);
   }
-  finish(): ClockFile {
-    const m = parseMeasurementsCsv(this.lines.join('\n'), this.o.fileName, this.o.timeSystem, this.defaultScale);
-    const s: MeasurementSeries = emptySeries('clock', 'unknown', 'csv', scaleOfTimeText(m.rows[0].timeText, this.defaultScale), 'included', m.hasSigma);
-    for (const r of m.rows) {
-      s.ttJ2000S.push(r.ttJ2000S);
-      s.offsetNs.push(r.offsetNs);
-      s.sigmaNs?.push(r.sigmaNs as number);
-      s.line.push(r.line);
-      s.segment.push(0);
-    }
+  push(l: TextLine): void {
+    this.csv.push(l);
+  }
+  finish(lastLine: number): ClockFile {
+    const s = this.csv.finish(lastLine);
     return { format: 'csv', fileName: this.o.fileName, clocks: ['clock'], series: new Map([['clock', s]]), notes: [] };
   }
 }
 
-function readerFor(format: MeasurementFormat, o: ClockReadOptions, defaultScale: TimeScale | undefined): LineReader {
+function readerFor(format: MeasurementFormat, o: ClockReadOptions, opts: ClockFileOptions): LineReader {
   switch (format) {
     case 'rinex-clock':
       return new RinexClockReader(o);
@@ -73,7 +71,7 @@ function readerFor(format: MeasurementFormat, o: ClockReadOptions, defaultScale:
     case 'tdm':
       return new TdmReader(o);
     default:
-      return new CsvReader(o, defaultScale);
+      return new CsvReader(o, opts);
   }
 }
 
@@ -92,7 +90,7 @@ class Dispatcher {
     private readonly opts: ClockFileOptions,
   ) {
     this.format = opts.format ?? null;
-    if (this.format !== null) this.reader = readerFor(this.format, o, opts.defaultScale);
+    if (this.format !== null) this.reader = readerFor(this.format, o, opts);
   }
   push(l: TextLine): void {
     this.last = l.line;
@@ -101,7 +99,7 @@ class Dispatcher {
       const f = detectFormat(l.text);
       if (f === null) throw unknownFormat(this.o.fileName, l.text, l.line);
       this.format = f;
-      this.reader = readerFor(f, this.o, this.opts.defaultScale);
+      this.reader = readerFor(f, this.o, this.opts);
     }
     this.reader.push(l);
   }

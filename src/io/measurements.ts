@@ -12,6 +12,8 @@ import { InputError } from '../errors.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import type { TimeScale } from '../time/instant.ts';
 import type { Instant } from '../time/instant.ts';
+import { emptySeries, type MeasurementSeries } from '../model/measurements.ts';
+import type { TextLine } from './textSource.ts';
 
 /** One measurement row, as read. */
 export interface MeasurementRow {
@@ -141,4 +143,132 @@ function readNumber(text: string, column: string, where: string): number {
     throw new InputError(`${column} ${JSON.stringify(text)} is not a number`, where, `write ${column} as a decimal number such as 12.5 or -3.2e2`);
   }
   return value;
+}
+
+/** A header row's fields as written (a BOM is already gone), trimmed. */
+const HEADER_FIELDS_2 = HEADER_2.split(',');
+
+/**
+ * The same CSV fed one line at a time (textSource.ts streams it), kept as a measurement series of
+ * plain number arrays: nothing per row but its numbers, so a 5-million-row file (58 days at 1 Hz)
+ * costs about 120 MB rather than an object and a string per row. Same checks and messages as
+ * {@link parseMeasurementsCsv}; a quoted field must close on its own line.
+ */
+export class MeasurementCsvReader {
+  private columns = 0;
+  private headerLine = 0;
+  private prevTimeText = '';
+  private readonly series: MeasurementSeries;
+  private scaleSet = false;
+
+  constructor(
+    private readonly fileName: string,
+    private readonly timeSystem: TimeSystem,
+    private readonly defaultScale: TimeScale | undefined,
+    /** Most rows kept; more is refused with this limit's name and the way out. */
+    private readonly maxRows: number = Number.POSITIVE_INFINITY,
+    private readonly maxRowsFix = 'split the file, or thin it to a coarser interval',
+  ) {
+    this.series = emptySeries('clock', 'unknown', 'csv', defaultScale ?? 'UTC', 'included', false);
+  }
+
+  push(l: TextLine): void {
+    const where = `${this.fileName}:${l.line}`;
+    const record = splitCsvLine(l.text, where);
+    if (record === null) return; // blank line
+    if (this.columns === 0) {
+      const header = record.join(',');
+      if (header !== HEADER_2 && header !== HEADER_3) {
+        throw new InputError(`header is ${JSON.stringify(header)}`, where, `the first line must be exactly ${HEADER_2} or ${HEADER_3}`);
+      }
+      this.columns = header === HEADER_3 ? 3 : HEADER_FIELDS_2.length;
+      this.headerLine = l.line;
+      if (this.columns === 3) this.series.sigmaNs = [];
+      return;
+    }
+    const s = this.series;
+    const hasSigma = this.columns === 3;
+    if (record.length !== this.columns) {
+      throw new InputError(`row has ${record.length} fields, the header has ${this.columns}`, where, `write ${hasSigma ? HEADER_3 : HEADER_2} values on every row`);
+    }
+    const n = s.ttJ2000S.length;
+    if (n >= this.maxRows) {
+      throw new InputError(`more than ${this.maxRows} measurement rows in ${this.fileName}`, where, this.maxRowsFix);
+    }
+    const timeText = record[0];
+    const tt = parseTime(this.timeSystem, timeText, where, this.defaultScale).ttJ2000S;
+    const offsetNs = readNumber(record[1], 'offsetNs', where);
+    let sigmaNs = Number.NaN;
+    if (hasSigma) {
+      sigmaNs = readNumber(record[2], 'sigmaNs', where);
+      if (!(sigmaNs > 0)) throw new InputError(`sigmaNs ${record[2]} is not positive`, where, 'give each 1-σ uncertainty in ns as a number > 0, or drop the sigmaNs column');
+    }
+    if (n > 0 && !(tt > s.ttJ2000S[n - 1])) {
+      const prevLine = s.line[n - 1];
+      const what = tt === s.ttJ2000S[n - 1] ? `time ${JSON.stringify(timeText)} repeats the time of line ${prevLine}` : `time ${JSON.stringify(timeText)} is earlier than ${JSON.stringify(this.prevTimeText)} on line ${prevLine}`;
+      throw new InputError(what, where, 'sort the rows by time and keep one measurement per instant');
+    }
+    if (!this.scaleSet) {
+      s.timeScale = scaleOfTimeText(timeText, this.defaultScale);
+      this.scaleSet = true;
+    }
+    this.prevTimeText = timeText;
+    s.ttJ2000S.push(tt);
+    s.offsetNs.push(offsetNs);
+    if (hasSigma) s.sigmaNs?.push(sigmaNs);
+    s.line.push(l.line);
+    s.segment.push(0);
+  }
+
+  /** The series; `lastLine` is the number of the last line read. */
+  finish(lastLine: number): MeasurementSeries {
+    if (this.columns === 0) {
+      throw new InputError('empty measurement file', `${this.fileName}:1`, `start with the header ${HEADER_2} or ${HEADER_3}, then one row per measurement`);
+    }
+    if (this.series.ttJ2000S.length === 0) {
+      throw new InputError('no measurement rows after the header', `${this.fileName}:${Math.max(lastLine, this.headerLine) + 1}`, 'add rows like 2027-01-01T00:00:00Z,12.5');
+    }
+    return this.series;
+  }
+}
+
+/** The fields of one CSV line, trimmed (RFC 4180 quotes within the line), or null for a blank line. */
+function splitCsvLine(text: string, where: string): string[] | null {
+  if (text.trim() === '') return null;
+  if (!text.includes('"')) return text.split(',').map((f) => f.trim());
+  const out: string[] = [];
+  let i = 0;
+  for (let guard = 0; guard <= text.length; guard++) {
+    while (text[i] === ' ' || text[i] === '\t') i++;
+    let field = '';
+    if (text[i] === '"') {
+      i++;
+      for (;;) {
+        const q = text.indexOf('"', i);
+        if (q < 0) throw new InputError('cannot read CSV: a quoted field is not closed on its line', where, 'check quotes and commas; the file must be plain comma-separated text');
+        field += text.slice(i, q);
+        if (text[q + 1] === '"') {
+          field += '"';
+          i = q + 2;
+          continue;
+        }
+        i = q + 1;
+        break;
+      }
+      const comma = text.indexOf(',', i);
+      const rest = (comma < 0 ? text.slice(i) : text.slice(i, comma)).trim();
+      if (rest !== '') throw new InputError(`cannot read CSV: text after a closing quote (${JSON.stringify(rest.slice(0, 20))})`, where, 'check quotes and commas; the file must be plain comma-separated text');
+      out.push(field);
+      if (comma < 0) return out;
+      i = comma + 1;
+    } else {
+      const comma = text.indexOf(',', i);
+      field = comma < 0 ? text.slice(i) : text.slice(i, comma);
+      if (field.includes('"')) throw new InputError('cannot read CSV: a quote inside an unquoted field', where, 'check quotes and commas; the file must be plain comma-separated text');
+      out.push(field.trim());
+      if (comma < 0) return out;
+      i = comma + 1;
+    }
+  }
+  return out;
 }

@@ -383,28 +383,53 @@ export function fitClock(rows: readonly FitInputRow[], options: FitOptions): Fit
   };
 }
 
-/** Weighted least squares on the rows `idx` by SVD of the scaled, weighted design matrix. */
+/** Weighted least squares on the rows `idx`: the scaled, weighted design reduced to R by Givens rotations, then the SVD of R. */
 function solve(idx: readonly number[], tS: readonly number[], yNs: readonly number[], sigma: readonly number[], degree: number, seg: readonly number[], nSeg: number): Solution {
   const p = degree + nSeg;
   const n = idx.length;
   let scaleS = 0;
   for (const i of idx) scaleS = Math.max(scaleS, Math.abs(tS[i]));
   if (scaleS === 0) scaleS = 1;
-  const a = new Matrix(n, p);
-  const b = new Matrix(n, 1);
-  idx.forEach((i, k) => {
+  // The weighted design rows are folded one at a time into R (p × p) and Qᵀb by Givens rotations
+  // (Golub & Van Loan, Matrix Computations, 4th ed., §5.2.5 and §5.3.3: QR least squares), so
+  // memory is O(p²) whatever the number of rows; A and R share their singular values, and the SVD
+  // of R gives the same solution and covariance as the SVD of A.
+  const rUp = new Float64Array(p * p);
+  const qtb = new Float64Array(p);
+  const row = new Float64Array(p);
+  for (const i of idx) {
     const u = tS[i] / scaleS;
     const w = 1 / sigma[i];
-    a.set(k, seg[i], w);
-    if (degree > 0) a.set(k, nSeg, u * w);
-    if (degree > 1) a.set(k, nSeg + 1, ((u * u) / 2) * w);
-    b.set(k, 0, yNs[i] * w);
-  });
-  const svd = new SingularValueDecomposition(a, { autoTranspose: false });
+    row.fill(0);
+    row[seg[i]] = w;
+    if (degree > 0) row[nSeg] = u * w;
+    if (degree > 1) row[nSeg + 1] = ((u * u) / 2) * w;
+    let rhs = yNs[i] * w;
+    for (let j = 0; j < p; j++) {
+      const x = row[j];
+      if (x === 0) continue;
+      const d = rUp[j * p + j];
+      const h = Math.hypot(d, x);
+      const c = d / h;
+      const sn = x / h;
+      for (let k = j; k < p; k++) {
+        const rk = rUp[j * p + k];
+        const xk = row[k];
+        rUp[j * p + k] = c * rk + sn * xk;
+        row[k] = -sn * rk + c * xk;
+      }
+      const b0 = qtb[j];
+      qtb[j] = c * b0 + sn * rhs;
+      rhs = -sn * b0 + c * rhs;
+    }
+  }
+  const rMatrix = new Matrix(p, p);
+  for (let j = 0; j < p; j++) for (let k = 0; k < p; k++) rMatrix.set(j, k, rUp[j * p + k]);
+  const svd = new SingularValueDecomposition(rMatrix, { autoTranspose: false });
   const s = svd.diagonal;
   const sMax = Math.max(...s);
   const sMin = Math.min(...s);
-  if (!(sMin > sMax / CONDITION_LIMIT)) {
+  if (!(sMin > sMax / CONDITION_LIMIT) || n < p) {
     throw new InputError(
       `the ${n} measurement times cannot separate ${p} parameters`,
       'measurements',
@@ -412,16 +437,16 @@ function solve(idx: readonly number[], tS: readonly number[], yNs: readonly numb
     );
   }
   const v = svd.rightSingularVectors;
-  const u = svd.leftSingularVectors;
-  // x = V S⁻¹ Uᵀ b, Cov = V S⁻² Vᵀ (scaled units).
+  const uR = svd.leftSingularVectors;
+  // x = V S⁻¹ U_Rᵀ (Qᵀb), Cov = V S⁻² Vᵀ (scaled units).
   const utb = new Array<number>(p).fill(0);
   for (let j = 0; j < p; j++) {
     let acc = 0;
-    for (let k = 0; k < n; k++) acc += u.get(k, j) * b.get(k, 0);
+    for (let k = 0; k < p; k++) acc += uR.get(k, j) * qtb[k];
     utb[j] = acc / s[j];
   }
   const scaledParams = new Array<number>(p).fill(0);
-  for (let r = 0; r < p; r++) for (let j = 0; j < p; j++) scaledParams[r] += v.get(r, j) * utb[j];
+  for (let q = 0; q < p; q++) for (let j = 0; j < p; j++) scaledParams[q] += v.get(q, j) * utb[j];
   const unit = [...new Array<number>(nSeg).fill(1), 1 / scaleS, 1 / (scaleS * scaleS)];
   const params = scaledParams.map((x, r) => x * unit[r]);
   const cov: number[][] = [];
