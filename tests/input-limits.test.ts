@@ -252,6 +252,13 @@ describe('measurement files past the row limit of fit (TAUPLAN_MAX_ROWS)', () =>
     expect(Math.abs(got - 1e-13), `wanted 1e-13, got ${got}`).toBeLessThan(1e-16);
   });
 
+  it('fit --all keeps the same limit', () => {
+    const r = spawnSync(process.execPath, ['bin/tauplan.mjs', 'fit', csv, '--all', '--format', 'json'], { encoding: 'utf8', env: { ...process.env, TAUPLAN_MAX_ROWS: String(rows - 1) } });
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(ONE_LINE_ERROR);
+    expect(r.stderr).toContain(`more than ${rows - 1} measurement rows`);
+  });
+
   it('a limit that is not a whole number is refused as an input error', () => {
     const r = fit('lots');
     expect(r.status).toBe(2);

@@ -13,7 +13,7 @@ import { surveyToCsv, surveyToHtml, surveyToJson, surveyToJsonl, surveyToText, t
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import { checkJobs, jobsFor, runPool } from '../workers.ts';
 import type { FitWorkerTask } from '../fitWorker.ts';
-import { clockFileOptions, type FitArgs } from './fit.ts';
+import { clockFileOptions, maxRowsOption, type FitArgs } from './fit.ts';
 
 /** The plain-data arguments a worker needs. */
 export type FitSurveyArgs = FitSurveyOptions;
@@ -31,7 +31,7 @@ export async function runFitAll(a: FitArgs & { format: string; out?: string; job
   if (a.updateScenario !== undefined) throw new InputError('--update-scenario writes one clock', '--update-scenario', 'leave out --all, and name the clock with --sat');
   if (a.sat !== undefined) throw new InputError('--sat and --all given together', '--sat', 'leave out --sat to survey every clock, or --all to fit one');
   checkJobs(a.jobs);
-  const file = await readClockFile(a.measurements, clockFileOptions(a, ts, null));
+  const file = await readClockFile(a.measurements, { ...clockFileOptions(a, ts, null), ...maxRowsOption() });
   const args: FitSurveyArgs = {
     measurements: a.measurements,
     fileFormat: file.format,
