@@ -9,7 +9,9 @@
  */
 import { describe, expect, it } from 'vitest';
 import { mergeShardTexts } from '../src/cli/commands/merge.ts';
-import { checkEpochNearData, checkNumberOption, nameList, refuseCatalogueOptionsWithoutAll, refuseRepeatedOptions } from '../src/cli/options.ts';
+import { checkNumberOption, refuseCatalogueOptionsWithoutAll, refuseRepeatedOptions } from '../src/cli/options.ts';
+import { checkEpochNearData } from '../src/api/fitFile.ts';
+import { nameList } from '../src/api/scenario.ts';
 import { InputError } from '../src/errors.ts';
 import { safeCsvCell, toCsv } from '../src/report/csv.ts';
 import { escapeUnsafeText } from '../src/report/safeText.ts';

@@ -9,23 +9,77 @@ import { checkOutputTarget, hookSignals, noteInputFile, removePendingTemps, setO
 import { checkNumberOptions, refuseCatalogueOptionsWithoutAll, refuseRepeatedOptions } from './options.ts';
 import { oneLineText } from '../report/safeText.ts';
 import { withCliNow } from './now.ts';
-import { enableSgp4Engine } from '../api/engine.ts';
 import { emit, OUTPUT_FORMATS, type OutputFormat } from './emit.ts';
-import { runTime } from './commands/time.ts';
-import { runSize, sizeOptions } from './commands/size.ts';
-import { runSizeAll } from './commands/sizeAll.ts';
-import { mergeOptions, runMerge } from './commands/merge.ts';
-import { passesOptions, runPasses } from './commands/passes.ts';
-import { resetsOptions, runResets } from './commands/resets.ts';
-import { SHARD_OPTIONS, sharded } from './shard.ts';
-import { demoOptions, reportOptions, runDemo, runReport } from './commands/report.ts';
-import { navclockOptions, runNavclock } from './commands/navclock.ts';
-import { runStability, stabilityOptions } from './commands/stability.ts';
-import { compareOptions, runCompare } from './commands/compare.ts';
-import { runSweep, sweepOptions } from './commands/sweep.ts';
-import { runTrack, trackOptions } from './commands/track.ts';
-import { fitOptions, runFit } from './commands/fit.ts';
-import { runFitAll } from './commands/fitAll.ts';
+
+/**
+ * The command modules, loaded only for the command being run (start-up: the orbit, clock and report
+ * modules and their dependencies — satellite.js and its WASM, zod, astronomy-engine, ml-matrix,
+ * d3-scale — cost more than a second to load, and `tauplan time` needs none of them).
+ */
+interface CommandModules {
+  time?: typeof import('./commands/time.ts');
+  size?: typeof import('./commands/size.ts');
+  merge?: typeof import('./commands/merge.ts');
+  passes?: typeof import('./commands/passes.ts');
+  resets?: typeof import('./commands/resets.ts');
+  shard?: typeof import('./shard.ts');
+  fit?: typeof import('./commands/fit.ts');
+  stability?: typeof import('./commands/stability.ts');
+  compare?: typeof import('./commands/compare.ts');
+  sweep?: typeof import('./commands/sweep.ts');
+  track?: typeof import('./commands/track.ts');
+  report?: typeof import('./commands/report.ts');
+  navclock?: typeof import('./commands/navclock.ts');
+}
+
+/** Commands that may propagate an element set (SGP4): the WASM engine is loaded before them. */
+const SGP4_COMMANDS: ReadonlySet<string> = new Set(['size', 'passes', 'resets', 'fit', 'compare', 'track', 'report', 'demo', 'navclock']);
+
+/** The command named on the command line: the first argument that is a command name. */
+function commandOf(args: readonly string[]): string | undefined {
+  const names = new Set(['time', 'size', 'merge', 'passes', 'resets', 'fit', 'stability', 'compare', 'sweep', 'track', 'report', 'navclock', 'demo']);
+  return args.find((a) => names.has(a));
+}
+
+/** Load the modules of one command (and the SGP4 engine when it may need it). */
+async function loadCommand(name: string | undefined): Promise<CommandModules> {
+  if (name !== undefined && SGP4_COMMANDS.has(name)) await (await import('../api/engine.ts')).enableSgp4Engine();
+  switch (name) {
+    case 'time':
+      return { time: await import('./commands/time.ts') };
+    case 'size':
+      return { size: await import('./commands/size.ts') };
+    case 'merge':
+      return { merge: await import('./commands/merge.ts') };
+    case 'passes':
+      return { passes: await import('./commands/passes.ts'), shard: await import('./shard.ts') };
+    case 'resets':
+      return { resets: await import('./commands/resets.ts'), shard: await import('./shard.ts') };
+    case 'fit':
+      return { fit: await import('./commands/fit.ts') };
+    case 'stability':
+      return { stability: await import('./commands/stability.ts') };
+    case 'compare':
+      return { compare: await import('./commands/compare.ts') };
+    case 'sweep':
+      return { sweep: await import('./commands/sweep.ts') };
+    case 'track':
+      return { track: await import('./commands/track.ts') };
+    case 'report':
+    case 'demo':
+      return { report: await import('./commands/report.ts') };
+    case 'navclock':
+      return { navclock: await import('./commands/navclock.ts'), shard: await import('./shard.ts') };
+    default:
+      return {};
+  }
+}
+
+/** A module that must have been loaded for the command yargs matched. */
+function need<T>(m: T | undefined, name: string): T {
+  if (m === undefined) throw new InternalError(`command module ${name} was not loaded`, 'command line');
+  return m;
+}
 
 export const EXIT_OK = 0;
 export const EXIT_INTERNAL = 1;
@@ -40,7 +94,7 @@ function common<T>(y: Argv<T>) {
     .option('quiet', { type: 'boolean', default: false, describe: 'no progress or warnings on stderr' });
 }
 
-function parser(args: string[]) {
+function parser(args: string[], m: CommandModules) {
   const ts = withCliNow(defaultTimeSystem());
   return yargs(args)
     .scriptName('tauplan')
@@ -49,87 +103,87 @@ function parser(args: string[]) {
       'time <iso>',
       'Show one instant in UTC, TAI, TT, GPS (week/seconds), GST, BDT and MJD',
       (y) => common(y).positional('iso', { type: 'string', demandOption: true, describe: 'ISO 8601 time, e.g. 2027-01-01T00:00:00Z' }),
-      (a) => emit(runTime(String(a.iso), ts), a.format, a.out, 'time', ts),
+      (a) => emit(need(m.time, 'time').runTime(String(a.iso), ts), a.format, a.out, 'time', ts),
     )
     .command(
       'size',
       'Size the factory frequency offset for an orbit',
-      (y) => sizeOptions(common(y)),
+      (y) => need(m.size, 'size').sizeOptions(common(y)),
       async (a) => {
         refuseCatalogueOptionsWithoutAll(a);
-        if (a.all === true) await runSizeAll(a, ts);
+        if (a.all === true) await (await import('./commands/sizeAll.ts')).runSizeAll(a, ts);
         else if ((a.format as string) === 'jsonl') throw new InputError('jsonl output is for catalogue runs', '--format', 'add --all (with --tle or --omm), or use text, json or csv');
-        else emit(await runSize(a, ts), a.format, a.out, 'size', ts);
+        else emit(await need(m.size, 'size').runSize(a, ts), a.format, a.out, 'size', ts);
       },
     )
     .command(
       'merge <files..>',
       'Join shard outputs (size --all CSV or JSON Lines; passes, resets, navclock JSON or CSV) into what one run writes',
-      (y) => mergeOptions(y),
-      (a) => runMerge(a.files as string[], a.out, a.quiet),
+      (y) => need(m.merge, 'merge').mergeOptions(y),
+      (a) => need(m.merge, 'merge').runMerge(a.files as string[], a.out, a.quiet),
     )
     .command(
       'passes <scenario>',
       'Passes over the stations with each onboard clock offset at AOS and LOS',
-      (y) => passesOptions(common(y)).options(SHARD_OPTIONS),
-      async (a) => emit(await sharded(a, 'passes', ts, (b) => runPasses(b, ts)), a.format, a.out, 'passes', ts),
+      (y) => need(m.passes, 'passes').passesOptions(common(y)).options(need(m.shard, 'shard').SHARD_OPTIONS),
+      async (a) => emit(await need(m.shard, 'shard').sharded(a, 'passes', ts, (b) => need(m.passes, 'passes').runPasses(b, ts)), a.format, a.out, 'passes', ts),
     )
     .command(
       'resets <scenario>',
       'When each clock leaves its keep-in limit, and the pass to adjust it in',
-      (y) => resetsOptions(common(y)).options(SHARD_OPTIONS),
-      async (a) => emit(await sharded(a, 'resets', ts, (b) => runResets(b, ts), (s) => s.clock !== null && s.clock.keepInNs !== null), a.format, a.out, 'resets', ts),
+      (y) => need(m.resets, 'resets').resetsOptions(common(y)).options(need(m.shard, 'shard').SHARD_OPTIONS),
+      async (a) => emit(await need(m.shard, 'shard').sharded(a, 'resets', ts, (b) => need(m.resets, 'resets').runResets(b, ts), (s) => s.clock !== null && s.clock.keepInNs !== null), a.format, a.out, 'resets', ts),
     )
     .command(
       'fit <measurements>',
       'Fit offset, rate and drift to measured clock offsets, with stability',
-      (y) => fitOptions(common(y)),
+      (y) => need(m.fit, 'fit').fitOptions(common(y)),
       async (a) => {
-        if (a.all === true) await runFitAll(a, ts);
-        else emit(await runFit(a, ts), a.format as OutputFormat, a.out, 'fit', ts);
+        if (a.all === true) await (await import('./commands/fitAll.ts')).runFitAll(a, ts);
+        else emit(await need(m.fit, 'fit').runFit(a, ts), a.format as OutputFormat, a.out, 'fit', ts);
       },
     )
     .command(
       'stability <file>',
       'Allan, modified Allan, time and Hadamard deviations with intervals and noise types',
-      (y) => stabilityOptions(common(y)),
-      (a) => emit(runStability(a, ts), a.format, a.out, 'stability', ts),
+      (y) => need(m.stability, 'stability').stabilityOptions(common(y)),
+      (a) => emit(need(m.stability, 'stability').runStability(a, ts), a.format, a.out, 'stability', ts),
     )
     .command(
       'compare <scenario>',
       'Compare satellite and station clocks over one window',
-      (y) => compareOptions(common(y)),
-      (a) => emit(runCompare(a, ts), a.format, a.out, 'compare', ts),
+      (y) => need(m.compare, 'compare').compareOptions(common(y)),
+      (a) => emit(need(m.compare, 'compare').runCompare(a, ts), a.format, a.out, 'compare', ts),
     )
     .command(
       'sweep',
       'Mean clock rate and its split against altitude, with the break-even altitude',
-      (y) => sweepOptions(common(y)),
-      (a) => emit(runSweep(a, ts), a.format, a.out, 'sweep', ts),
+      (y) => need(m.sweep, 'sweep').sweepOptions(common(y)),
+      (a) => emit(need(m.sweep, 'sweep').runSweep(a, ts), a.format, a.out, 'sweep', ts),
     )
     .command(
       'track [scenario]',
       'Sampled states and the clock along them for one satellite',
-      (y) => trackOptions(common(y)),
-      (a) => emit(runTrack(a, ts), a.format, a.out, 'track', ts),
+      (y) => need(m.track, 'track').trackOptions(common(y)),
+      (a) => emit(need(m.track, 'track').runTrack(a, ts), a.format, a.out, 'track', ts),
     )
     .command(
       'report <scenario>',
       'Run the whole job on a scenario and write report.html plus text, CSV and JSON files into a folder',
-      (y) => reportOptions(y),
-      (a) => runReport(a, ts),
+      (y) => need(m.report, 'report').reportOptions(y),
+      (a) => need(m.report, 'report').runReport(a, ts),
     )
     .command(
       'navclock [scenario]',
       'Navigation-message clock parameter sets (af0, af1, af2) with their expected error',
-      (y) => navclockOptions(common(y)).options(SHARD_OPTIONS),
-      async (a) => emit(await sharded(a, 'navclock', ts, (b) => runNavclock(b, ts)), a.format, a.out, 'navclock'),
+      (y) => need(m.navclock, 'navclock').navclockOptions(common(y)).options(need(m.shard, 'shard').SHARD_OPTIONS),
+      async (a) => emit(await need(m.shard, 'shard').sharded(a, 'navclock', ts, (b) => need(m.navclock, 'navclock').runNavclock(b, ts)), a.format, a.out, 'navclock'),
     )
     .command(
       'demo',
       'The report of the embedded invented scenario (tauplan report on data/demo/tessera.yaml)',
-      (y) => demoOptions(y),
-      (a) => runDemo(a, ts),
+      (y) => need(m.report, 'demo').demoOptions(y),
+      (a) => need(m.report, 'demo').runDemo(a, ts),
     )
     .option('leap-seconds', { type: 'string', requiresArg: true, global: true, describe: 'leap-second table to use instead of the packaged one (IERS Leap_Second.dat)' })
     .example('tauplan report my-scenario.yaml --out out/', 'the whole job on your scenario: report.html plus data files')
@@ -238,7 +292,6 @@ export async function main(args: string[]): Promise<number> {
   }
   try {
     refuseRepeatedOptions(args);
-    await enableSgp4Engine();
     // The leap-second table is needed before the commands are parsed: take --leap-seconds first.
     const leapIdx = args.findIndex((x) => x === '--leap-seconds' || x.startsWith('--leap-seconds='));
     if (leapIdx >= 0) {
@@ -247,7 +300,8 @@ export async function main(args: string[]): Promise<number> {
       process.env[LEAP_SECONDS_ENV] = value;
       noteInputFile(value);
     }
-    await parser(joinNegativeValues(args)).parseAsync();
+    const joined = joinNegativeValues(args);
+    await parser(joined, await loadCommand(commandOf(joined))).parseAsync();
     const leap = defaultTimeSystem().leap;
     if (leap.usedPastExpiry && !args.includes('--quiet')) {
       process.stderr.write(

@@ -116,8 +116,6 @@ export function checkNumberOptions(argv: Record<string, unknown>, args: readonly
   }
 }
 
-/** Comma-separated names (`--station A,B`); kept with the scenario selection behind src/api. */
-export { nameList } from '../api/scenario.ts';
 
 /** `size` options that only mean something for a catalogue run refuse to be given without `--all`. */
 export function refuseCatalogueOptionsWithoutAll(argv: { all?: unknown; jobs?: unknown; shard?: unknown; strict?: unknown }): void {
@@ -129,8 +127,6 @@ export function refuseCatalogueOptionsWithoutAll(argv: { all?: unknown; jobs?: u
   }
 }
 
-/** The fit epoch check (kept with the fit use case in src/api/fitFile.ts). */
-export { checkEpochNearData } from '../api/fitFile.ts';
 
 /** `--body`: earth (default) or moon; anything else is a one-line usage error. */
 export function bodyFlag(value: string | undefined): 'earth' | 'moon' {

@@ -12,7 +12,7 @@
  */
 import { InternalError } from '../errors.ts';
 import type { LeapSecondTable } from '../time/leapSeconds.ts';
-import { escapeXml as escapeHtml } from './svg.ts';
+import { escapeXml as escapeHtml } from './svgPrimitives.ts';
 
 /** The formats a note can be carried in. */
 export type NoteFormat = 'text' | 'json' | 'csv' | 'html';
