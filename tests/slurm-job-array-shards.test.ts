@@ -30,7 +30,7 @@ describe('Slurm job array: --shard auto', () => {
     const merged = await startCli(['merge', join(dir, 'task6.json'), join(dir, 'task4.json'), join(dir, 'task5.json'), '--out', join(dir, 'merged.json'), '--quiet'], {});
     expect(merged.code, merged.stderr).toBe(0);
     expect(readFileSync(join(dir, 'merged.json'), 'utf8')).toBe(readFileSync(join(dir, 'one.json'), 'utf8'));
-  });
+  }, 240_000); // shard processes start at once: slow on a loaded machine
 
   it('bad or missing array variables are one-line input errors (exit 2), and a missing task stops the merge', async () => {
     const base = ['passes', DEMO, '--to', '2027-01-05T00:00:00Z', '--format', 'csv', '--shard', 'auto'];
@@ -45,5 +45,5 @@ describe('Slurm job array: --shard auto', () => {
     const partial = await startCli(['merge', join(dir, 'task4.json'), join(dir, 'task6.json')], {});
     expect(partial.code).toBe(2);
     expect(partial.stderr).toMatch(/^tauplan: shard 2\/3 is missing \(merge\) — .+\n$/);
-  });
+  }, 240_000); // shard processes start at once: slow on a loaded machine
 });
