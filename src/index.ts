@@ -30,6 +30,8 @@ export { fitClock, type FitClockOptions, type MeasurementInput, type Measurement
 export { compareClocks, type CompareOptions } from './api/compare.ts';
 export { sweepAltitude, type SweepOptions } from './api/sweep.ts';
 export { trackSatellite, type TrackOptions, type TrackInput } from './api/track.ts';
+export { navigationClockSets, evaluateBroadcastClocks, type NavClockSetOptions, type BroadcastEvalInput, type BroadcastEvalOptions } from './api/navclock.ts';
+export { frequencyStability, type StabilityRecord, type StabilityResult } from './api/stability.ts';
 export { parseInstant, defaultTimeSystem } from './api/time.ts';
 export type { CommonOptions, TimeInput, DurationInput } from './api/common.ts';
 
@@ -50,6 +52,11 @@ export type { Station } from './model/station.ts';
 export { parseTleFile } from './io/tle.ts';
 /** Parse CCSDS OMM text (JSON, KVN or XML) into element sets. */
 export { parseOmmFile } from './io/omm.ts';
+/** Parse RINEX 3 navigation text (3.02–3.05; GPS and Galileo clock records) for {@link evaluateBroadcastClocks}. */
+export { parseRinexNav, type RinexNavFile } from './io/rinexNav.ts';
+/** Parse SP3-c / SP3-d text (positions [km], clocks [µs]) for {@link evaluateBroadcastClocks}. */
+export { parseSp3 } from './io/sp3.ts';
+export type { Sp3File } from './model/sp3.ts';
 
 // Time
 export { Instant, TIME_SCALES, type TimeScale } from './time/instant.ts';
