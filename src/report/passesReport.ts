@@ -109,8 +109,9 @@ export function passesToText(rows: PassClockRow[], meta: PassesMeta, ts: TimeSys
   for (const st of stations) {
     const mine = rows.filter((r) => r.stationId === st);
     const onMoon = mine.some((r) => r.stationBody === 'moon');
-    out.push(`Station ${st}${onMoon ? ' (on the Moon)' : ''} — ${mine.length} passes`);
-    out.push('='.repeat(Math.max(20, st.length + 20)));
+    const title = `Station ${st}${onMoon ? ' (on the Moon)' : ''} — ${mine.length} passes`;
+    out.push(title);
+    out.push('='.repeat(title.length));
     const days = new Map<string, PassClockRow[]>();
     for (const r of mine) {
       const day = utc(ts, r.aosTtJ2000S).slice(0, 10);
