@@ -80,7 +80,7 @@ export function shardFromEnvironment(env: NodeJS.ProcessEnv, shardCount: number 
     }
     return { k: index + 1, n: shardCount };
   }
-  throw new InputError('--shard auto found no scheduler variables (SLURM_ARRAY_TASK_ID or JOB_COMPLETION_INDEX)', '--shard', `${SLURM_HINT}; or ${K8S_HINT}`);
+  throw new InputError('--shard auto found no scheduler variables (SLURM_ARRAY_TASK_ID or JOB_COMPLETION_INDEX)', '--shard', 'run it as a Slurm job array (sbatch --array=0-N) or a Kubernetes Indexed Job (completionMode: Indexed), or give --shard K/N');
 }
 
 /** The shard of a run, or null without --shard. Refuses --shard-count without --shard auto. */

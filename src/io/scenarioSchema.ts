@@ -136,7 +136,7 @@ export type PathSeg = string | number;
 
 /** What each key means and its range, shown as the fix when its value is wrong. */
 export const FIELD_HINTS: Record<string, string> = {
-  latDeg: 'give the geodetic latitude in degrees, −90 … 90, north positive',
+  latDeg: 'give the latitude in degrees, −90 … 90, north positive (geodetic on the Earth, selenographic on the Moon)',
   lonDeg: 'give the longitude in degrees east, −180 ≤ lon < 360',
   heightM: `give the height above the WGS-84 ellipsoid in metres, ${STATION_MIN_HEIGHT_M} … ${STATION_MAX_HEIGHT_M}`,
   geoidHeightM: `give the geoid undulation N in metres (−${GEOID_HEIGHT_LIMIT_M} … ${GEOID_HEIGHT_LIMIT_M}), not a height above the geoid`,
