@@ -12,7 +12,7 @@ import { conventionalPeriodicS, fractionalOffset } from '../clock/rate.ts';
 import { SECONDS_PER_DAY } from '../constants.ts';
 import { geodeticToEcefM, type Station } from '../events/station.ts';
 import { allocStateBlock, type Trajectory } from '../orbit/trajectory.ts';
-import { lineFit, orbitSummaryAt } from './size.ts';
+import { halfRangeAboutLine, lineFit, orbitSummaryAt } from './size.ts';
 import { bodyOf, lunarFieldOf, lunarStationTrack, lunarTrackFigures, type BodyStation } from './lunarScenario.ts';
 import type { CentralBody } from '../model/scenario.ts';
 
@@ -207,14 +207,7 @@ function trackFigures(traj: Trajectory, track: IntegratedTrack, from: number, to
   // Trend: the line through the offset with −2r·v/c² removed (the `size` definition of the mean);
   // the periodic amplitude is what swings about that trend.
   const line = lineFit(t, xc);
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (let i = 0; i < m; i++) {
-    const d = x[i] - (line.intercept + line.slope * (t[i] - line.tMean));
-    lo = Math.min(lo, d);
-    hi = Math.max(hi, d);
-  }
-  return { slope: line.slope, periodicNs: ((hi - lo) / 2) * 1e9 };
+  return { slope: line.slope, periodicNs: halfRangeAboutLine(t, x, line) * 1e9 };
 }
 
 /** A ballistic flight: mean rate = elapsed offset / duration; swing about that chord. */

@@ -15,7 +15,7 @@ import { GAUSS_POINTS_PER_STEP, integrateBulkAlong, nodeQuadratureWeights } from
 import { lunarPeriodicTermsS, lunarRateParts, type LunarExternalField, type LunarRateParts } from '../clock/lunarRate.ts';
 import type { GravityModel } from '../orbit/gravity.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
-import { lineFit } from './size.ts';
+import { halfRangeAboutLine, lineFit } from './size.ts';
 
 /** The anomalistic month [s] (27.554550 d; Explanatory Supplement 3rd ed., from memory). */
 export const ANOMALISTIC_MONTH_S = 27.55455 * 86_400;
@@ -110,13 +110,7 @@ export function analyseLunarRate(
   }
   const w = nodeQuadratureWeights(n);
   const lt = lineFit(t, total, w);
-  let rMin = Infinity;
-  let rMax = -Infinity;
-  for (let i = 0; i < n; i++) {
-    const res = total[i] - (lt.intercept + lt.slope * (t[i] - lt.tMean));
-    rMin = Math.min(rMin, res);
-    rMax = Math.max(rMax, res);
-  }
+  const residualAmplitudeS = halfRangeAboutLine(t, total, lt);
   const halfRange = (a: Float64Array): number => {
     let lo = Infinity;
     let hi = -Infinity;
@@ -132,7 +126,7 @@ export function analyseLunarRate(
     spanMeanFractionalOffset: tracks.reduce((s, k) => s + k.total, 0) / spanS,
     moonFieldPeriodicAmplitudeS: removePeriodic ? halfRange(pMoon) : 0,
     crossTermAmplitudeS: removePeriodic ? halfRange(pCross) : 0,
-    residualAmplitudeS: (rMax - rMin) / 2,
+    residualAmplitudeS,
     stepS: tracks[0].stepS,
     states: n,
     nodeTtJ2000S: t,

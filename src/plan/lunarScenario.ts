@@ -12,7 +12,7 @@ import type { GravityModel } from '../orbit/gravity.ts';
 import { isLunarOrbiter } from '../orbit/lunarOrbit.ts';
 import { LunarSurfaceTrajectory } from '../orbit/lunarSurface.ts';
 import { allocStateBlock, type Trajectory } from '../orbit/trajectory.ts';
-import { lineFit } from './size.ts';
+import { halfRangeAboutLine, lineFit } from './size.ts';
 
 /** True when the scenario has an orbit about the Moon or a station on it. */
 export function scenarioHasLunarClocks(scenario: ScenarioSpec): boolean {
@@ -80,12 +80,5 @@ export function lunarTrackFigures(traj: Trajectory, track: IntegratedTrack, fiel
     xc[i] = x[i] - p;
   }
   const line = lineFit(t, xc);
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (let i = 0; i < m; i++) {
-    const d = x[i] - (line.intercept + line.slope * (t[i] - line.tMean));
-    lo = Math.min(lo, d);
-    hi = Math.max(hi, d);
-  }
-  return { slope: line.slope, periodicNs: ((hi - lo) / 2) * 1e9 };
+  return { slope: line.slope, periodicNs: halfRangeAboutLine(t, x, line) * 1e9 };
 }

@@ -136,13 +136,7 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
   const lt = lineFit(t, xt, w);
   const lg = lineFit(t, xg, w);
   const lv = lineFit(t, xv, w);
-  let rMin = Infinity;
-  let rMax = -Infinity;
-  for (let i = 0; i < m; i++) {
-    const res = xt[i] - (lt.intercept + lt.slope * (t[i] - lt.tMean));
-    rMin = Math.min(rMin, res);
-    rMax = Math.max(rMax, res);
-  }
+  const residualAmplitudeS = halfRangeAboutLine(t, xt, lt);
   // Less than one period shows only part of the eccentricity term: use the osculating closed form then.
   const eccAmp = spanS >= orbit.periodS ? (pMax - pMin) / 2 : (2 * Math.sqrt(gm * orbit.aKm * 1000) * orbit.e) / C2;
   return {
@@ -150,7 +144,7 @@ function analyse(traj: Trajectory, gravity: GravityModel, fromTt: number, spanS:
     gravitational: lg.slope,
     velocity: lv.slope,
     eccentricityAmplitudeS: eccAmp,
-    residualAmplitudeS: (rMax - rMin) / 2,
+    residualAmplitudeS,
     spanMean: (grav.total + vel.total) / spanS,
     stepS: grav.stepS,
     states: m,
@@ -184,6 +178,18 @@ export function lineFit(t: Float64Array, x: Float64Array, w?: Float64Array): { s
   }
   if (!(sxx > 0)) throw new InternalError('line fit over a zero-length span', 'meanFractionalOffset');
   return { slope: sxy / sxx, intercept: xm, tMean: tm };
+}
+
+/** Half the spread (max − min)/2 of x about a fitted line, in x's unit: what swings about the trend. */
+export function halfRangeAboutLine(t: Float64Array, x: Float64Array, line: { slope: number; intercept: number; tMean: number }): number {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = 0; i < x.length; i++) {
+    const d = x[i] - (line.intercept + line.slope * (t[i] - line.tMean));
+    lo = Math.min(lo, d);
+    hi = Math.max(hi, d);
+  }
+  return (hi - lo) / 2;
 }
 
 /** Osculating summary of a trajectory at an instant. */
