@@ -117,11 +117,17 @@ export async function sizeItems(
   if (items.length === 0) return;
   if (jobs <= 1) {
     const gravity = catalogueGravity(options.gravityName);
-    const batch = 16;
-    for (let i = 0; i < items.length; i += batch) {
-      onOutcomes(items.slice(i, i + batch).map((it) => sizeCatalogueItem(it, options, ts, gravity)));
-      // Let timers (progress bar) and signals in between batches.
-      await new Promise<void>((resolve) => setImmediate(resolve));
+    let lastYieldMs = performance.now();
+    for (const it of items) {
+      onOutcomes([sizeCatalogueItem(it, options, ts, gravity)]);
+      // Let timers (progress bar) and signals in every ~50 ms. Two turns of the event loop: a single
+      // setImmediate resumes in the same turn's check phase, before any poll phase, so a pending
+      // SIGINT/SIGTERM/SIGHUP would never be seen before the run ends.
+      if (performance.now() - lastYieldMs > 50) {
+        await new Promise<void>((resolve) => setImmediate(resolve));
+        await new Promise<void>((resolve) => setImmediate(resolve));
+        lastYieldMs = performance.now();
+      }
     }
     return;
   }
