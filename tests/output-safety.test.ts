@@ -238,6 +238,20 @@ describe('temporary files', () => {
     expect(readdirSync(d)).toEqual([]);
   });
 
+  it('Ctrl-C during a long computation with nothing written yet stops the run at once (common practice for a CLI)', async () => {
+    // A 2000-day plan computes for minutes before it writes; a handler that waits for the event
+    // loop would hold the interrupt until the end.
+    const child = spawn(process.execPath, [BIN, 'resets', join(ROOT, 'data/demo/tessera.yaml'), '--horizon', '2000d', '--jobs', '1', '--quiet'], { stdio: 'ignore' });
+    const started = Date.now();
+    await new Promise((res) => setTimeout(res, 2500));
+    const killedAt = Date.now();
+    child.kill('SIGINT');
+    const end = await new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((res) => child.on('close', (code, signal) => res({ code, signal })));
+    const stopS = (Date.now() - killedAt) / 1000;
+    expect(end.code === 130 || end.signal === 'SIGINT', `exit ${end.code}, signal ${end.signal}`).toBe(true);
+    expect(stopS, `stopped ${stopS.toFixed(1)} s after Ctrl-C (run started ${((killedAt - started) / 1000).toFixed(1)} s before it)`).toBeLessThan(5);
+  }, 60_000);
+
   it('a temporary file left by a dead run is removed by the next run in that folder; a live run\'s is kept', () => {
     const d = fresh();
     const dead = spawnSync(process.execPath, ['-e', 'process.stdout.write(String(process.pid))'], { encoding: 'utf8' });

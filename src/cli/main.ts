@@ -5,7 +5,7 @@
 import yargs, { type Argv } from 'yargs';
 import { InputError, InternalError } from '../errors.ts';
 import { defaultTimeSystem, LEAP_SECONDS_ENV } from '../io/tables.ts';
-import { checkOutputTarget, hookSignals, noteInputFile, removePendingTemps, setOutputDefaults, writeFault } from '../io/output.ts';
+import { checkOutputTarget, noteInputFile, removePendingTemps, setOutputDefaults, writeFault } from '../io/output.ts';
 import { checkNumberOptions, refuseCatalogueOptionsWithoutAll, refuseRepeatedOptions } from './options.ts';
 import { oneLineText } from '../report/safeText.ts';
 import { withCliNow } from './now.ts';
@@ -288,7 +288,6 @@ export async function main(args: string[]): Promise<number> {
   if (!processHooked) {
     processHooked = true;
     hookStdout();
-    hookSignals();
   }
   try {
     refuseRepeatedOptions(args);

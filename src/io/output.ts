@@ -66,20 +66,31 @@ export function removePendingTemps(): void {
 
 const SIGNAL_EXIT: Partial<Record<NodeJS.Signals, number>> = { SIGHUP: 129, SIGINT: 130, SIGTERM: 143 };
 
-/** SIGINT, SIGTERM and SIGHUP remove the temporary files and exit 128 + signal number. */
+function onSignal(signal: NodeJS.Signals): void {
+  removePendingTemps();
+  try {
+    process.stderr.write(`tauplan: interrupted by ${signal}; no output written\n`);
+  } catch {
+    // a hung-up terminal cannot take the line
+  }
+  process.exit(SIGNAL_EXIT[signal] ?? 1);
+}
+
+/**
+ * SIGINT, SIGTERM and SIGHUP remove the temporary files and exit 128 + signal number. Hooked only
+ * while a temporary file exists: a JavaScript handler runs only when the event loop turns, so a
+ * hooked Ctrl-C during a long computation would wait for its end; unhooked, it stops the run at once.
+ */
 export function hookSignals(): void {
   if (signalsHooked) return;
   signalsHooked = true;
-  const clean = (signal: NodeJS.Signals): void => {
-    removePendingTemps();
-    try {
-      process.stderr.write(`tauplan: interrupted by ${signal}; no output written\n`);
-    } catch {
-      // a hung-up terminal cannot take the line
-    }
-    process.exit(SIGNAL_EXIT[signal] ?? 1);
-  };
-  for (const s of Object.keys(SIGNAL_EXIT) as NodeJS.Signals[]) process.once(s, clean);
+  for (const s of Object.keys(SIGNAL_EXIT) as NodeJS.Signals[]) process.on(s, onSignal);
+}
+
+function unhookSignals(): void {
+  if (!signalsHooked) return;
+  signalsHooked = false;
+  for (const s of Object.keys(SIGNAL_EXIT) as NodeJS.Signals[]) process.off(s, onSignal);
 }
 
 /** True when a process with this id exists (ours or another user's). */
@@ -128,6 +139,7 @@ export function reserveTemp(target: string): string {
 /** Forget a temporary path without removing it (it was renamed into place, or is gone). */
 export function releaseTemp(tmp: string): void {
   pendingTemps.delete(tmp);
+  if (pendingTemps.size === 0) unhookSignals();
 }
 
 // ---- the run's input files -------------------------------------------------------------
