@@ -17,7 +17,7 @@
  */
 import { SECONDS_PER_DAY } from '../constants.ts';
 import type { NoiseLevels, OnboardClock } from '../clock/oscillator.ts';
-import { InternalError } from '../errors.ts';
+import { InputError, InternalError } from '../errors.ts';
 import { band95Ns, bandSigmaNs, outsideProbability } from './band.ts';
 import { blackoutOf, blackoutsCover, type Blackout, type Contact } from './contacts.ts';
 import { crossingAfter, firstLevelTimes, signOf, type Crossing } from './crossing.ts';
@@ -260,7 +260,14 @@ function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number)
   let since = from;
 
   for (let guard = 0; guard <= MAX_ADJUSTMENTS; guard++) {
-    if (guard === MAX_ADJUSTMENTS) throw new InternalError(`more than ${MAX_ADJUSTMENTS} adjustments planned for ${req.satellite}`, 'adjustments');
+    if (guard === MAX_ADJUSTMENTS) {
+      // A legitimate request (a long horizon, a tight limit, a fast drift), not a fault: say what to change.
+      throw new InputError(
+        `more than ${MAX_ADJUSTMENTS} adjustments would be needed for ${req.satellite} within the horizon`,
+        'horizon',
+        'plan a shorter horizon (in pieces), widen clock.keepInNs, or correct the oscillator\'s frequency and drift first',
+      );
+    }
     const band = (t: number): number => band95Ns(req.noise, t - since);
     const crossing = crossingAfter(offset, band, L, since, to, scanStepS);
     if (crossing === null) break;
