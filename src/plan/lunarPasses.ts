@@ -12,7 +12,7 @@ import { isLunarOrbiter } from '../orbit/lunarOrbit.ts';
 import { gcrfToTemeInto } from '../orbit/temeOfDate.ts';
 import type { Trajectory } from '../orbit/trajectory.ts';
 import type { BodyStation } from './lunarScenario.ts';
-import type { PassClockRow } from './passes.ts';
+import { passClockRow, type PassClockRow } from './passes.ts';
 import type { SatelliteClockRun } from './satelliteClock.ts';
 
 /** The periodic relativistic term [s] at an instant for a trajectory (lunar pair, or −2r·v/c²). */
@@ -40,22 +40,9 @@ export function lunarPassRows(run: SatelliteClockRun, stations: readonly BodySta
     const found = findLunarPasses(run.trajectory, link, fromTtJ2000S, toTtJ2000S);
     statesEvaluated += found.statesEvaluated;
     for (const p of found.passes) {
-      const atAos = run.clock.offsetNs(p.aosTtJ2000S);
-      const atLos = run.clock.offsetNs(p.losTtJ2000S);
       const oneWay = lunarOneWayTerms(run.trajectory, link, gmstRadAt, p.tcaTtJ2000S);
       rows.push({
-        ...p,
-        satelliteId: run.id,
-        satelliteName: run.name,
-        clockOffsetAtAosNs: atAos,
-        clockOffsetAtLosNs: atLos,
-        driftDuringPassNs: atLos - atAos,
-        clockOffsetAtTcaNs: run.clock.offsetNs(p.tcaTtJ2000S),
-        relativisticPeriodicAtTcaNs: periodicTermAtS(run.trajectory, p.tcaTtJ2000S) * 1e9,
-        lightTimeAtTcaNs: oneWay.lightTimeNs,
-        sagnacAtTcaNs: oneWay.sagnacNs,
-        shapiroAtTcaNs: oneWay.shapiroNs,
-        keepInMarginNs: run.keepInNs === null ? null : run.keepInNs - Math.abs(atLos),
+        ...passClockRow(p, run, periodicTermAtS(run.trajectory, p.tcaTtJ2000S), oneWay),
         satelliteBody: isLunarOrbiter(run.trajectory) ? 'moon' : 'earth',
         stationBody: st.body === 'moon' ? 'moon' : 'earth',
       });

@@ -56,30 +56,38 @@ export function planPasses(runs: readonly SatelliteClockRun[], stations: readonl
     const found = findPassesMany(run.trajectory, earth, gmstRadAt, from, to);
     statesEvaluated += found.statesEvaluated;
     for (const p of found.passes) {
-      const atAos = run.clock.offsetNs(p.aosTtJ2000S);
-      const atLos = run.clock.offsetNs(p.losTtJ2000S);
       const s = run.trajectory.stateAt(p.tcaTtJ2000S);
       const r = s.positionM;
       const v = s.velocityMPerS;
       const oneWay = oneWayTerms(run.trajectory, stationEcef.get(p.stationId)!, gmstRadAt, p.tcaTtJ2000S);
-      rows.push({
-        ...p,
-        satelliteId: run.id,
-        satelliteName: run.name,
-        clockOffsetAtAosNs: atAos,
-        clockOffsetAtLosNs: atLos,
-        driftDuringPassNs: atLos - atAos,
-        clockOffsetAtTcaNs: run.clock.offsetNs(p.tcaTtJ2000S),
-        relativisticPeriodicAtTcaNs: conventionalPeriodicS(r[0], r[1], r[2], v[0], v[1], v[2]) * 1e9,
-        lightTimeAtTcaNs: oneWay.lightTimeNs,
-        sagnacAtTcaNs: oneWay.sagnacNs,
-        shapiroAtTcaNs: oneWay.shapiroNs,
-        keepInMarginNs: run.keepInNs === null ? null : run.keepInNs - Math.abs(atLos),
-      });
+      rows.push(passClockRow(p, run, conventionalPeriodicS(r[0], r[1], r[2], v[0], v[1], v[2]), oneWay));
     }
   }
   rows.sort(comparePassRows);
   return { rows, statesEvaluated };
+}
+
+/**
+ * One pass with the clock along it: the offsets at AOS, TCA and LOS, the periodic term at TCA
+ * [s] and the one-way terms at TCA as the pass finder of the station's body gives them.
+ */
+export function passClockRow(p: Pass, run: SatelliteClockRun, periodicAtTcaS: number, oneWay: { lightTimeNs: number; sagnacNs: number; shapiroNs: number }): PassClockRow {
+  const atAos = run.clock.offsetNs(p.aosTtJ2000S);
+  const atLos = run.clock.offsetNs(p.losTtJ2000S);
+  return {
+    ...p,
+    satelliteId: run.id,
+    satelliteName: run.name,
+    clockOffsetAtAosNs: atAos,
+    clockOffsetAtLosNs: atLos,
+    driftDuringPassNs: atLos - atAos,
+    clockOffsetAtTcaNs: run.clock.offsetNs(p.tcaTtJ2000S),
+    relativisticPeriodicAtTcaNs: periodicAtTcaS * 1e9,
+    lightTimeAtTcaNs: oneWay.lightTimeNs,
+    sagnacAtTcaNs: oneWay.sagnacNs,
+    shapiroAtTcaNs: oneWay.shapiroNs,
+    keepInMarginNs: run.keepInNs === null ? null : run.keepInNs - Math.abs(atLos),
+  };
 }
 
 /** The report order: AOS, then satellite id, then station id. */
