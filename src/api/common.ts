@@ -50,3 +50,16 @@ export function durationArg(value: DurationInput, flag: string): number {
 export function gravityArg(name: GravityModelName | string, tides: boolean, ts: TimeSystem, where = '--gravity'): GravityModel {
   return gravityWithTides(name, tides, ts, where);
 }
+
+/** Epoch of elements given without one (sizing and sweeps). */
+export const DEFAULT_ELEMENTS_EPOCH = '2027-01-01T00:00:00Z';
+
+/** The orbit shape of an altitude sweep, checked: eccentricity [1], inclination [deg], epoch [TT s since J2000.0]. */
+export function sweepShapeArgs(ts: TimeSystem, options: { e?: number; iDeg?: number; epoch?: TimeInput } | undefined): { e: number; iDeg: number; epochTtJ2000S: number } {
+  const e = options?.e ?? 0;
+  const iDeg = options?.iDeg ?? 0;
+  if (!(e >= 0 && e < 1)) throw new InputError(`eccentricity ${e} is not in [0, 1)`, '--e', 'give 0 ≤ e < 1');
+  if (!(iDeg >= 0 && iDeg <= 180)) throw new InputError(`inclination ${iDeg}° is not in [0, 180]`, '--i-deg', 'give 0–180');
+  const epochTtJ2000S = timeArg(ts, options?.epoch ?? DEFAULT_ELEMENTS_EPOCH, '--epoch') as number;
+  return { e, iDeg, epochTtJ2000S };
+}

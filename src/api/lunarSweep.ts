@@ -5,7 +5,7 @@ import type { LunarForceModelName } from '../orbit/lunarOrbitInput.ts';
 import type { SelenographicSite } from '../orbit/lunarSurface.ts';
 import { sweepLunarAltitude as sweepRows, type LunarSweepResult } from '../plan/lunarSweep.ts';
 import { lunarSweepToJson, type LunarSweepJson } from '../report/lunarSweepReport.ts';
-import { gravityArg, timeArg, timeSystemOf, type CommonOptions, type TimeInput } from './common.ts';
+import { gravityArg, sweepShapeArgs, timeSystemOf, type CommonOptions, type TimeInput } from './common.ts';
 
 /** Options of {@link sweepLunarAltitude}: the `sweep --body moon` flags in camelCase. */
 export interface LunarSweepOptions extends CommonOptions {
@@ -33,13 +33,9 @@ export interface LunarSweepOptions extends CommonOptions {
 export function runLunarSweep(options?: LunarSweepOptions): { result: LunarSweepResult; meta: { e: number; iDeg: number; forces: string; gravity: string } } {
   const ts = timeSystemOf(options);
   const earthGravity = gravityArg(options?.gravity ?? 'zonal', false, ts);
-  const e = options?.e ?? 0;
-  const iDeg = options?.iDeg ?? 0;
-  if (!(e >= 0 && e < 1)) throw new InputError(`eccentricity ${e} is not in [0, 1)`, '--e', 'give 0 ≤ e < 1');
-  if (!(iDeg >= 0 && iDeg <= 180)) throw new InputError(`inclination ${iDeg}° is not in [0, 180]`, '--i-deg', 'give 0–180');
+  const { e, iDeg, epochTtJ2000S } = sweepShapeArgs(ts, options);
   const forces = options?.lunarForces ?? 'point';
   if (forces !== 'point' && forces !== 'full') throw new InputError(`unknown lunar force model ${JSON.stringify(forces)}`, '--lunar-forces', 'give point or full');
-  const epochTtJ2000S = timeArg(ts, options?.epoch ?? '2027-01-01T00:00:00Z', '--epoch') as number;
   const result = sweepRows({ fromKm: options?.fromKm ?? 50, toKm: options?.toKm ?? 10_000, points: options?.points ?? 40, e, iDeg, earthGravity, forces, epochTtJ2000S, reference: options?.reference });
   return { result, meta: { e, iDeg, forces, gravity: earthGravity.name } };
 }

@@ -14,7 +14,7 @@ import { sizeResolvedOrbit, spanStart } from '../plan/sizeOrbit.ts';
 import type { ScenarioContext } from '../plan/scenarioRuns.ts';
 import { sizeScenarioRuns } from '../plan/scenarioSizes.ts';
 import { sizeToJson, type SizeJson } from '../report/sizeReport.ts';
-import { durationArg, gravityArg, timeArg, timeSystemOf, type CommonOptions, type DurationInput, type TimeInput } from './common.ts';
+import { DEFAULT_ELEMENTS_EPOCH, durationArg, gravityArg, timeArg, timeSystemOf, type CommonOptions, type DurationInput, type TimeInput } from './common.ts';
 import { resolveOrbit } from './scenario.ts';
 
 /** Osculating Keplerian elements with their epoch (default 2027-01-01T00:00:00Z), as the `size` flags give them. */
@@ -53,7 +53,7 @@ export interface SizeOptions extends CommonOptions {
 }
 
 /** Default epoch of Keplerian elements (contract `size --epoch`). */
-export const DEFAULT_ELEMENTS_EPOCH = '2027-01-01T00:00:00Z';
+export { DEFAULT_ELEMENTS_EPOCH };
 
 function isElementSet(o: OrbitInput): o is ElementSetRecord {
   return 'kind' in o && (o.kind === 'tle' || o.kind === 'omm');

@@ -1,9 +1,8 @@
 /** Library use case: mean clock rate against altitude (command `sweep`). */
-import { InputError } from '../errors.ts';
 import type { GravityModelName } from '../orbit/gravity.ts';
 import { sweepAltitude as sweepRows, type SweepResult } from '../plan/sweep.ts';
 import { sweepToJson, type SweepJson } from '../report/analysisReports.ts';
-import { gravityArg, timeArg, timeSystemOf, type CommonOptions, type TimeInput } from './common.ts';
+import { gravityArg, sweepShapeArgs, timeSystemOf, type CommonOptions, type TimeInput } from './common.ts';
 
 /** Options of {@link sweepAltitude}: the `sweep` flags in camelCase. */
 export interface SweepOptions extends CommonOptions {
@@ -33,11 +32,7 @@ export interface SweepRun {
 export function runSweep(options?: SweepOptions): SweepRun {
   const ts = timeSystemOf(options);
   const gravity = gravityArg(options?.gravity ?? 'zonal', false, ts);
-  const e = options?.e ?? 0;
-  const iDeg = options?.iDeg ?? 0;
-  if (!(e >= 0 && e < 1)) throw new InputError(`eccentricity ${e} is not in [0, 1)`, '--e', 'give 0 ≤ e < 1');
-  if (!(iDeg >= 0 && iDeg <= 180)) throw new InputError(`inclination ${iDeg}° is not in [0, 180]`, '--i-deg', 'give 0–180');
-  const epochTtJ2000S = timeArg(ts, options?.epoch ?? '2027-01-01T00:00:00Z', '--epoch') as number;
+  const { e, iDeg, epochTtJ2000S } = sweepShapeArgs(ts, options);
   const result = sweepRows({ fromKm: options?.fromKm ?? 300, toKm: options?.toKm ?? 40000, points: options?.points ?? 200, e, iDeg, gravity, epochTtJ2000S });
   return { result, meta: { gravity: gravity.name, e, iDeg } };
 }
