@@ -22,17 +22,55 @@ export interface KeplerianElements {
   meanAnomalyRad: number;
 }
 
-/** Build elements from the user's degree/km form, refusing impossible orbits. `where` prefixes the field names. */
-export function elementsFromDegKm(
-  p: { epochTtJ2000S: number; aKm: number; e: number; iDeg: number; raanDeg: number; argpDeg: number; meanAnomalyDeg: number },
-  where: { a: string; e: string },
-): KeplerianElements {
+/** Elements in the user's degree/km form. */
+export interface KeplerianDegKm {
+  epochTtJ2000S: number;
+  aKm: number;
+  e: number;
+  iDeg: number;
+  raanDeg: number;
+  argpDeg: number;
+  meanAnomalyDeg: number;
+}
+
+/** The surface an orbit must clear, with the words of its messages. */
+export interface CentralBodySurface {
+  /** Reference radius [m]. */
+  radiusM: number;
+  /** e.g. "perigee radius 6000.000 km is below <surface>". */
+  periapsisWord: string;
+  surface: string;
+  /** An example of a, for the fix. */
+  aHint: string;
+}
+
+/** The Earth: the WGS-84 equatorial radius. */
+export const EARTH_SURFACE: CentralBodySurface = {
+  radiusM: WGS84_A_M,
+  periapsisWord: 'perigee',
+  surface: "the Earth's surface (6378.137 km)",
+  aHint: 'give a in km, e.g. 26561.75',
+};
+
+/** Refuse impossible elements about `body`; `where` prefixes the field names. */
+export function checkElementsDegKm(p: KeplerianDegKm, where: { a: string; e: string }, body: CentralBodySurface): void {
   if (!Number.isFinite(p.e) || p.e < 0 || p.e >= 1) throw new InputError(`eccentricity ${p.e} is not in [0, 1)`, where.e, 'give 0 ≤ e < 1 (closed orbits only)');
-  if (!Number.isFinite(p.aKm) || p.aKm <= 0) throw new InputError(`semi-major axis ${p.aKm} km is not positive`, where.a, 'give a in km, e.g. 26561.75');
-  const perigeeKm = p.aKm * (1 - p.e);
-  if (perigeeKm * 1000 < WGS84_A_M) {
-    throw new InputError(`perigee radius ${perigeeKm.toFixed(3)} km is below the Earth's surface (6378.137 km)`, where.a, 'raise a or lower e so that a·(1 − e) > 6378.137 km');
+  if (!Number.isFinite(p.aKm) || p.aKm <= 0) throw new InputError(`semi-major axis ${p.aKm} km is not positive`, where.a, body.aHint);
+  const periKm = p.aKm * (1 - p.e);
+  if (periKm * 1000 < body.radiusM) {
+    const radiusKm = body.radiusM / 1000;
+    throw new InputError(`${body.periapsisWord} radius ${periKm.toFixed(3)} km is below ${body.surface}`, where.a, `raise a or lower e so that a·(1 − e) > ${radiusKm} km`);
   }
+}
+
+/** Build elements from the user's degree/km form, refusing impossible orbits about the Earth. `where` prefixes the field names. */
+export function elementsFromDegKm(p: KeplerianDegKm, where: { a: string; e: string }): KeplerianElements {
+  checkElementsDegKm(p, where, EARTH_SURFACE);
+  return elementsInRadM(p);
+}
+
+/** Degree/km elements in radians and metres (unchecked). */
+export function elementsInRadM(p: KeplerianDegKm): KeplerianElements {
   return {
     epochTtJ2000S: p.epochTtJ2000S,
     aM: p.aKm * 1000,

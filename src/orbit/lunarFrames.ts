@@ -10,23 +10,12 @@
  *   angles to the lunar equator. The node is measured from the ascending node of the lunar equator on
  *   the ICRF equator.
  */
-import { InputError } from '../errors.ts';
-import { elementsFromState, keplerState, type KeplerianElements } from './keplerian.ts';
+import { checkElementsDegKm, elementsFromState, elementsInRadM, keplerState, type CentralBodySurface, type KeplerianDegKm, type KeplerianElements } from './keplerian.ts';
 import { moonStateGcrfInto } from './lunarEphemeris.ts';
 import { IAU_MOON_MEAN_RADIUS_M, icrfToMoonEquatorInto } from './moonBody.ts';
 
-const DEG = Math.PI / 180;
-
-/** Moon-centred elements in the user's degree/km form. */
-export interface LunarElementsDegKm {
-  epochTtJ2000S: number;
-  aKm: number;
-  e: number;
-  iDeg: number;
-  raanDeg: number;
-  argpDeg: number;
-  meanAnomalyDeg: number;
-}
+/** Moon-centred elements in the user's degree/km form (Moon mean equator of the epoch). */
+export type LunarElementsDegKm = KeplerianDegKm;
 
 /** A Moon-centred state [m, m/s] in LCRS. */
 export interface LcrsState {
@@ -34,27 +23,22 @@ export interface LcrsState {
   velocityMPerS: [number, number, number];
 }
 
+/** The Moon's reference sphere, for the checks of elements about it. */
+const MOON_SURFACE: CentralBodySurface = {
+  radiusM: IAU_MOON_MEAN_RADIUS_M,
+  periapsisWord: 'periselene',
+  surface: "the Moon's surface (1737.4 km): the orbit intersects the Moon",
+  aHint: "give a in km from the Moon's centre, e.g. 6142 for a 12-hour frozen orbit",
+};
+
 /** Refuse impossible lunar elements; `where` names the fields' prefix (a flag or a JSON path). */
 export function checkLunarElements(p: LunarElementsDegKm, where: { a: string; e: string }): void {
-  if (!Number.isFinite(p.e) || p.e < 0 || p.e >= 1) throw new InputError(`eccentricity ${p.e} is not in [0, 1)`, where.e, 'give 0 ≤ e < 1 (closed orbits only)');
-  if (!Number.isFinite(p.aKm) || p.aKm <= 0) throw new InputError(`semi-major axis ${p.aKm} km is not positive`, where.a, 'give a in km from the Moon\'s centre, e.g. 6142 for a 12-hour frozen orbit');
-  const periKm = p.aKm * (1 - p.e);
-  if (periKm * 1000 < IAU_MOON_MEAN_RADIUS_M) {
-    throw new InputError(`periselene radius ${periKm.toFixed(3)} km is below the Moon's surface (1737.4 km): the orbit intersects the Moon`, where.a, 'raise a or lower e so that a·(1 − e) > 1737.4 km');
-  }
+  checkElementsDegKm(p, where, MOON_SURFACE);
 }
 
 /** Lunar elements (Moon mean equator of epoch) → LCRS state at the epoch, two-body about GM [m³/s²]. */
 export function lunarElementsToLcrs(p: LunarElementsDegKm, gmM3PerS2: number): LcrsState {
-  const el: KeplerianElements = {
-    epochTtJ2000S: p.epochTtJ2000S,
-    aM: p.aKm * 1000,
-    e: p.e,
-    iRad: p.iDeg * DEG,
-    raanRad: p.raanDeg * DEG,
-    argpRad: p.argpDeg * DEG,
-    meanAnomalyRad: p.meanAnomalyDeg * DEG,
-  };
+  const el = elementsInRadM(p);
   const { r, v } = keplerState(el, gmM3PerS2, 0);
   const m = icrfToMoonEquatorInto(p.epochTtJ2000S, new Float64Array(9));
   // r_ICRF = Mᵀ·r_equator
