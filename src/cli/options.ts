@@ -44,7 +44,7 @@ const MAX_CLIP_SIGMA = 1e3;
  * bounds (src/io/scenario.ts: aKm > 0, 0 ≤ e < 1, 0 ≤ iDeg ≤ 180).
  */
 export const NUMBER_OPTION_RANGES: Readonly<Record<string, Range>> = {
-  'a-km': { min: 0, minExclusive: true, max: MAX_ORBIT_KM, what: "a semi-major axis in km from the Earth's centre", example: '26561.75' },
+  'a-km': { min: 0, minExclusive: true, max: MAX_ORBIT_KM, what: "a semi-major axis in km from the centre of the Earth (or of the Moon with --body moon)", example: '26561.75' },
   'altitude-km': { min: -6378.137, minExclusive: true, max: MAX_ORBIT_KM, what: 'an altitude in km above 6378.137 km', example: '550' },
   e: { min: 0, max: 1, maxExclusive: true, what: 'an eccentricity, 0 ≤ e < 1', example: '0.01' },
   'i-deg': { min: 0, max: 180, what: 'an inclination in degrees, 0 … 180', example: '55' },

@@ -147,7 +147,7 @@ export const FIELD_HINTS: Record<string, string> = {
   offsetNs: `give the clock offset in ns, within ±1e12 (1000 s)`,
   hardwareFractionalOffset: `give the fractional frequency offset (dimensionless, e.g. -4.464e-10), within ±1e-4`,
   agingPerDay: `give the fractional frequency change per day (e.g. 2e-15), within ±1e-6`,
-  aKm: "give the semi-major axis in km from the Earth's centre (not the altitude)",
+  aKm: "give the semi-major axis in km from the centre of the orbit's body, the Earth unless body: moon (not the altitude)",
   e: 'give the eccentricity, 0 ≤ e < 1 (a closed orbit)',
   iDeg: 'give the inclination in degrees, 0 … 180',
   whiteFmAdev1s: `noise levels are Allan deviations: 0, or 1e-20 … 1e-6`,
