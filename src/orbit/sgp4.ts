@@ -41,7 +41,7 @@ import type { OmmRecord, TleRecord } from '../model/elementSet.ts';
 import { Instant } from '../time/instant.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import { countStates } from './stateCount.ts';
-import { rateCovers, sgp4WithRate, SGP4_OK, type Sgp4Constants, type Sgp4RecordFields } from './sgp4Rate.ts';
+import { rateCovers, rateRecordOf, sgp4WithRate, SGP4_OK, type Sgp4Constants, type Sgp4RateRecord, type Sgp4RecordFields } from './sgp4Rate.ts';
 import { checkSpan, type StateBlock, type Trajectory } from './trajectory.ts';
 import { vec3, type StateM } from './vec.ts';
 
@@ -143,6 +143,7 @@ const rateOut = new Float64Array(6);
 /** satellite.js records, kept out of the public surface. */
 const satrecOf = new WeakMap<Sgp4Trajectory, SatRec>();
 
+
 const RAD_TO_DEG = 180 / Math.PI;
 
 /** An SGP4 trajectory in TEME from one element set (TLE or OMM). */
@@ -161,6 +162,8 @@ export class Sgp4Trajectory implements Trajectory {
   private readonly timeSystem: TimeSystem;
   /** Whether states carry the derivative of SGP4's position (default) or SGP4's velocity. */
   readonly derivativeVelocity: boolean;
+  /** The compact record sgp4Rate.ts reads (null for resonant records: the stencil path). */
+  #rate: Sgp4RateRecord | null;
 
   constructor(elements: Sgp4ElementSet, timeSystem: TimeSystem, options: Sgp4Options = {}) {
     this.elements = elements;
@@ -188,14 +191,14 @@ export class Sgp4Trajectory implements Trajectory {
     // sgp4init already propagated to t = 0; an error there means the element set itself is unusable.
     if (satrec.error !== SatRecError.None) throw this.propagationError(satrec.error, this.epochTtJ2000S);
     satrecOf.set(this, satrec);
+    this.#rate = rateCovers(satrec as unknown as Sgp4RecordFields) ? rateRecordOf(satrec as unknown as Sgp4RecordFields, RATE_CONSTANTS) : null;
   }
 
   /** State at `ttJ2000S` [s since J2000.0 TT], TEME, metres and m/s. Throws SpanError outside the span. */
   stateAt(ttJ2000S: number): StateM<'TEME'> {
     checkSpan(this, ttJ2000S, (t) => this.formatUtc(t));
-    const satrec = satrecOf.get(this) as SatRec;
-    if (this.derivativeVelocity && rateCovers(satrec as unknown as Sgp4RecordFields)) {
-      this.differentiated(satrec, ttJ2000S);
+    if (this.derivativeVelocity && this.#rate !== null) {
+      this.differentiated(ttJ2000S);
       countStates(1, 1);
       const o = rateOut;
       return { ttJ2000S, positionM: vec3<'TEME'>(o[0] * 1000, o[1] * 1000, o[2] * 1000), velocityMPerS: vec3<'TEME'>(o[3] * 1000, o[4] * 1000, o[5] * 1000) };
@@ -215,8 +218,7 @@ export class Sgp4Trajectory implements Trajectory {
 
   /** State at `ttJ2000S` into out[0..5] (TEME, m and m/s): the numbers `stateAt` gives, with no allocation. */
   stateInto(ttJ2000S: number, out: Float64Array): void {
-    const satrec = satrecOf.get(this) as SatRec;
-    if (!(this.derivativeVelocity && rateCovers(satrec as unknown as Sgp4RecordFields))) {
+    if (!(this.derivativeVelocity && this.#rate !== null)) {
       const s = this.stateAt(ttJ2000S);
       for (let k = 0; k < 3; k++) {
         out[k] = s.positionM[k];
@@ -225,7 +227,7 @@ export class Sgp4Trajectory implements Trajectory {
       return;
     }
     checkSpan(this, ttJ2000S, (t) => this.formatUtc(t));
-    this.differentiated(satrec, ttJ2000S);
+    this.differentiated(ttJ2000S);
     countStates(1, 1);
     for (let k = 0; k < 6; k++) out[k] = rateOut[k] * 1000;
   }
@@ -233,6 +235,15 @@ export class Sgp4Trajectory implements Trajectory {
   /** Position [m, TEME] at `ttJ2000S` into out[0..2]: one SGP4 call, the position `stateAt` gives. */
   positionInto(ttJ2000S: number, out: Float64Array): void {
     checkSpan(this, ttJ2000S, (t) => this.formatUtc(t));
+    if (this.#rate !== null) {
+      // The differentiated pass gives the same position bits as satellite.js's sgp4, in less time.
+      this.differentiated(ttJ2000S);
+      countStates(1, 1);
+      out[0] = rateOut[0] * 1000;
+      out[1] = rateOut[1] * 1000;
+      out[2] = rateOut[2] * 1000;
+      return;
+    }
     const p = this.propagateKm((ttJ2000S - this.epochTtJ2000S) / 60, ttJ2000S).position;
     countStates(1, 1);
     out[0] = p.x * 1000;
@@ -276,11 +287,11 @@ export class Sgp4Trajectory implements Trajectory {
     const epoch = this.epochTtJ2000S;
     const pOut = out.positionM;
     const vOut = out.velocityMPerS;
-    if (wasm === null && this.derivativeVelocity && rateCovers(satrec as unknown as Sgp4RecordFields)) {
+    if (wasm === null && this.derivativeVelocity && this.#rate !== null) {
       countStates(n, n);
       const o = rateOut;
       for (let i = 0; i < n; i++) {
-        this.differentiated(satrec, ttJ2000S[i]);
+        this.differentiated(ttJ2000S[i]);
         pOut[3 * i] = o[0] * 1000;
         pOut[3 * i + 1] = o[1] * 1000;
         pOut[3 * i + 2] = o[2] * 1000;
@@ -365,8 +376,8 @@ export class Sgp4Trajectory implements Trajectory {
   }
 
   /** Position [km] and its time derivative [km/s] at t into {@link rateOut} (sgp4Rate.ts), errors as stateAt's. */
-  private differentiated(satrec: SatRec, ttJ2000S: number): void {
-    const code = sgp4WithRate(satrec as unknown as Sgp4RecordFields, (ttJ2000S - this.epochTtJ2000S) / 60, RATE_CONSTANTS, rateOut);
+  private differentiated(ttJ2000S: number): void {
+    const code = sgp4WithRate(this.#rate as Sgp4RateRecord, (ttJ2000S - this.epochTtJ2000S) / 60, RATE_CONSTANTS, rateOut);
     if (code !== SGP4_OK) throw this.propagationError(code, ttJ2000S);
     const o = rateOut;
     if (!(Math.abs(o[0]) + Math.abs(o[1]) + Math.abs(o[2]) + Math.abs(o[3]) + Math.abs(o[4]) + Math.abs(o[5]) < Infinity)) throw this.propagationError(-1, ttJ2000S);

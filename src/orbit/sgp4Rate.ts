@@ -119,11 +119,48 @@ export function rateCovers(rec: Sgp4RecordFields): boolean {
 }
 
 /**
+ * The record fields {@link sgp4WithRate} reads, copied once into a small object of one fixed shape
+ * (satellite.js's record has about a hundred fields, several of them strings, and the hot loop reads
+ * it per state), with three quantities SGP4 recomputes at every call although they depend on the
+ * record only: `am0 = (xke/no)^(2/3)` and, near the earth, sin and cos of the inclination.
+ * Computed by the same operations, so the results stay bit-identical.
+ */
+export type Sgp4RateRecord = Readonly<Omit<Sgp4RecordFields, 'method' | 'isimp' | 'irez' | 'operationmode'>> & {
+  readonly deep: boolean;
+  readonly simple: boolean;
+  readonly afspcMode: boolean;
+  readonly am0: number;
+  readonly sinInclo: number;
+  readonly cosInclo: number;
+};
+
+const NUMERIC_FIELDS = [
+  'mo', 'mdot', 'argpo', 'argpdot', 'nodeo', 'nodedot', 'nodecf', 'cc1', 'cc4', 'cc5', 'bstar', 't2cof', 't3cof', 't4cof', 't5cof',
+  'omgcof', 'eta', 'xmcof', 'delmo', 'd2', 'd3', 'd4', 'sinmao', 'no', 'ecco', 'inclo', 'aycof', 'xlcof', 'con41', 'x1mth2', 'x7thm1',
+  'dedt', 'didt', 'domdt', 'dnodt', 'dmdt', 'e3', 'ee2', 'peo', 'pgho', 'pho', 'pinco', 'plo', 'se2', 'se3', 'sgh2', 'sgh3', 'sgh4',
+  'sh2', 'sh3', 'si2', 'si3', 'sl2', 'sl3', 'sl4', 'xgh2', 'xgh3', 'xgh4', 'xh2', 'xh3', 'xi2', 'xi3', 'xl2', 'xl3', 'xl4', 'zmol', 'zmos',
+] as const;
+
+/** The {@link Sgp4RateRecord} of an initialised record (one per element set, built once). */
+export function rateRecordOf(rec: Sgp4RecordFields, c: Sgp4Constants): Sgp4RateRecord {
+  const r: Record<string, number | boolean> = {};
+  for (const k of NUMERIC_FIELDS) r[k] = rec[k];
+  r.deep = rec.method === 'd';
+  r.simple = rec.isimp === 1;
+  r.afspcMode = rec.operationmode === 'a';
+  r.am0 = rec.no > 0 ? (c.xke / rec.no) ** c.x2o3 : NaN;
+  r.sinInclo = Math.sin(rec.inclo);
+  r.cosInclo = Math.cos(rec.inclo);
+  // One literal shape for every record: copy into a fresh object in a fixed key order.
+  return Object.fromEntries([...NUMERIC_FIELDS, 'deep', 'simple', 'afspcMode', 'am0', 'sinInclo', 'cosInclo'].map((k) => [k, r[k]])) as unknown as Sgp4RateRecord;
+}
+
+/**
  * Position [km, TEME] at `tsince` [min since epoch] into out[0..2] and its time derivative
  * [km/s] into out[3..5]. Returns 0, or satellite.js's error code (the outputs are then undefined).
  * The record is not modified.
  */
-export function sgp4WithRate(rec: Sgp4RecordFields, tsince: number, c: Sgp4Constants, out: Float64Array): number {
+export function sgp4WithRate(rec: Sgp4RateRecord, tsince: number, c: Sgp4Constants, out: Float64Array): number {
   const t = tsince;
   // ------- secular gravity and atmospheric drag -------
   const xmdf = rec.mo + rec.mdot * t;
@@ -143,7 +180,7 @@ export function sgp4WithRate(rec: Sgp4RecordFields, tsince: number, c: Sgp4Const
   let tempeD = rec.bstar * rec.cc4;
   let templ = rec.t2cof * t2;
   let templD = 2 * rec.t2cof * t;
-  if (rec.isimp !== 1) {
+  if (!rec.simple) {
     const delomg = rec.omgcof * t;
     const cosx = Math.cos(xmdf);
     const delmtemp = 1.0 + rec.eta * cosx;
@@ -170,7 +207,7 @@ export function sgp4WithRate(rec: Sgp4RecordFields, tsince: number, c: Sgp4Const
   let emD = 0;
   let inclm = rec.inclo;
   let inclmD = 0;
-  const deep = rec.method === 'd';
+  const deep = rec.deep;
   if (deep) {
     // Secular deep-space rates (dspace without resonance).
     em += rec.dedt * t;
@@ -185,10 +222,10 @@ export function sgp4WithRate(rec: Sgp4RecordFields, tsince: number, c: Sgp4Const
     mmD += rec.dmdt;
   }
   if (nm <= 0.0) return MEAN_MOTION;
-  const am0 = (c.xke / nm) ** c.x2o3;
+  const am0 = rec.am0;
   const am = am0 * tempa * tempa;
   const amD = am0 * 2 * tempa * tempaD;
-  nm = c.xke / am ** 1.5;
+  // satellite.js then sets nm = xke / am^1.5, which only the resonance terms (not covered here) read.
   em -= tempe;
   emD -= tempeD;
   if (em >= 1.0 || em < -0.001) return MEAN_ECCENTRICITY;
@@ -215,8 +252,9 @@ export function sgp4WithRate(rec: Sgp4RecordFields, tsince: number, c: Sgp4Const
   let nodepD = nodemD;
   let mp = mm;
   let mpD = mmD;
-  let sinip = Math.sin(inclm);
-  let cosip = Math.cos(inclm);
+  // Near the earth inclm is the record's inclination: its sine and cosine are the record's.
+  let sinip = deep ? Math.sin(inclm) : rec.sinInclo;
+  let cosip = deep ? Math.cos(inclm) : rec.cosInclo;
   if (deep) {
     const zns = 1.19459e-5;
     const zes = 0.01675;
@@ -303,7 +341,7 @@ export function sgp4WithRate(rec: Sgp4RecordFields, tsince: number, c: Sgp4Const
       alfdp += dalf;
       betdp += dbet;
       nodep %= TWO_PI;
-      if (nodep < 0.0 && rec.operationmode === 'a') nodep += TWO_PI;
+      if (nodep < 0.0 && rec.afspcMode) nodep += TWO_PI;
       let xls = mp + argpp + cosip * nodep;
       let xlsD = mpD + argppD + cosipD * nodep + cosip * nodepD;
       const dls = pl + pgh - pinc * nodep * sinip;
@@ -313,7 +351,7 @@ export function sgp4WithRate(rec: Sgp4RecordFields, tsince: number, c: Sgp4Const
       const xnoh = nodep;
       nodep = Math.atan2(alfdp, betdp);
       nodepD = (betdp * alfdpD - alfdp * betdpD) / (alfdp * alfdp + betdp * betdp);
-      if (nodep < 0.0 && rec.operationmode === 'a') nodep += TWO_PI;
+      if (nodep < 0.0 && rec.afspcMode) nodep += TWO_PI;
       if (Math.abs(xnoh - nodep) > PI) {
         if (nodep < xnoh) nodep += TWO_PI;
         else nodep -= TWO_PI;
