@@ -1,7 +1,7 @@
 // One tauplan CLI run for the benchmark, as users run it (the bundle in dist/ when it is fresh,
 // else the TypeScript sources through tsx), reporting on stdout one line
-// `BENCH-CHILD {"code","wallMs","maxRssKb","states","propagations"}`: wall time since the process
-// started, peak RSS, and the orbit states the run evaluated (src/orbit/stateCount.ts keeps them
+// `BENCH-CHILD {"code","wallMs","mainMs","cpuMs","maxRssKb","states","propagations"}`: wall time
+// since the process started, the command's own time, CPU time, peak RSS, and the orbit states the run evaluated (src/orbit/stateCount.ts keeps them
 // on a process-wide symbol, so the bundle and the sources share it).
 import { readdirSync, statSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
@@ -33,7 +33,12 @@ if (bundleIsFresh()) {
   register();
   ({ main } = await import('../../src/cli/main.ts'));
 }
+// mainMs: the command itself (from main() to its return), without Node's start-up and the entry
+// module's loading, which coldStartVsNode measures; cpuMs: user + system time of every thread.
+const mainStartMs = performance.now();
 const code = await main(process.argv.slice(2));
+const mainMs = performance.now() - mainStartMs;
+const cpu = process.cpuUsage();
 const counts = globalThis[Symbol.for('tauplan.orbitStateCount')] ?? { states: 0, propagations: 0 };
-process.stdout.write(`BENCH-CHILD ${JSON.stringify({ code, wallMs: performance.now(), maxRssKb: process.resourceUsage().maxRSS, states: counts.states, propagations: counts.propagations })}\n`);
+process.stdout.write(`BENCH-CHILD ${JSON.stringify({ code, wallMs: performance.now(), mainMs, cpuMs: (cpu.user + cpu.system) / 1000, maxRssKb: process.resourceUsage().maxRSS, states: counts.states, propagations: counts.propagations })}\n`);
 process.exitCode = code;

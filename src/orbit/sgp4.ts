@@ -164,6 +164,8 @@ export class Sgp4Trajectory implements Trajectory {
   readonly derivativeVelocity: boolean;
   /** The compact record sgp4Rate.ts reads (null for resonant records: the stencil path). */
   #rate: Sgp4RateRecord | null;
+  /** formatUtc bound once: span checks run per state and must not allocate a closure each time. */
+  readonly #formatUtc = (t: number): string => this.formatUtc(t);
 
   constructor(elements: Sgp4ElementSet, timeSystem: TimeSystem, options: Sgp4Options = {}) {
     this.elements = elements;
@@ -196,7 +198,7 @@ export class Sgp4Trajectory implements Trajectory {
 
   /** State at `ttJ2000S` [s since J2000.0 TT], TEME, metres and m/s. Throws SpanError outside the span. */
   stateAt(ttJ2000S: number): StateM<'TEME'> {
-    checkSpan(this, ttJ2000S, (t) => this.formatUtc(t));
+    checkSpan(this, ttJ2000S, this.#formatUtc);
     if (this.derivativeVelocity && this.#rate !== null) {
       this.differentiated(ttJ2000S);
       countStates(1, 1);
@@ -226,7 +228,7 @@ export class Sgp4Trajectory implements Trajectory {
       }
       return;
     }
-    checkSpan(this, ttJ2000S, (t) => this.formatUtc(t));
+    checkSpan(this, ttJ2000S, this.#formatUtc);
     this.differentiated(ttJ2000S);
     countStates(1, 1);
     for (let k = 0; k < 6; k++) out[k] = rateOut[k] * 1000;
@@ -234,7 +236,7 @@ export class Sgp4Trajectory implements Trajectory {
 
   /** Position [m, TEME] at `ttJ2000S` into out[0..2]: one SGP4 call, the position `stateAt` gives. */
   positionInto(ttJ2000S: number, out: Float64Array): void {
-    checkSpan(this, ttJ2000S, (t) => this.formatUtc(t));
+    checkSpan(this, ttJ2000S, this.#formatUtc);
     if (this.#rate !== null) {
       // The differentiated pass gives the same position bits as satellite.js's sgp4, in less time.
       this.differentiated(ttJ2000S);
