@@ -90,6 +90,19 @@ export function elevationRad(frame: StationFrame, xM: number, yM: number, zM: nu
 }
 
 /**
+ * Sine of the elevation of an earth-fixed point (x, y, z) [m] from a station: no allocation and no
+ * inverse trigonometry, for searches (sin is increasing on [−90°, 90°], so comparisons against a
+ * mask and the roots of sin(el) − sin(mask) are those of the elevation itself).
+ */
+export function sinElevation(frame: StationFrame, xM: number, yM: number, zM: number): number {
+  const dx = xM - frame.positionM[0];
+  const dy = yM - frame.positionM[1];
+  const dz = zM - frame.positionM[2];
+  const up = frame.upUnit;
+  return (dx * up[0] + dy * up[1] + dz * up[2]) / Math.sqrt(dx * dx + dy * dy + dz * dz);
+}
+
+/**
  * A quantity with the sign of the elevation rate, from earth-fixed position [m] and velocity [m/s]:
  * (û·v)|ρ|² − (û·ρ)(ρ·v), which is |ρ|³ cos(el) · d(el)/dt. Smooth through the zenith (unlike
  * d(el)/dt itself), so a root finder can locate culmination on it. Units m⁴/s.

@@ -11,7 +11,10 @@
  * Method:
  * 1. A coarse grid with step h = clamp(min(minPassS / 2, τp / 4), 10 s, 600 s), where τp = r_p / v_p is
  *    the time scale of perigee passage from the osculating state at the window start (vis-viva).
- *    Each grid sample gives the elevation and the sign of its rate (from the earth-fixed velocity).
+ *    Each grid sample gives sin(elevation) and the sign of its rate (from the earth-fixed velocity);
+ *    the search compares sin(elevation) with sin(mask), which has the same signs and roots as
+ *    elevation − mask (sin increases on [−90°, 90°]) and needs no inverse trigonometry. The Earth's
+ *    rotation along the grid comes from exact anchors and the constant rate (./siderealGrid.ts).
  * 2. In every grid bin where the elevation rate changes sign from + to −, the maximum is located
  *    by a root finder on the (smooth) rate numerator; where it changes − to + and both ends are
  *    above the mask, the minimum is located too. This catches passes shorter than h (the rate
@@ -33,7 +36,8 @@
 import { WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../constants.ts';
 import { InputError, InternalError } from '../errors.ts';
 import { allocStateBlock, checkSpan, positionInto, stateInto, type Trajectory } from '../orbit/trajectory.ts';
-import { elevationRad, elevationRateSignM4PerS, stationFrame, type StationFrame } from './lookAngles.ts';
+import { elevationRateSignM4PerS, sinElevation, stationFrame, type StationFrame } from './lookAngles.ts';
+import { earthRotationAlongGrid } from './siderealGrid.ts';
 import { checkStation, type Station } from './station.ts';
 
 const DEG = Math.PI / 180;
@@ -206,7 +210,8 @@ class Evaluator {
 class StationScan {
   readonly passes: Pass[] = [];
   private readonly frame: StationFrame;
-  private readonly maskRad: number;
+  /** sin(mask): the scan works on sin(elevation) − sin(mask), which has the sign and roots of elevation − mask. */
+  private readonly sinMask: number;
   private readonly buf = new Float64Array(6);
   private started = false;
   private prevT = 0;
@@ -224,12 +229,12 @@ class StationScan {
     private readonly satelliteId: string,
   ) {
     this.frame = stationFrame(station);
-    this.maskRad = station.maskDeg * DEG;
+    this.sinMask = Math.sin(station.maskDeg * DEG);
   }
 
-  /** Elevation minus mask [rad] from an earth-fixed position. */
+  /** sin(elevation) − sin(mask) [1] from an earth-fixed position. */
   fOf(x: number, y: number, z: number): number {
-    return elevationRad(this.frame, x, y, z) - this.maskRad;
+    return sinElevation(this.frame, x, y, z) - this.sinMask;
   }
   gOf(x: number, y: number, z: number, vx: number, vy: number, vz: number): number {
     return elevationRateSignM4PerS(this.frame, x, y, z, vx, vy, vz);
@@ -245,7 +250,7 @@ class StationScan {
     return this.gOf(b[0], b[1], b[2], b[3], b[4], b[5]);
   };
 
-  /** Feed the next grid sample: time, elevation − mask [rad], elevation-rate sign quantity. */
+  /** Feed the next grid sample: time, sin(elevation) − sin(mask), elevation-rate sign quantity. */
   push(t: number, f: number, g: number): void {
     if (!this.started) {
       this.started = true;
@@ -319,7 +324,7 @@ class StationScan {
     if (!anyTruncated && durationS < this.station.minPassS) return;
     // A pass that only touches the mask has no knot above it: culminate at its AOS.
     const tca = Number.isFinite(this.bestF) ? this.bestT : this.aosT;
-    const maxElevationDeg = Number.isFinite(this.bestF) ? (this.bestF + this.maskRad) / DEG : this.station.maskDeg;
+    const maxElevationDeg = Number.isFinite(this.bestF) ? Math.asin(Math.min(1, this.bestF + this.sinMask)) / DEG : this.station.maskDeg;
     this.passes.push({
       satelliteId: this.satelliteId,
       stationId: this.station.id,
@@ -374,7 +379,10 @@ export function findPassesMany(
   const total = intervals + 1;
   const chunk = Math.min(CHUNK_SAMPLES, total);
   const times = new Float64Array(chunk);
+  const cosG = new Float64Array(chunk);
+  const sinG = new Float64Array(chunk);
   const block = allocStateBlock(chunk);
+  const w = WGS84_OMEGA_RAD_PER_S;
   for (let start = 0; start < total; start += chunk) {
     const n = Math.min(chunk, total - start);
     const ts = n === chunk ? times : times.subarray(0, n);
@@ -384,14 +392,20 @@ export function findPassesMany(
     }
     traj.sampleInto(ts, block);
     ev.statesEvaluated += n;
+    // The window end is off the even grid: its angle exactly.
+    const even = start + n - 1 === intervals ? n - 1 : n;
+    earthRotationAlongGrid(gmstRadAt, fromTtJ2000S + start * stepS, stepS, even, cosG, sinG);
+    if (even < n) {
+      const g = gmstRadAt(ts[n - 1]);
+      cosG[n - 1] = Math.cos(g);
+      sinG[n - 1] = Math.sin(g);
+    }
     const p = block.positionM;
     const v = block.velocityMPerS;
-    const w = WGS84_OMEGA_RAD_PER_S;
     for (let i = 0; i < n; i++) {
       // temeToEcef (src/orbit/frames.ts) without allocation.
-      const g = gmstRadAt(ts[i]);
-      const c = Math.cos(g);
-      const s = Math.sin(g);
+      const c = cosG[i];
+      const s = sinG[i];
       const x = c * p[3 * i] + s * p[3 * i + 1];
       const y = -s * p[3 * i] + c * p[3 * i + 1];
       const z = p[3 * i + 2];
