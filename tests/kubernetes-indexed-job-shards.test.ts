@@ -4,7 +4,7 @@
  * pod gets its index 0..completions−1 in JOB_COMPLETION_INDEX — confirmed from the documentation.
  * The pods run at once; the merge must be byte-identical to one unsharded run.
  */
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -34,6 +34,24 @@ describe('Kubernetes Indexed Job: --shard auto --shard-count', () => {
     const merged = await startCli(['merge', join(dir, 'nav-pod0.json'), join(dir, 'nav-pod1.json'), '--out', join(dir, 'nav-merged.json'), '--quiet'], {});
     expect(merged.code, merged.stderr).toBe(0);
     expect(readFileSync(join(dir, 'nav-merged.json'), 'utf8')).toBe(readFileSync(join(dir, 'nav-one.json'), 'utf8'));
+  }, 240_000); // shard processes start at once: slow on a loaded machine
+
+  it('four indexed pods of compare with every pair, on a scenario with a ballistic flight and a clock on the Moon, merged, equal one run byte for byte (CSV)', async () => {
+    // The demo constellation (invented) plus an invented vertical hop inside the window and an invented
+    // lunar station: a flight shortens its pairs' interval, and the lunar clock is integrated.
+    const scenario = join(dir, 'hop.yaml');
+    const demo = readFileSync(DEMO, 'utf8').replace(/^ {4}measurements: .*\n/m, '');
+    const hop = '  - id: HOP\n    orbit:\n      state: { frame: GCRF, epoch: 2027-01-04T03:00:00Z, positionKm: [6378.5, 0, 0], velocityKmPerS: [3, 0.2, 0] }\n';
+    const moon = '  - { id: MOONBASE, body: moon, latDeg: 0, lonDeg: 0, heightM: 0, maskDeg: 5, minPassS: 300 }\n';
+    writeFileSync(scenario, demo.replace('  - id: TSR-2\n', `${hop}  - id: TSR-2\n`).replace(/^stations:\n/m, `stations:\n${moon}`));
+    const args = (out: string, extra: string[] = []): string[] => ['compare', scenario, '--format', 'csv', '--out', join(dir, out), ...extra];
+    const runs = await Promise.all([startCli(args('cmp-one.csv'), {}), ...[0, 1, 2, 3].map((i) => startCli(args(`cmp-pod${i}.csv`, ['--shard', 'auto', '--shard-count', '4']), { JOB_COMPLETION_INDEX: String(i) }))]);
+    for (const r of runs) expect(r.code, r.stderr).toBe(0);
+    const one = readFileSync(join(dir, 'cmp-one.csv'), 'utf8');
+    expect(one).toMatch(/^HOP,satellite,.*,2027-01-04T03:11:\d\d\.\d{3}Z,/m); // the hop is a flight
+    const merged = await startCli(['merge', ...[3, 1, 0, 2].map((i) => join(dir, `cmp-pod${i}.csv`)), '--out', join(dir, 'cmp-merged.csv'), '--quiet'], {});
+    expect(merged.code, merged.stderr).toBe(0);
+    expect(readFileSync(join(dir, 'cmp-merged.csv'), 'utf8')).toBe(one);
   }, 240_000); // shard processes start at once: slow on a loaded machine
 
   it('an index without --shard-count, or outside it, is a one-line input error (exit 2)', async () => {

@@ -32,6 +32,20 @@ describe('Slurm job array: --shard auto', () => {
     expect(readFileSync(join(dir, 'merged.json'), 'utf8')).toBe(readFileSync(join(dir, 'one.json'), 'utf8'));
   }, 240_000); // shard processes start at once: slow on a loaded machine
 
+  it('three array tasks of compare --against, merged, equal one run byte for byte (JSON); each task keeps its satellites and their pairs', async () => {
+    const slurm = (id: number): Record<string, string> => ({ SLURM_ARRAY_TASK_ID: String(id), SLURM_ARRAY_TASK_COUNT: '3', SLURM_ARRAY_TASK_MIN: '0' });
+    const args = (out: string, extra: string[] = []): string[] => ['compare', DEMO, '--against', 'TSR-3', '--format', 'json', '--out', join(dir, out), ...extra];
+    const runs = await Promise.all([startCli(args('cmp-one.json'), {}), ...[0, 1, 2].map((id) => startCli(args(`cmp-task${id}.json`, ['--shard', 'auto']), slurm(id)))]);
+    for (const r of runs) expect(r.code, r.stderr).toBe(0);
+    // Task 1 (shard 2/3) has TSR-2 and TSR-E1; the pairs with the reference go with their other clock.
+    const task1 = JSON.parse(readFileSync(join(dir, 'cmp-task1.json'), 'utf8')) as { clocks: { id: string }[]; pairs: { a: string; b: string }[] };
+    expect(task1.clocks.map((c) => c.id)).toEqual(['TSR-2', 'TSR-E1']);
+    expect(task1.pairs.map((p) => `${p.a}|${p.b}`)).toEqual(['TSR-2|TSR-3', 'TSR-3|TSR-E1']);
+    const merged = await startCli(['merge', join(dir, 'cmp-task2.json'), join(dir, 'cmp-task0.json'), join(dir, 'cmp-task1.json'), '--out', join(dir, 'cmp-merged.json'), '--quiet'], {});
+    expect(merged.code, merged.stderr).toBe(0);
+    expect(readFileSync(join(dir, 'cmp-merged.json'), 'utf8')).toBe(readFileSync(join(dir, 'cmp-one.json'), 'utf8'));
+  }, 240_000); // shard processes start at once: slow on a loaded machine
+
   it('bad or missing array variables are one-line input errors (exit 2), and a missing task stops the merge', async () => {
     const base = ['passes', DEMO, '--to', '2027-01-05T00:00:00Z', '--format', 'csv', '--shard', 'auto'];
     const [noCount, outside] = await Promise.all([

@@ -26,6 +26,7 @@ interface CommandModules {
   fit?: typeof import('./commands/fit.ts');
   stability?: typeof import('./commands/stability.ts');
   compare?: typeof import('./commands/compare.ts');
+  compareShard?: typeof import('./compareShard.ts');
   sweep?: typeof import('./commands/sweep.ts');
   track?: typeof import('./commands/track.ts');
   report?: typeof import('./commands/report.ts');
@@ -60,7 +61,7 @@ async function loadCommand(name: string | undefined): Promise<CommandModules> {
     case 'stability':
       return { stability: await import('./commands/stability.ts') };
     case 'compare':
-      return { compare: await import('./commands/compare.ts') };
+      return { compare: await import('./commands/compare.ts'), compareShard: await import('./compareShard.ts') };
     case 'sweep':
       return { sweep: await import('./commands/sweep.ts') };
     case 'track':
@@ -118,7 +119,7 @@ function parser(args: string[], m: CommandModules) {
     )
     .command(
       'merge <files..>',
-      'Join shard outputs (size --all CSV or JSON Lines; passes, resets, navclock JSON or CSV) into what one run writes',
+      'Join shard outputs (size --all CSV or JSON Lines; passes, resets, navclock, compare JSON or CSV) into what one run writes',
       (y) => need(m.merge, 'merge').mergeOptions(y),
       (a) => need(m.merge, 'merge').runMerge(a.files as string[], a.out, a.quiet),
     )
@@ -126,13 +127,13 @@ function parser(args: string[], m: CommandModules) {
       'passes <scenario>',
       'Passes over the stations with each onboard clock offset at AOS and LOS',
       (y) => need(m.passes, 'passes').passesOptions(common(y)).options(need(m.shard, 'shard').SHARD_OPTIONS),
-      async (a) => emit(await need(m.shard, 'shard').sharded(a, 'passes', ts, (b) => need(m.passes, 'passes').runPasses(b, ts)), a.format, a.out, 'passes', ts),
+      async (a) => emit(await need(m.shard, 'shard').sharded(a, 'passes', ts, (b, scenario) => need(m.passes, 'passes').runPasses(b, ts, scenario)), a.format, a.out, 'passes', ts),
     )
     .command(
       'resets <scenario>',
       'When each clock leaves its keep-in limit, and the pass to adjust it in',
       (y) => need(m.resets, 'resets').resetsOptions(common(y)).options(need(m.shard, 'shard').SHARD_OPTIONS),
-      async (a) => emit(await need(m.shard, 'shard').sharded(a, 'resets', ts, (b) => need(m.resets, 'resets').runResets(b, ts), (s) => s.clock !== null && s.clock.keepInNs !== null), a.format, a.out, 'resets', ts),
+      async (a) => emit(await need(m.shard, 'shard').sharded(a, 'resets', ts, (b, scenario) => need(m.resets, 'resets').runResets(b, ts, scenario), (s) => s.clock !== null && s.clock.keepInNs !== null), a.format, a.out, 'resets', ts),
     )
     .command(
       'fit <measurements>',
@@ -152,8 +153,8 @@ function parser(args: string[], m: CommandModules) {
     .command(
       'compare <scenario>',
       'Compare satellite and station clocks over one window',
-      (y) => need(m.compare, 'compare').compareOptions(common(y)),
-      (a) => emit(need(m.compare, 'compare').runCompare(a, ts), a.format, a.out, 'compare', ts),
+      (y) => need(m.compare, 'compare').compareOptions(common(y)).options(need(m.compareShard, 'compare').COMPARE_SHARD_OPTIONS),
+      (a) => emit(need(m.compareShard, 'compare').shardedCompare(a, ts, (b, share) => need(m.compare, 'compare').runCompare(b, ts, share)), a.format, a.out, 'compare', ts),
     )
     .command(
       'sweep',
@@ -177,7 +178,7 @@ function parser(args: string[], m: CommandModules) {
       'navclock [scenario]',
       'Navigation-message clock parameter sets (af0, af1, af2) with their expected error',
       (y) => need(m.navclock, 'navclock').navclockOptions(common(y)).options(need(m.shard, 'shard').SHARD_OPTIONS),
-      async (a) => emit(await need(m.shard, 'shard').sharded(a, 'navclock', ts, (b) => need(m.navclock, 'navclock').runNavclock(b, ts)), a.format, a.out, 'navclock'),
+      async (a) => emit(await need(m.shard, 'shard').sharded(a, 'navclock', ts, (b, scenario) => need(m.navclock, 'navclock').runNavclock(b, ts, scenario)), a.format, a.out, 'navclock'),
     )
     .command(
       'demo',

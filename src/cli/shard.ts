@@ -1,10 +1,10 @@
 /**
- * `--shard K/N` and `--shard auto` for the scenario commands passes, resets and navclock (compare's
- * pairs need every clock in one run, and report's HTML every satellite, so they are not sharded):
- * the satellites a run selects are split round-robin (scenario order, after --sat) and this run
- * keeps those whose 0-based position i has i mod N = K − 1, as `size --all --shard` does with
+ * `--shard K/N` and `--shard auto` for the scenario commands passes, resets, navclock, compare and
+ * report: the satellites a run selects are split round-robin (scenario order, after --sat) and this
+ * run keeps those whose 0-based position i has i mod N = K − 1, as `size --all --shard` does with
  * element sets. The output is tagged (JSON: a `shard` field; CSV: a first `# shard` line) so that
- * `tauplan merge` can join the shard outputs into exactly what one run writes.
+ * `tauplan merge` can join the shard outputs into exactly what one run writes. compare's pairs are
+ * shared out in src/cli/compareShard.ts, report's folders in src/cli/reportShard.ts.
  *
  * `--shard auto` takes K and N from a batch scheduler's environment (only the CLI reads it):
  * - Slurm job arrays: SLURM_ARRAY_TASK_ID, SLURM_ARRAY_TASK_COUNT and SLURM_ARRAY_TASK_MIN
@@ -13,7 +13,7 @@
  */
 import { InputError } from '../errors.ts';
 import { loadScenario } from '../io/loadScenario.ts';
-import type { SatelliteSpec } from '../model/scenario.ts';
+import type { SatelliteSpec, ScenarioSpec } from '../model/scenario.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import type { Rendered } from './emit.ts';
 import { selectSatellites } from '../api/scenario.ts';
@@ -109,8 +109,27 @@ export interface ShardTag {
   command: string;
   index: number;
   count: number;
-  /** Every satellite the unsharded run would have, in its order. */
+  /** Every satellite the unsharded run would have, in its order (compare: every clock, satellites then stations). */
   order: string[];
+}
+
+/** A rendered output with the shard tag merge reads (JSON: a leading `shard` field; CSV: a first `# shard` line). */
+export function tagRendered(r: Rendered, tag: ShardTag): Rendered {
+  const csv = r.csv;
+  return {
+    ...r,
+    json: () => ({ shard: tag, ...(r.json() as Record<string, unknown>) }),
+    ...(csv === undefined ? {} : { csv: () => `${CSV_TAG_PREFIX}${JSON.stringify(tag)}\n${csv()}` }),
+  };
+}
+
+/** The first line of a tagged CSV shard (src/report/shardMerge.ts reads it). */
+export const CSV_TAG_PREFIX = '# shard ';
+
+/** The scenario a shard runs on (--shard needs one). */
+export function shardScenario(a: { scenario?: string }, ts: TimeSystem): ScenarioSpec {
+  if (a.scenario === undefined) throw new InputError('--shard needs a scenario', '--shard', 'give the scenario file, or leave --shard out');
+  return loadScenario(a.scenario, ts);
 }
 
 /** --shard writes JSON or CSV (what merge joins). */
@@ -128,27 +147,21 @@ export const SHARD_OPTIONS = {
  * Run a scenario command on its shard: with --shard, the run's satellites (after --sat, and only
  * those `eligible` for the command) are split round-robin, the command runs on this shard's
  * satellites, and its JSON or CSV carries the tag merge reads. Without --shard, `run` as is.
+ * The scenario read here is passed to `run`, so a shard reads and checks it once.
  */
 export async function sharded<A extends ShardArgs & { scenario?: string; sat?: string; format?: string }>(
   a: A,
   command: string,
   ts: TimeSystem,
-  run: (a: A) => Rendered | Promise<Rendered>,
+  run: (a: A, scenario?: ScenarioSpec) => Rendered | Promise<Rendered>,
   eligible: (s: SatelliteSpec) => boolean = () => true,
 ): Promise<Rendered> {
   const shard = shardOf(a);
   if (shard === null) return run(a);
   requireMergeableFormat(a.format);
-  if (a.scenario === undefined) throw new InputError('--shard needs a scenario', '--shard', 'give the scenario file, or leave --shard out');
-  const scenario = loadScenario(a.scenario, ts);
+  const scenario = shardScenario(a, ts);
   const order = selectSatellites(scenario, a).filter(eligible).map((s) => s.id);
   const ids = shardIds(order, shard);
-  const r = await run({ ...a, sat: ids.join(',') });
-  const tag: ShardTag = { command, index: shard.k, count: shard.n, order };
-  const csv = r.csv;
-  return {
-    ...r,
-    json: () => ({ shard: tag, ...(r.json() as Record<string, unknown>) }),
-    ...(csv === undefined ? {} : { csv: () => `# shard ${JSON.stringify(tag)}\n${csv()}` }),
-  };
+  const r = await run({ ...a, sat: ids.join(',') }, scenario);
+  return tagRendered(r, { command, index: shard.k, count: shard.n, order });
 }

@@ -76,9 +76,10 @@ type Elapsed = (from: number, to: number) => number;
 
 /**
  * Compare clocks over [from, to]. `against` names the reference clock of the offset series (a
- * satellite or station id); without it the series are against TT.
+ * satellite or station id); without it the series are against TT. With `only`, only those clocks
+ * (and the pairs among them) are computed; every flight in `sats` still widens the window.
  */
-export function compareClocks(sats: CompareSatellite[], stations: BodyStation[], gravity: GravityModel, fromTtJ2000S: number, toTtJ2000S: number, against?: string): CompareResult {
+export function compareClocks(sats: CompareSatellite[], stations: BodyStation[], gravity: GravityModel, fromTtJ2000S: number, toTtJ2000S: number, against?: string, only?: ReadonlySet<string>): CompareResult {
   const clocks: ClockComparison[] = [];
   const elapsed = new Map<string, Elapsed>();
   // Orbits are integrated over the window, widened to cover every flight so pairs can be formed.
@@ -91,6 +92,7 @@ export function compareClocks(sats: CompareSatellite[], stations: BodyStation[],
     }
   }
   for (const s of sats) {
+    if (only !== undefined && !only.has(s.id)) continue;
     const from = s.flight?.startTtJ2000S ?? lo;
     const to = s.flight?.endTtJ2000S ?? hi;
     // A lunar orbit's step follows its period about the Moon, not its geocentric one.
@@ -118,6 +120,7 @@ export function compareClocks(sats: CompareSatellite[], stations: BodyStation[],
     });
   }
   for (const st of stations) {
+    if (only !== undefined && !only.has(st.id)) continue;
     if (st.body === 'moon') {
       // A clock at rest on the Moon: its rate follows the Earth–Moon distance (monthly term), so it is integrated.
       const { trajectory, track } = lunarStationTrack(st, gravity, fromTtJ2000S, toTtJ2000S);

@@ -1,12 +1,14 @@
 /**
- * Joining the outputs of scenario commands run with `--shard K/N` (passes, resets, navclock) into exactly what one unsharded run writes, byte for byte.
+ * Joining the outputs of scenario commands run with `--shard K/N` (passes, resets, navclock,
+ * compare) into exactly what one unsharded run writes, byte for byte.
  *
  * Each shard output carries a tag (JSON: a leading `shard` field; CSV: a `# shard {...}` comment
  * line) with the command, K, N and the order of every satellite of the unsharded run. The join:
  * - fields equal in every shard are kept as they are; `notes` and CSV comment lines are merged so
  *   that each satellite's notes come in satellite order between the lines every shard shares;
  * - per-satellite arrays and CSV rows are put in the unsharded order: by satellite for most
- *   commands, by AOS (GPS week and seconds, to the microsecond), satellite and station for passes;
+ *   commands, by AOS (GPS week and seconds, to the microsecond), satellite and station for passes,
+ *   by clock and then by pair (first and second clock) for compare;
  * - JSON is written as every command writes it (2-space JSON and a newline); CSV rows are copied.
  * A missing, repeated or foreign shard is refused with an input error.
  */
@@ -151,6 +153,13 @@ function rowKey(command: string, order: readonly string[]): RowKey {
   if (command === 'passes') {
     // The unsharded order: AOS, then satellite id, then station id (plan/passes.ts comparePassRows).
     return (get) => [Number(get('aosGpsWeek')) * 604800 + Number(get('aosGpsSecondsOfWeek')), get('satellite'), get('station')];
+  }
+  if (command === 'compare') {
+    // The tag's order lists every clock (satellites, then stations): clock rows in that order, then
+    // the pairs (i, j) as one run forms them (plan/compare.ts), i before j. JSON keeps clocks and
+    // pairs in two arrays; CSV has both in one table, pairs after the clocks.
+    const at = (id: string): number => satIndex.get(id) ?? Number.MAX_SAFE_INTEGER;
+    return (get) => (get('a') === '' ? [0, at(get('id'))] : [1, at(get('a')), at(get('b'))]);
   }
   return (get) => [sat(get)];
 }

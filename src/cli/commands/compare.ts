@@ -1,10 +1,12 @@
-/** `tauplan compare SCENARIO [--from --to] [--against ID [--pairs all]]`. */
+/** `tauplan compare SCENARIO [--from --to] [--against ID [--pairs all]] [--shard K/N|auto]`. */
 import type { Argv } from 'yargs';
 import { runCompare as compareScenario, type CompareRun } from '../../api/compare.ts';
 import { loadScenario } from '../../io/loadScenario.ts';
+import type { ScenarioSpec } from '../../model/scenario.ts';
 import { compareToCsv, compareToJson, compareToText } from '../../report/analysisReports.ts';
 import { compareFigures, compareSection, page, windowMeta } from '../../report/htmlReport.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
+import type { CompareShare } from '../compareShard.ts';
 import type { Rendered } from '../emit.ts';
 
 export function compareOptions<T>(y: Argv<T>) {
@@ -24,13 +26,16 @@ export interface CompareArgs {
   pairs?: string;
 }
 
-/** The comparison of a scenario file (also a part of `report`). */
-export function computeCompare(a: CompareArgs, ts: TimeSystem): CompareRun {
-  return compareScenario(loadScenario(a.scenario, ts), { timeSystem: ts, from: a.from, to: a.to, against: a.against, pairs: a.pairs as 'all' | 'against' | undefined });
+/** The comparison of a scenario file (also a part of `report`); `parsed`: the scenario already read. */
+export function computeCompare(a: CompareArgs, ts: TimeSystem, parsed?: ScenarioSpec, clocks?: readonly string[]): CompareRun {
+  return compareScenario(parsed ?? loadScenario(a.scenario, ts), { timeSystem: ts, from: a.from, to: a.to, against: a.against, pairs: a.pairs as 'all' | 'against' | undefined, clocks });
 }
 
-export function runCompare(a: CompareArgs, ts: TimeSystem): Rendered {
-  const { result, meta, notes } = computeCompare(a, ts);
+/** The whole comparison, or with `share` one shard's rows and pairs (JSON and CSV only). */
+export function runCompare(a: CompareArgs, ts: TimeSystem, share?: CompareShare): Rendered {
+  const run = computeCompare(a, ts, share?.scenario, share?.clocks);
+  const { meta, notes } = run;
+  const result = share === undefined ? run.result : { ...run.result, clocks: run.result.clocks.filter((c) => share.keepClock(c.id)), pairs: run.result.pairs.filter((p) => share.keepPair(p.a, p.b)) };
   return {
     notes,
     json: () => compareToJson(result, ts, meta),

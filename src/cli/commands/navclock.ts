@@ -6,6 +6,7 @@ import type { Argv } from 'yargs';
 import { InputError } from '../../errors.ts';
 import { DEFAULT_PREDICTION_SPACING_S, runNavClockSets, type NavClockRun, type NavClockSetOptions } from '../../api/navclock.ts';
 import { loadScenario } from '../../io/loadScenario.ts';
+import type { ScenarioSpec } from '../../model/scenario.ts';
 import { navClockToCsv, navClockToJson, navClockToText } from '../../report/navclockReport.ts';
 import { navClockToHtml } from '../../report/navclockHtml.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
@@ -54,18 +55,19 @@ export function navClockSetOptions(a: NavclockArgs, ts: TimeSystem): NavClockSet
 }
 
 /** Parameter sets for the satellites of a scenario. */
-export function computeNavclockScenario(a: NavclockArgs & { scenario: string }, ts: TimeSystem): NavClockRun {
-  return runNavClockSets(loadScenario(a.scenario, ts), navClockSetOptions(a, ts));
+export function computeNavclockScenario(a: NavclockArgs & { scenario: string }, ts: TimeSystem, parsed?: ScenarioSpec): NavClockRun {
+  return runNavClockSets(parsed ?? loadScenario(a.scenario, ts), navClockSetOptions(a, ts));
 }
 
-export function runNavclock(a: NavclockArgs, ts: TimeSystem): Rendered {
+/** `parsed`: the scenario file already read (by --shard), so it is not read twice. */
+export function runNavclock(a: NavclockArgs, ts: TimeSystem, parsed?: ScenarioSpec): Rendered {
   if (a.nav !== undefined) {
     if (a.scenario !== undefined) throw new InputError('both a scenario and --nav given', '--nav', 'judge a navigation file (--nav --precise --orbit) or generate sets from a scenario, one at a time');
     return runNavEval({ nav: a.nav, precise: a.precise, orbit: a.orbit, system: a.system }, ts);
   }
   if (a.measurements !== undefined && a.scenario !== undefined) throw new InputError('both a scenario and --measurements given', '--measurements', 'generate sets from a scenario or from measurements, one at a time');
   if (a.measurements === undefined && a.scenario === undefined) throw new InputError('no scenario given', 'navclock', 'give a scenario file (tauplan navclock data/demo/tessera.yaml), or --measurements with --orbit, or --nav');
-  const { result, meta } = a.measurements !== undefined ? computeNavclockMeasured({ ...a, measurements: a.measurements }, ts) : computeNavclockScenario({ ...a, scenario: a.scenario as string }, ts);
+  const { result, meta } = a.measurements !== undefined ? computeNavclockMeasured({ ...a, measurements: a.measurements }, ts) : computeNavclockScenario({ ...a, scenario: a.scenario as string }, ts, parsed);
   return {
     html: () => navClockToHtml(result, meta, ts),
     json: () => navClockToJson(result, meta, ts),

@@ -2,6 +2,7 @@
 import type { Argv } from 'yargs';
 import { mergePassRows, passesMeta, passesParts, runPasses as passesOf, type PassesOptions } from '../../api/passes.ts';
 import { loadScenario } from '../../io/loadScenario.ts';
+import type { ScenarioSpec } from '../../model/scenario.ts';
 import { modelsSection, page, passesSections, windowMeta } from '../../report/htmlReport.ts';
 import { passesToCsv, passesToJson, passesToText } from '../../report/passesReport.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
@@ -32,11 +33,12 @@ export interface PassesArgs {
 
 /**
  * Satellites spread over worker threads (text, JSON and CSV; HTML needs the clocks here). The rows
- * are merged in the same order as one process gives, whatever the number of workers.
+ * are merged in the same order as one process gives, whatever the number of workers. `parsed`:
+ * the scenario file already read (by --shard), so it is not read twice.
  */
-export async function runPasses(a: PassesArgs, ts: TimeSystem): Promise<Rendered> {
+export async function runPasses(a: PassesArgs, ts: TimeSystem, parsed?: ScenarioSpec): Promise<Rendered> {
   checkJobs(a.jobs);
-  const scenario = loadScenario(a.scenario, ts);
+  const scenario = parsed ?? loadScenario(a.scenario, ts);
   const options: PassesOptions = { timeSystem: ts, from: a.from, to: a.to, sat: a.sat, station: a.station };
   // One thread (--jobs 1, or one core) never asks for the parts: the run goes straight to the library.
   if (a.format !== 'html' && (a.jobs ?? coresAvailable()) > 1) {

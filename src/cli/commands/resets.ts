@@ -2,6 +2,7 @@
 import type { Argv } from 'yargs';
 import { PREDICTION_BAND_RULE, resetsMeta, resetsParts, runResets as resetsOf, type ResetsOptions, type ResetsRun } from '../../api/resets.ts';
 import { loadScenario } from '../../io/loadScenario.ts';
+import type { ScenarioSpec } from '../../model/scenario.ts';
 import { modelsSection, page, resetsSection, windowMeta } from '../../report/htmlReport.ts';
 import { resetsToCsv, resetsToJson, resetsToText } from '../../report/resetsReport.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
@@ -39,10 +40,13 @@ export function computeResets(a: ResetsArgs, ts: TimeSystem): ResetsRun {
   return resetsOf(loadScenario(a.scenario, ts), optionsOf(a, ts));
 }
 
-/** Satellites spread over worker threads (text, JSON and CSV); plans come back in scenario order. */
-export async function runResets(a: ResetsArgs, ts: TimeSystem): Promise<Rendered> {
+/**
+ * Satellites spread over worker threads (text, JSON and CSV); plans come back in scenario order.
+ * `parsed`: the scenario file already read (by --shard), so it is not read twice.
+ */
+export async function runResets(a: ResetsArgs, ts: TimeSystem, parsed?: ScenarioSpec): Promise<Rendered> {
   checkJobs(a.jobs);
-  const scenario = loadScenario(a.scenario, ts);
+  const scenario = parsed ?? loadScenario(a.scenario, ts);
   const options = optionsOf(a, ts);
   // One thread (--jobs 1, or one core) never asks for the parts: the run goes straight to the library.
   if (a.format !== 'html' && (a.jobs ?? coresAvailable()) > 1) {
