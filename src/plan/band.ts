@@ -9,7 +9,7 @@
  * σy²(τ) = q1/τ + q2·τ/3 for those two noises; flicker FM has no exact state form and the rule is a
  * rule of thumb there.
  */
-import { PREDICTION_RULE_TEXT, predictionSigmaNs, Z95 } from '../clock/noise.ts';
+import { PREDICTION_RULE_TEXT, Z95 } from '../clock/noise.ts';
 import type { NoiseLevels } from '../clock/oscillator.ts';
 import { SECONDS_PER_DAY } from '../constants.ts';
 
@@ -20,20 +20,43 @@ export const BAND_RULE_TEXT = PREDICTION_RULE_TEXT;
 
 /** 1-σ of the offset prediction [ns] after τ [s] from a known state; 0 without noise or at τ ≤ 0. */
 export function bandSigmaNs(noise: NoiseLevels | null, tauS: number): number {
-  if (noise === null || !(tauS > 0)) return noise === null ? 0 : predictionSigmaNs(noise, tauS);
-  // predictionBandAt (clock/predictionBand.ts) with no fit and no random run, without its
-  // allocations: the planner's scans call this millions of times. Same operations, same result.
-  const a = noise.whiteFmAdev1s ?? 0;
-  const c = noise.randomWalkFmAdev1d ?? 0;
-  const white = a * a * tauS;
-  const rw = (((3 * c * c) / SECONDS_PER_DAY) * tauS ** 3) / 3;
-  const flicker = ((noise.flickerFmFloor ?? 0) * tauS) ** 2;
-  return Math.sqrt((white + rw + 0 + flicker) * 1e18 + 0);
+  return bandSigmaOf(noise)(tauS);
 }
 
 /** Half-width [ns] of the 95 % band after τ [s]. */
 export function band95Ns(noise: NoiseLevels | null, tauS: number): number {
   return Z95 * bandSigmaNs(noise, tauS);
+}
+
+const NO_BAND = (): number => 0;
+
+/**
+ * `bandSigmaNs` for one noise as a function of τ [s], its coefficients worked out once: the
+ * planner's scans call it millions of times. predictionBandAt (clock/predictionBand.ts) with no fit
+ * and no random run, without its allocations: the same operations in the same order, so the same
+ * result to the last bit (x² is exactly x·x in the platform's pow; τ³ stays a pow, as there).
+ */
+export function bandSigmaOf(noise: NoiseLevels | null): (tauS: number) => number {
+  if (noise === null) return NO_BAND;
+  const a = noise.whiteFmAdev1s ?? 0;
+  const c = noise.randomWalkFmAdev1d ?? 0;
+  const f = noise.flickerFmFloor ?? 0;
+  const whiteNs2PerS = a * a;
+  const rwPerS3 = (3 * c * c) / SECONDS_PER_DAY;
+  return (tauS: number): number => {
+    if (!(tauS > 0)) return 0;
+    const white = whiteNs2PerS * tauS;
+    const rw = (rwPerS3 * tauS ** 3) / 3;
+    const ft = f * tauS;
+    return Math.sqrt((white + rw + 0 + ft * ft) * 1e18 + 0);
+  };
+}
+
+/** `band95Ns` for one noise as a function of τ [s] (see bandSigmaOf). */
+export function band95Of(noise: NoiseLevels | null): (tauS: number) => number {
+  if (noise === null) return NO_BAND;
+  const sigma = bandSigmaOf(noise);
+  return (tauS: number): number => Z95 * sigma(tauS);
 }
 
 /** Standard normal upper tail Q(z) = P(Z > z) (Abramowitz & Stegun 7.1.26 through erfc; |error| < 1.5e-7). */

@@ -111,19 +111,99 @@ const sideOf = (s: 1 | -1): Side => (s > 0 ? 'upper' : 'lower');
  * prediction stays inside to `to`.
  */
 export function crossingAfter(offsetNs: (t: number) => number, bandNs: (t: number) => number, limitNs: number, from: number, to: number, stepS: number): Crossing | null {
-  const levels: Level[] = [];
-  for (const sign of [1, -1] as const) for (const bandSign of [0, 1, -1] as const) levels.push({ sign, bandSign, levelNs: limitNs });
-  const [upAt, upEarly, upLate, loAt, loEarly, loLate] = firstLevelTimes(offsetNs, bandNs, levels, from, to, stepS);
-  if (upAt === null && loAt === null) return null;
-  const upperFirst = loAt === null || (upAt !== null && upAt <= loAt);
+  return crossingAndMargin(offsetNs, bandNs, limitNs, null, from, to, stepS).crossing;
+}
+
+/** Levels of crossingAndMargin: upper at, early, late; lower at, early, late; margin upper, lower. */
+const UP_AT = 0;
+const LO_AT = 3;
+const LATE = 2;
+const MARGIN = 6;
+
+/**
+ * `crossingAfter` and, in the same scan, the first instant after `from` at which the band's edge on
+ * the crossing's side enters `marginLevelNs` (s·x + band ≥ level, counted only once it was below:
+ * firstLevelTimes with enteringOnly), when that comes no later than the crossing's `earliest` —
+ * later it cannot move a deadline min(marginAt, earliest), so it is null then, as when never.
+ * The scan visits the same instants as firstLevelTimes and stops as soon as nothing it could still
+ * find can change the answer: once the first central crossing is found (the other side's crossing
+ * and every early edge can only come later), only that side's far edge (`latest`) is looked for.
+ */
+export function crossingAndMargin(
+  offsetNs: (t: number) => number,
+  bandNs: (t: number) => number,
+  limitNs: number,
+  marginLevelNs: number | null,
+  from: number,
+  to: number,
+  stepS: number,
+): { crossing: Crossing | null; marginAt: number | null } {
+  const count = marginLevelNs === null ? 6 : 8;
+  const sign = new Float64Array([1, 1, 1, -1, -1, -1, 1, -1]);
+  const bandSign = new Float64Array([0, 1, -1, 0, 1, -1, 1, 1]);
+  const levelNs = new Float64Array([limitNs, limitNs, limitNs, limitNs, limitNs, limitNs, marginLevelNs ?? 0, marginLevelNs ?? 0]);
+  const found: (number | null)[] = [null, null, null, null, null, null, null, null];
+  // 1: still wanted and below its level; 0: still wanted, not yet below (margin levels only); -1: done.
+  const state = new Int8Array(8);
+  const g = (i: number, x: number, b: number): number => sign[i] * x + bandSign[i] * b - levelNs[i];
+  const x0 = offsetNs(from);
+  const b0 = bandNs(from);
+  for (let i = 0; i < count; i++) {
+    if (g(i, x0, b0) < 0) state[i] = 1;
+    else if (i < MARGIN) {
+      found[i] = from;
+      state[i] = -1;
+    }
+  }
+  let side: 0 | 1 | -1 = 0;
+  const settle = (): void => {
+    if (side !== 0 || (found[UP_AT] === null && found[LO_AT] === null)) return;
+    side = found[LO_AT] === null || (found[UP_AT] !== null && (found[UP_AT] as number) <= (found[LO_AT] as number)) ? 1 : -1;
+    const late = side > 0 ? UP_AT + LATE : LO_AT + LATE;
+    for (let i = 0; i < count; i++) if (i !== late) state[i] = -1;
+  };
+  settle();
+  const n = Math.ceil((to - from) / stepS);
+  if (n > MAX_SCAN_POINTS) throw new InternalError(`crossing scan of ${n} points`, 'horizon');
+  let prev = from;
+  const wanted = (): boolean => {
+    for (let i = 0; i < count; i++) if (state[i] >= 0) return true;
+    return false;
+  };
+  for (let k = 1; k <= n && wanted(); k++) {
+    const t = Math.min(to, from + k * stepS);
+    const x = offsetNs(t);
+    const b = bandNs(t);
+    for (let i = 0; i < count; i++) {
+      if (state[i] < 0) continue;
+      const v = g(i, x, b);
+      if (state[i] === 0) {
+        if (v < 0) state[i] = 1;
+        continue;
+      }
+      if (v >= 0) {
+        found[i] = bisect((tt) => g(i, offsetNs(tt), bandNs(tt)), prev, t);
+        state[i] = -1;
+      }
+    }
+    settle();
+    prev = t;
+  }
+  const [upAt, upEarly, upLate, loAt, loEarly, loLate] = found;
+  if (upAt === null && loAt === null) return { crossing: null, marginAt: null };
+  const upperFirst = side > 0;
   const [at, early, late, otherEarly] = upperFirst ? [upAt as number, upEarly, upLate, loEarly] : [loAt as number, loEarly, loLate, upEarly];
   const earliest = Math.min(early ?? at, at);
+  const marginAt = marginLevelNs === null ? null : found[upperFirst ? MARGIN : MARGIN + 1];
   return {
-    atTtJ2000S: at,
-    side: upperFirst ? 'upper' : 'lower',
-    earliestTtJ2000S: earliest,
-    latestTtJ2000S: late === null ? null : Math.max(late, at),
-    otherSide: otherEarly !== null && otherEarly < earliest ? { side: upperFirst ? 'lower' : 'upper', earliestTtJ2000S: otherEarly } : null,
+    crossing: {
+      atTtJ2000S: at,
+      side: upperFirst ? 'upper' : 'lower',
+      earliestTtJ2000S: earliest,
+      latestTtJ2000S: late === null ? null : Math.max(late, at),
+      otherSide: otherEarly !== null && otherEarly < earliest ? { side: upperFirst ? 'lower' : 'upper', earliestTtJ2000S: otherEarly } : null,
+    },
+    marginAt: marginAt !== null && marginAt <= earliest ? marginAt : null,
   };
 }
 

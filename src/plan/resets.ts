@@ -18,9 +18,9 @@
 import { SECONDS_PER_DAY } from '../constants.ts';
 import type { NoiseLevels, OnboardClock } from '../clock/oscillator.ts';
 import { InputError, InternalError } from '../errors.ts';
-import { band95Ns, bandSigmaNs, outsideProbability } from './band.ts';
+import { band95Ns, band95Of, bandSigmaOf, outsideProbability } from './band.ts';
 import { blackoutOf, blackoutsCover, type Blackout, type Contact } from './contacts.ts';
-import { crossingAfter, firstLevelTimes, signOf, type Crossing } from './crossing.ts';
+import { crossingAfter, crossingAndMargin, signOf, type Crossing } from './crossing.ts';
 import { CONTINUOUS_STEPS, type ClockSteps } from './quantise.ts';
 import { sizeAdjustment, type Strategy } from './strategy.ts';
 
@@ -178,9 +178,10 @@ class PlannedClock {
     this.cumFractionalAtS.push((n > 0 ? this.cumFractionalAtS[n - 1] : 0) + s.fractional * s.atTtJ2000S);
   }
   offsetNs(t: number): number {
-    // Last step at or before t.
-    let lo = 0;
-    let hi = this.at.length;
+    // Last step at or before t (the scans ask mostly after the last one).
+    const count = this.at.length;
+    let lo = count > 0 && this.at[count - 1] <= t ? count : 0;
+    let hi = count;
     while (lo < hi) {
       const mid = (lo + hi) >> 1;
       if (this.at[mid] <= t) lo = mid + 1;
@@ -254,6 +255,7 @@ function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number)
   const agingNsPerS2 = req.clock.params === null ? 0 : (req.clock.params.agingPerDay / SECONDS_PER_DAY) * 1e9;
   const usableNs = L - policy.marginNs - PERIODIC_ALLOWANCE * periodicNs - PERIODIC_ALLOWANCE_NS;
   const offset = (t: number): number => planned.offsetNs(t);
+  const band95 = band95Of(req.noise);
   const adjustments: Adjustment[] = [];
   const exact: { phaseNs: number; fractional: number }[] = [];
   let unplannable: StrategyPlan['unplannable'] = null;
@@ -268,12 +270,12 @@ function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number)
         'plan a shorter horizon (in pieces), widen clock.keepInNs, or correct the oscillator\'s frequency and drift first',
       );
     }
-    const band = (t: number): number => band95Ns(req.noise, t - since);
-    const crossing = crossingAfter(offset, band, L, since, to, scanStepS);
+    const bandSince = since;
+    const band = (t: number): number => band95(t - bandSince);
+    const { crossing, marginAt } = crossingAndMargin(offset, band, L, policy.marginNs > 0 ? L - policy.marginNs : null, since, to, scanStepS);
     if (crossing === null) break;
     const s = signOf(crossing.side);
     const outsideNow = s * offset(since) >= L;
-    const [marginAt] = policy.marginNs > 0 ? firstLevelTimes(offset, band, [{ sign: s, bandSign: 1, levelNs: L - policy.marginNs }], since, to, scanStepS, true) : [null];
     const deadline = Math.min(marginAt ?? Infinity, crossing.earliestTtJ2000S) - policy.leadTimeS;
     const last = adjustments.at(-1);
     const spacingFloor = last === undefined ? -Infinity : last.atTtJ2000S + minSpacingS;
@@ -312,7 +314,7 @@ function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number)
       usableNs,
       targetNs,
       remainingS: to - t,
-      band95Ns: (tau) => band95Ns(req.noise, tau),
+      band95Ns: band95,
       steps,
     });
     planned.push({ atTtJ2000S: t, phaseNs: sizing.phaseStepNs, fractional: sizing.frequencyStep });
@@ -354,10 +356,11 @@ function crossingProbability(req: ResetRequest): number {
   const { fromTtJ2000S: from, toTtJ2000S: to } = req;
   const step = scanStepOf(req.periodS);
   const n = Math.ceil((to - from) / step);
+  const sigma = bandSigmaOf(req.noise);
   let p = 0;
   for (let k = 0; k <= n; k++) {
     const t = Math.min(to, from + k * step);
-    p = Math.max(p, outsideProbability(req.clock.offsetNs(t), bandSigmaNs(req.noise, t - from), req.limitNs));
+    p = Math.max(p, outsideProbability(req.clock.offsetNs(t), sigma(t - from), req.limitNs));
   }
   return p;
 }
@@ -366,7 +369,8 @@ function crossingProbability(req: ResetRequest): number {
 export function planResets(req: ResetRequest): SatelliteResetPlan {
   const { limitNs: L, fromTtJ2000S: from, toTtJ2000S: to } = req;
   const periodicNs = periodicAmplitudeNs(req.clock, from, Math.min(to, from + req.periodS));
-  const freeBand = (t: number): number => band95Ns(req.noise, t - from);
+  const band95 = band95Of(req.noise);
+  const freeBand = (t: number): number => band95(t - from);
   const firstCrossing = crossingAfter((t) => req.clock.offsetNs(t), freeBand, L, from, to, scanStepOf(req.periodS));
   const prefer = req.policy.prefer;
   const main = planStrategy(req, prefer, periodicNs);

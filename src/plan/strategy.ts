@@ -113,17 +113,31 @@ function sizeCombined(input: SizingInput): Sizing {
 }
 
 /**
+ * band95Ns at the scan points of exitWithBandS over (0, H]: the same for every candidate rate of
+ * one sizing, so worked out once.
+ */
+export function exitBandGrid(band95Ns: (tauS: number) => number, horizonS: number): Float64Array {
+  const dt = horizonS / EXIT_SCAN_POINTS;
+  const grid = new Float64Array(EXIT_SCAN_POINTS + 1);
+  grid[0] = band95Ns(0);
+  for (let k = 1; k <= EXIT_SCAN_POINTS; k++) grid[k] = band95Ns(k * dt);
+  return grid;
+}
+
+/**
  * First τ ∈ (0, H] at which the trend with its 95 % band leaves ±B, counted once the trend is
  * inside (a start at the edge does not count); H when it stays inside, 0 when it never gets in.
  */
-export function exitWithBandS(x0: number, r: number, d: number, usable: number, band95Ns: (tauS: number) => number, horizonS: number): number {
+export function exitWithBandS(x0: number, r: number, d: number, usable: number, band95Ns: (tauS: number) => number, horizonS: number, bandGridNs: Float64Array = exitBandGrid(band95Ns, horizonS)): number {
   const v = (tau: number): number => Math.abs(x0 + r * tau + 0.5 * d * tau * tau) + band95Ns(tau) - usable;
+  // v at the k-th scan point, its band read from the grid (the same value band95Ns gives there).
+  const vAt = (k: number, tau: number): number => Math.abs(x0 + r * tau + 0.5 * d * tau * tau) + bandGridNs[k] - usable;
   const dt = horizonS / EXIT_SCAN_POINTS;
-  let inside = v(0) < 0;
+  let inside = vAt(0, 0) < 0;
   let prev = 0;
   for (let k = 1; k <= EXIT_SCAN_POINTS; k++) {
     const tau = k * dt;
-    const vt = v(tau);
+    const vt = vAt(k, tau);
     if (!inside) {
       inside = vt < 0;
       prev = tau;
@@ -151,13 +165,14 @@ function sizeFrequency(input: SizingInput): Sizing {
   const hi = 4 * Math.max(h, lo);
   type Cand = { freq: number; score: number; returnS: number; reaches: boolean };
   const cands: Cand[] = [];
+  const bandGridNs = exitBandGrid(input.band95Ns, h);
   for (let k = 0; k < RATE_GRID_POINTS; k++) {
     // τc: time for the trend to reach the target; the rate follows from it.
     const tauC = lo * (hi / lo) ** (k / (RATE_GRID_POINTS - 1));
     const rate = (target - x0 - 0.5 * d * tauC * tauC) / tauC;
     const freq = (rate - r) * 1e-9;
     if (Math.abs(freq) > maxFreq) continue;
-    const exit = exitWithBandS(x0, rate, d, usable, input.band95Ns, h);
+    const exit = exitWithBandS(x0, rate, d, usable, input.band95Ns, h, bandGridNs);
     cands.push({ freq, score: exit, returnS: tauC, reaches: exit >= Math.min(tauC, h) });
   }
   const pool = cands.some((c) => c.reaches) ? cands.filter((c) => c.reaches) : cands;
