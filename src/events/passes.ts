@@ -21,9 +21,13 @@
  *    turns inside the bin even when both ends are below the mask) and dips that would merge two
  *    passes. Any pass lasting ≥ minPassS also contains a grid point, since h ≤ minPassS / 2.
  *    The remaining assumption — at most one elevation extremum per bin — holds because h is a
- *    quarter of the fastest orbital time scale.
+ *    quarter of the fastest orbital time scale. A maximum in a bin whose ends are both below the
+ *    mask is not located when a bound on the satellite's earth-fixed speed shows that the
+ *    elevation cannot reach the mask in between (./passScan.ts).
  * 3. Between consecutive knots (grid points and located extrema) the elevation is monotonic, so a
  *    sign change of (elevation − mask) holds exactly one AOS or LOS; it is refined to 1 ms.
+ *    Refinement (./passScan.ts) is a Newton iteration on the state's own rate from the cubic
+ *    Hermite guess of the bin, inside the sign bracket and capped: one or two states per root.
  * 4. TCA is the culmination: the highest located maximum in the pass (time of maximum elevation,
  *    located to 1 ms through the elevation-rate root; close to, but not exactly, the time of minimum
  *    range). A truncated pass may culminate at the window edge.
@@ -34,13 +38,13 @@
  * Every iteration is capped; hitting a cap throws InternalError.
  */
 import { WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../constants.ts';
-import { InputError, InternalError } from '../errors.ts';
-import { allocStateBlock, checkSpan, positionInto, stateInto, type Trajectory } from '../orbit/trajectory.ts';
-import { elevationRateSignM4PerS, sinElevation, stationFrame, type StationFrame } from './lookAngles.ts';
+import { InputError } from '../errors.ts';
+import { allocStateBlock, checkSpan, type Trajectory } from '../orbit/trajectory.ts';
+import { EcefEvaluator, StationScan } from './passScan.ts';
 import { earthRotationAlongGrid } from './siderealGrid.ts';
 import { checkStation, type Station } from './station.ts';
 
-const DEG = Math.PI / 180;
+export { bracketedRoot } from './passRoots.ts';
 
 /** Sidereal angle [rad] at an instant given in seconds since J2000.0 TT (inertial → earth-fixed rotation). */
 export type GmstRadAt = (ttJ2000S: number) => number;
@@ -81,65 +85,11 @@ export interface PassSearchResult {
   gridStepS: number;
 }
 
-/** Cap on root-finder iterations; 1 ms from a 600 s bracket needs about 20 bisections. */
-const ROOT_MAX_ITERATIONS = 200;
-/** Crossing and culmination times are located to this [s] (contract: AOS/LOS ≤ 0.01 s, TCA ≤ 0.1 s). */
-const TIME_TOLERANCE_S = 1e-3;
 /** Grid step bounds [s]. */
 const MIN_GRID_STEP_S = 10;
 const MAX_GRID_STEP_S = 600;
 /** Samples per bulk `sampleInto` call; bounds memory for long windows. */
 const CHUNK_SAMPLES = 4096;
-
-/**
- * Root of `fn` on [a, b] where fa and fb have opposite signs (or one is zero): Illinois-weighted
- * regula falsi, with a bisection whenever the bracket fails to halve within two steps. Works on
- * offsets from `a` to keep precision when a is ~1e9 s. Returns a time within `tolS` of the root.
- */
-export function bracketedRoot(fn: (t: number) => number, a: number, b: number, fa: number, fb: number, tolS: number, what: string): number {
-  if (fa === 0) return a;
-  if (fb === 0) return b;
-  if (Math.sign(fa) === Math.sign(fb)) throw new InternalError(`root of ${what} is not bracketed on [${a}, ${b}] (${fa}, ${fb})`, what);
-  let lo = 0;
-  let hi = b - a;
-  let flo = fa;
-  let fhi = fb;
-  // Illinois weights: halve the value kept at an end that did not move.
-  let side = 0;
-  let widthTwoAgo = hi - lo;
-  let widthOneAgo = hi - lo;
-  for (let k = 0; k < ROOT_MAX_ITERATIONS; k++) {
-    const width = hi - lo;
-    if (width <= tolS) return a + 0.5 * (lo + hi);
-    let x: number;
-    if (k >= 2 && width > 0.5 * widthTwoAgo) {
-      x = 0.5 * (lo + hi);
-      side = 0;
-    } else {
-      x = lo + (flo * (lo - hi)) / (fhi - flo);
-      // Stay strictly inside, at least a quarter tolerance from either end.
-      const margin = 0.25 * tolS;
-      if (!(x > lo + margin)) x = lo + margin;
-      if (!(x < hi - margin)) x = hi - margin;
-    }
-    widthTwoAgo = widthOneAgo;
-    widthOneAgo = width;
-    const fx = fn(a + x);
-    if (fx === 0) return a + x;
-    if (Math.sign(fx) === Math.sign(flo)) {
-      lo = x;
-      flo = fx;
-      if (side === -1) fhi *= 0.5;
-      side = -1;
-    } else {
-      hi = x;
-      fhi = fx;
-      if (side === 1) flo *= 0.5;
-      side = 1;
-    }
-  }
-  throw new InternalError(`root finder for ${what} hit its cap of ${ROOT_MAX_ITERATIONS} iterations on [${a}, ${b}]`, what);
-}
 
 /**
  * Coarse grid step [s] for a trajectory: clamp(min(minPassS / 2, τp / 4), 10, 600), with
@@ -167,179 +117,6 @@ export function passGridStepS(positionM: readonly number[], velocityMPerS: reado
   return Math.min(MAX_GRID_STEP_S, Math.max(MIN_GRID_STEP_S, wanted));
 }
 
-/** Shared evaluation context: one trajectory, one Earth rotation, one counter. */
-class Evaluator {
-  statesEvaluated = 0;
-  constructor(
-    readonly traj: Trajectory,
-    readonly gmstRadAt: GmstRadAt,
-  ) {}
-  /** Earth-fixed position [m] and velocity [m/s] at t, into out[0..5]. */
-  ecefAt(t: number, out: Float64Array): void {
-    stateInto(this.traj, t, out);
-    this.statesEvaluated++;
-    // temeToEcef (src/orbit/frames.ts) in place: r_e = R·r, v_e = R·v − ω × r_e.
-    const g = this.gmstRadAt(t);
-    const c = Math.cos(g);
-    const s = Math.sin(g);
-    const x = c * out[0] + s * out[1];
-    const y = -s * out[0] + c * out[1];
-    const vx = c * out[3] + s * out[4];
-    const vy = -s * out[3] + c * out[4];
-    const w = WGS84_OMEGA_RAD_PER_S;
-    out[0] = x;
-    out[1] = y;
-    out[3] = vx + w * y;
-    out[4] = vy - w * x;
-  }
-  /** Earth-fixed position [m] only at t, into out[0..2] (one SGP4 call where `ecefAt` may take several). */
-  ecefPositionAt(t: number, out: Float64Array): void {
-    positionInto(this.traj, t, out);
-    this.statesEvaluated++;
-    const g = this.gmstRadAt(t);
-    const c = Math.cos(g);
-    const s = Math.sin(g);
-    const x = out[0];
-    const y = out[1];
-    out[0] = c * x + s * y;
-    out[1] = -s * x + c * y;
-  }
-}
-
-/** Streaming scan of one station along the shared grid. */
-class StationScan {
-  readonly passes: Pass[] = [];
-  private readonly frame: StationFrame;
-  /** sin(mask): the scan works on sin(elevation) − sin(mask), which has the sign and roots of elevation − mask. */
-  private readonly sinMask: number;
-  private readonly buf = new Float64Array(6);
-  private started = false;
-  private prevT = 0;
-  private prevF = 0;
-  private prevG = 0;
-  private inPass = false;
-  private aosT = 0;
-  private aosTruncated = false;
-  private bestF = -Infinity;
-  private bestT = 0;
-
-  constructor(
-    readonly station: Station,
-    private readonly ev: Evaluator,
-    private readonly satelliteId: string,
-  ) {
-    this.frame = stationFrame(station);
-    this.sinMask = Math.sin(station.maskDeg * DEG);
-  }
-
-  /** sin(elevation) − sin(mask) [1] from an earth-fixed position. */
-  fOf(x: number, y: number, z: number): number {
-    return sinElevation(this.frame, x, y, z) - this.sinMask;
-  }
-  gOf(x: number, y: number, z: number, vx: number, vy: number, vz: number): number {
-    return elevationRateSignM4PerS(this.frame, x, y, z, vx, vy, vz);
-  }
-
-  private fAt = (t: number): number => {
-    this.ev.ecefPositionAt(t, this.buf);
-    return this.fOf(this.buf[0], this.buf[1], this.buf[2]);
-  };
-  private gAt = (t: number): number => {
-    this.ev.ecefAt(t, this.buf);
-    const b = this.buf;
-    return this.gOf(b[0], b[1], b[2], b[3], b[4], b[5]);
-  };
-
-  /** Feed the next grid sample: time, sin(elevation) − sin(mask), elevation-rate sign quantity. */
-  push(t: number, f: number, g: number): void {
-    if (!this.started) {
-      this.started = true;
-      if (f > 0) this.open(t, true);
-      this.visit(t, f);
-      this.prevT = t;
-      this.prevF = f;
-      this.prevG = g;
-      return;
-    }
-    const t0 = this.prevT;
-    const f0 = this.prevF;
-    const g0 = this.prevG;
-    // Interior extremum: locate it so that each sub-interval is monotonic.
-    let hasKnot = false;
-    let tk = 0;
-    let fk = 0;
-    if ((g0 > 0 && g <= 0) || (g0 < 0 && g >= 0 && f0 > 0 && f > 0)) {
-      tk = bracketedRoot(this.gAt, t0, t, g0, g, TIME_TOLERANCE_S, `elevation rate for station ${this.station.id}`);
-      fk = this.fAt(tk);
-      hasKnot = true;
-    }
-    if (hasKnot) {
-      this.segment(t0, f0, tk, fk);
-      this.visit(tk, fk);
-      this.segment(tk, fk, t, f);
-    } else {
-      this.segment(t0, f0, t, f);
-    }
-    this.visit(t, f);
-    this.prevT = t;
-    this.prevF = f;
-    this.prevG = g;
-  }
-
-  /** Close a pass still open at the window end. */
-  finish(): void {
-    if (this.started && this.inPass) this.close(this.prevT, true);
-  }
-
-  /** Monotonic piece [ta, tb]: at most one mask crossing. */
-  private segment(ta: number, fa: number, tb: number, fb: number): void {
-    if (fa <= 0 && fb > 0) {
-      const t = bracketedRoot(this.fAt, ta, tb, fa, fb, TIME_TOLERANCE_S, `AOS for station ${this.station.id}`);
-      this.open(t, false);
-    } else if (fa > 0 && fb <= 0) {
-      const t = bracketedRoot(this.fAt, ta, tb, fa, fb, TIME_TOLERANCE_S, `LOS for station ${this.station.id}`);
-      this.close(t, false);
-    }
-  }
-
-  private visit(t: number, f: number): void {
-    if (this.inPass && f > this.bestF) {
-      this.bestF = f;
-      this.bestT = t;
-    }
-  }
-
-  private open(t: number, truncated: boolean): void {
-    this.inPass = true;
-    this.aosT = t;
-    this.aosTruncated = truncated;
-    this.bestF = -Infinity;
-    this.bestT = t;
-  }
-
-  private close(t: number, truncated: boolean): void {
-    this.inPass = false;
-    const durationS = t - this.aosT;
-    const anyTruncated = truncated || this.aosTruncated;
-    if (!anyTruncated && durationS < this.station.minPassS) return;
-    // A pass that only touches the mask has no knot above it: culminate at its AOS.
-    const tca = Number.isFinite(this.bestF) ? this.bestT : this.aosT;
-    const maxElevationDeg = Number.isFinite(this.bestF) ? Math.asin(Math.min(1, this.bestF + this.sinMask)) / DEG : this.station.maskDeg;
-    this.passes.push({
-      satelliteId: this.satelliteId,
-      stationId: this.station.id,
-      aosTtJ2000S: this.aosT,
-      tcaTtJ2000S: tca,
-      losTtJ2000S: t,
-      maxElevationDeg,
-      durationS,
-      truncated: anyTruncated,
-      aosTruncated: this.aosTruncated,
-      losTruncated: truncated,
-    });
-  }
-}
-
 /**
  * Passes of one trajectory over several stations in [fromTtJ2000S, toTtJ2000S], sharing one coarse
  * sampling of the trajectory. The grid step is the smallest any station needs.
@@ -362,7 +139,7 @@ export function findPassesMany(
   }
   checkSpan(traj, fromTtJ2000S);
   checkSpan(traj, toTtJ2000S);
-  const ev = new Evaluator(traj, gmstRadAt);
+  const ev = new EcefEvaluator(traj, gmstRadAt);
   if (stations.length === 0 || toTtJ2000S === fromTtJ2000S) return { passes: [], statesEvaluated: 0, gridStepS: opts.gridStepS ?? 0 };
 
   let stepS = opts.gridStepS;
@@ -412,7 +189,15 @@ export function findPassesMany(
       const vx = c * v[3 * i] + s * v[3 * i + 1] + w * y;
       const vy = -s * v[3 * i] + c * v[3 * i + 1] - w * x;
       const vz = v[3 * i + 2];
-      for (const scan of scans) scan.push(ts[i], scan.fOf(x, y, z), scan.gOf(x, y, z, vx, vy, vz));
+      ev.advance();
+      const e = ev.sample;
+      e[0] = x;
+      e[1] = y;
+      e[2] = z;
+      e[3] = vx;
+      e[4] = vy;
+      e[5] = vz;
+      for (const scan of scans) scan.feed(ts[i], x, y, z, vx, vy, vz);
     }
   }
   for (const scan of scans) scan.finish();

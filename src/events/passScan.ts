@@ -1,0 +1,390 @@
+/**
+ * One station's streaming scan along the pass-search grid of ./passes.ts (method there), and the
+ * refinement of its crossings and culminations.
+ *
+ * The scan works on f = sin(elevation) − sin(mask) [1], which has the signs and roots of
+ * elevation − mask (sin increases on [−90°, 90°]), and on g = (û·v)|ρ|² − (û·ρ)(ρ·v) [m⁴/s], the
+ * elevation-rate numerator: df/dt = g/|ρ|³ exactly, so every evaluated state gives f and its rate.
+ *
+ * Refinement: a Newton iteration from the cubic Hermite guess of the bin (values and rates at both
+ * ends), kept inside the sign bracket (a step leaving it bisects instead), capped, and finished by
+ * the Illinois root finder on what is left of the bracket if the cap is hit. Crossings use the
+ * exact rate g/|ρ|³; culminations (roots of g) use dg/dt with a model acceleration (point-mass
+ * gravity and the rotating-frame terms, J2 and the rest left out: ~1e-3 of it), so each step gains
+ * about three digits. The iteration stops when the Newton correction is ≤ 1 ms and the rate used
+ * agrees within 10 % with the secant slope from the previous evaluation; the error of the corrected
+ * time is then second order in the correction (≪ 1 µs for orbital motion), or at worst 10 % of it
+ * (≤ 0.1 ms) — inside the 1 ms the search promises.
+ *
+ * Maxima below the mask: a bin whose rate turns from + to − with both ends below the mask holds a
+ * pass only if the elevation can climb to the mask in between. With the earth-fixed speed bounded
+ * by V over the bin, the direction to the satellite turns at most V/ρ_min, so
+ * sin(el) ≤ (sin el₀ + sin el₁ + V·h/ρ_min)/2 on it; when that is below sin(mask) the maximum is
+ * not located. V comes from the end speeds and an acceleration bound of twice the point-mass
+ * gravity at the lowest radius the bin allows plus the rotating-frame terms (a free-falling orbit:
+ * J2, the Moon, the Sun, drag and radiation pressure are well inside the factor two).
+ */
+import { WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../constants.ts';
+import { stateInto, type Trajectory } from '../orbit/trajectory.ts';
+import { stationFrame } from './lookAngles.ts';
+import { bracketedRoot, hermiteExtremumGuessS, hermiteRootGuessS } from './passRoots.ts';
+import type { GmstRadAt, Pass } from './passes.ts';
+import type { Station } from './station.ts';
+
+const DEG = Math.PI / 180;
+/** Crossing and culmination times are located to this [s] (contract: AOS/LOS ≤ 0.01 s, TCA ≤ 0.1 s). */
+export const TIME_TOLERANCE_S = 1e-3;
+/** Cap on Newton steps per root before the Illinois finder takes the remaining bracket. */
+const NEWTON_MAX_ITERATIONS = 12;
+/** The rate used for a step must agree with the secant slope within this fraction to stop on it. */
+const SLOPE_AGREEMENT = 0.1;
+/** Radius [m] below which the reach bound is not trusted: inside the Earth (polar radius 6 356 752 m). */
+const REACH_FLOOR_RADIUS_M = 6.3e6;
+/** Factor on point-mass gravity in the acceleration bound (free fall: perturbations ≪ 1). */
+const REACH_GRAVITY_MARGIN = 2;
+
+/** Earth-fixed states of one trajectory, counted. */
+export class EcefEvaluator {
+  statesEvaluated = 0;
+  /** Last evaluated earth-fixed state: position [m] then velocity [m/s]. */
+  readonly state = new Float64Array(6);
+  /** Earth-fixed states at the previous and the current grid sample (set by the grid loop). */
+  prevSample = new Float64Array(6);
+  sample = new Float64Array(6);
+  constructor(
+    readonly traj: Trajectory,
+    readonly gmstRadAt: GmstRadAt,
+  ) {}
+  /** Earth-fixed state at t into {@link state} (temeToEcef of src/orbit/frames.ts, in place). */
+  at(t: number): Float64Array {
+    const out = this.state;
+    stateInto(this.traj, t, out);
+    this.statesEvaluated++;
+    const g = this.gmstRadAt(t);
+    const c = Math.cos(g);
+    const s = Math.sin(g);
+    const x = c * out[0] + s * out[1];
+    const y = -s * out[0] + c * out[1];
+    const vx = c * out[3] + s * out[4];
+    const vy = -s * out[3] + c * out[4];
+    const w = WGS84_OMEGA_RAD_PER_S;
+    out[0] = x;
+    out[1] = y;
+    out[3] = vx + w * y;
+    out[4] = vy - w * x;
+    return out;
+  }
+  /** The grid loop moves on: the current sample becomes the previous one. */
+  advance(): void {
+    const t = this.prevSample;
+    this.prevSample = this.sample;
+    this.sample = t;
+  }
+}
+
+/** Streaming scan of one station along the shared grid. */
+export class StationScan {
+  readonly passes: Pass[] = [];
+  private readonly px: number;
+  private readonly py: number;
+  private readonly pz: number;
+  private readonly ux: number;
+  private readonly uy: number;
+  private readonly uz: number;
+  private readonly sinMask: number;
+  private started = false;
+  private prevT = 0;
+  private prevF = 0;
+  private prevG = 0;
+  private prevRho = 0;
+  private inPass = false;
+  private aosT = 0;
+  private aosTruncated = false;
+  private bestF = -Infinity;
+  private bestT = 0;
+  /** Elevation [rad] of the best knot (atan2, full precision at the zenith), NaN when the best is a grid sample. */
+  private bestElRad = Number.NaN;
+  // Values at the last evaluated state: f, df/dt [1/s], g, dg/dt (model).
+  private ef = 0;
+  private ed = 0;
+  private eg = 0;
+  private egDot = 0;
+  // Earth-fixed acceleration (model) at the last evaluated state [m/s²].
+  private eax = 0;
+  private eay = 0;
+  private eaz = 0;
+  /** Offset [s] from the last evaluated state to the root the last refinement returned, NaN when unknown. */
+  private rootOffsetS = Number.NaN;
+  // f and elevation [rad] at a knot, from {@link knotValues}.
+  private knotF = 0;
+  private knotElRad = 0;
+
+  constructor(
+    readonly station: Station,
+    private readonly ev: EcefEvaluator,
+    private readonly satelliteId: string,
+  ) {
+    const fr = stationFrame(station);
+    [this.px, this.py, this.pz] = fr.positionM;
+    [this.ux, this.uy, this.uz] = fr.upUnit;
+    this.sinMask = Math.sin(station.maskDeg * DEG);
+  }
+
+  /** Feed the next grid sample: its time and earth-fixed state (m, m/s). */
+  feed(t: number, x: number, y: number, z: number, vx: number, vy: number, vz: number): void {
+    const dx = x - this.px;
+    const dy = y - this.py;
+    const dz = z - this.pz;
+    const u = dx * this.ux + dy * this.uy + dz * this.uz;
+    const rho2 = dx * dx + dy * dy + dz * dz;
+    const rho = Math.sqrt(rho2);
+    const f = u / rho - this.sinMask;
+    const g = (vx * this.ux + vy * this.uy + vz * this.uz) * rho2 - u * (dx * vx + dy * vy + dz * vz);
+    if (this.started) this.step(t, f, g, rho);
+    else {
+      this.started = true;
+      if (f > 0) this.open(t, true);
+      this.visit(t, f, Number.NaN);
+    }
+    this.prevT = t;
+    this.prevF = f;
+    this.prevG = g;
+    this.prevRho = rho;
+  }
+
+  /** Close a pass still open at the window end. */
+  finish(): void {
+    if (this.started && this.inPass) this.close(this.prevT, true);
+  }
+
+  private step(t: number, f: number, g: number, rho: number): void {
+    const t0 = this.prevT;
+    const f0 = this.prevF;
+    const g0 = this.prevG;
+    const rho0 = this.prevRho;
+    const isMax = g0 > 0 && g <= 0;
+    // Interior extremum: locate it so that each sub-interval is monotonic.
+    if (isMax || (g0 < 0 && g >= 0 && f0 > 0 && f > 0)) {
+      if (isMax && f0 <= 0 && f <= 0 && !this.mayReachMask(t - t0, f0, f, rho0, rho)) {
+        this.visit(t, f, Number.NaN);
+        return;
+      }
+      const d0 = g0 / (rho0 * rho0 * rho0);
+      const d1 = g / (rho * rho * rho);
+      let tk = t;
+      let fk = f;
+      let elk = Number.NaN;
+      if (g !== 0) {
+        const guess = hermiteExtremumGuessS(f0, d0, f, d1, t - t0);
+        tk = this.refine(true, t0, g0, t, g, guess, `elevation rate for station ${this.station.id}`);
+        if (Number.isNaN(this.rootOffsetS)) {
+          this.evalAt(tk);
+          this.rootOffsetS = 0;
+        }
+        this.knotValues(this.rootOffsetS);
+        fk = this.knotF;
+        elk = this.knotElRad;
+      }
+      this.segment(t0, f0, d0, tk, fk, 0);
+      this.visit(tk, fk, elk);
+      this.segment(tk, fk, 0, t, f, d1);
+    } else if ((f0 <= 0 && f > 0) || (f0 > 0 && f <= 0)) {
+      this.segment(t0, f0, g0 / (rho0 * rho0 * rho0), t, f, g / (rho * rho * rho));
+    }
+    this.visit(t, f, Number.NaN);
+  }
+
+  /**
+   * Whether sin(elevation) may reach sin(mask) inside the bin of width h [s] whose ends are below
+   * it (f0, f1 ≤ 0, ranges rho0M, rho1M), from the speed bound of the module comment.
+   */
+  private mayReachMask(h: number, f0: number, f1: number, rho0M: number, rho1M: number): boolean {
+    const a = this.ev.prevSample;
+    const b = this.ev.sample;
+    const r0 = Math.hypot(a[0], a[1], a[2]);
+    const r1 = Math.hypot(b[0], b[1], b[2]);
+    const vMax = Math.max(Math.hypot(a[3], a[4], a[5]), Math.hypot(b[3], b[4], b[5]));
+    const rMax = Math.max(r0, r1);
+    const w = WGS84_OMEGA_RAD_PER_S;
+    // A priori speed bound with gravity at the floor radius: |a| ≤ g_floor + 2ωV + ω²(r_max + V·h).
+    const gFloor = (REACH_GRAVITY_MARGIN * WGS84_GM_M3_PER_S2) / (REACH_FLOOR_RADIUS_M * REACH_FLOOR_RADIUS_M);
+    const denom = 1 - w * h - 0.5 * w * w * h * h;
+    if (!(denom > 0.5)) return true;
+    const vCrude = (vMax + 0.5 * h * (gFloor + w * w * rMax)) / denom;
+    const rLow = Math.min(r0, r1) - 0.5 * vCrude * h;
+    if (!(rLow > REACH_FLOOR_RADIUS_M)) return true;
+    // The same with gravity at the lowest radius the bin allows.
+    const accel = (REACH_GRAVITY_MARGIN * WGS84_GM_M3_PER_S2) / (rLow * rLow) + 2 * w * vCrude + w * w * (rMax + 0.5 * vCrude * h);
+    const v = vMax + 0.5 * accel * h;
+    const rhoLow = 0.5 * (rho0M + rho1M - v * h);
+    if (!(rhoLow > 0)) return true;
+    return f0 + f1 + (v * h) / rhoLow > 0;
+  }
+
+  /** Monotonic piece [ta, tb] with values and rates at its ends: at most one mask crossing. */
+  private segment(ta: number, fa: number, da: number, tb: number, fb: number, db: number): void {
+    if (fa <= 0 && fb > 0) {
+      this.open(this.crossing(ta, fa, da, tb, fb, db, 'AOS'), false);
+    } else if (fa > 0 && fb <= 0) {
+      this.close(this.crossing(ta, fa, da, tb, fb, db, 'LOS'), false);
+    }
+  }
+
+  private crossing(ta: number, fa: number, da: number, tb: number, fb: number, db: number, what: string): number {
+    if (fa === 0) return ta;
+    if (fb === 0) return tb;
+    return this.refine(false, ta, fa, tb, fb, hermiteRootGuessS(fa, da, fb, db, tb - ta), `${what} for station ${this.station.id}`);
+  }
+
+  /** f, df/dt, g and dg/dt (model) at t into ef, ed, eg, egDot. */
+  private evalAt(t: number): void {
+    const e = this.ev.at(t);
+    const x = e[0];
+    const y = e[1];
+    const z = e[2];
+    const vx = e[3];
+    const vy = e[4];
+    const vz = e[5];
+    const dx = x - this.px;
+    const dy = y - this.py;
+    const dz = z - this.pz;
+    const u = dx * this.ux + dy * this.uy + dz * this.uz;
+    const rho2 = dx * dx + dy * dy + dz * dz;
+    const rho = Math.sqrt(rho2);
+    const uv = vx * this.ux + vy * this.uy + vz * this.uz;
+    const rv = dx * vx + dy * vy + dz * vz;
+    const g = uv * rho2 - u * rv;
+    this.ef = u / rho - this.sinMask;
+    this.ed = g / (rho2 * rho);
+    this.eg = g;
+    // Earth-fixed acceleration: point-mass gravity, Coriolis −2ω×v and centrifugal −ω×(ω×r).
+    const w = WGS84_OMEGA_RAD_PER_S;
+    const r2 = x * x + y * y + z * z;
+    const k = -WGS84_GM_M3_PER_S2 / (r2 * Math.sqrt(r2));
+    const ax = k * x + 2 * w * vy + w * w * x;
+    const ay = k * y - 2 * w * vx + w * w * y;
+    const az = k * z;
+    this.eax = ax;
+    this.eay = ay;
+    this.eaz = az;
+    const ua = ax * this.ux + ay * this.uy + az * this.uz;
+    const ra = dx * ax + dy * ay + dz * az;
+    this.egDot = ua * rho2 + uv * rv - u * (vx * vx + vy * vy + vz * vz + ra);
+  }
+
+  /**
+   * f and the elevation [rad] (atan2 of the up and horizontal components, full precision at the
+   * zenith) at `offsetS` from the last evaluated state, by a second-order Taylor step of its
+   * position (offsets ≤ 1 ms: the dropped third-order term is below a micrometre), into knotF and knotElRad.
+   */
+  private knotValues(offsetS: number): void {
+    const e = this.ev.state;
+    const h2 = 0.5 * offsetS * offsetS;
+    const dx = e[0] + e[3] * offsetS + this.eax * h2 - this.px;
+    const dy = e[1] + e[4] * offsetS + this.eay * h2 - this.py;
+    const dz = e[2] + e[5] * offsetS + this.eaz * h2 - this.pz;
+    const u = dx * this.ux + dy * this.uy + dz * this.uz;
+    const rho2 = dx * dx + dy * dy + dz * dz;
+    this.knotF = u / Math.sqrt(rho2) - this.sinMask;
+    this.knotElRad = Math.atan2(u, Math.sqrt(Math.max(0, rho2 - u * u)));
+  }
+
+  private fAt = (t: number): number => {
+    this.evalAt(t);
+    return this.ef;
+  };
+  private gAt = (t: number): number => {
+    this.evalAt(t);
+    return this.eg;
+  };
+
+  /**
+   * Root of g (`onRate`) or f on [ta, tb], whose end values va, vb have opposite signs, from the
+   * first guess `guessS` (offset from ta): the safeguarded Newton iteration of the module comment.
+   * Sets {@link rootOffsetS}.
+   */
+  private refine(onRate: boolean, ta: number, va: number, tb: number, vb: number, guessS: number, what: string): number {
+    let lo = 0;
+    let hi = tb - ta;
+    let vlo = va;
+    let vhi = vb;
+    const margin = 0.25 * TIME_TOLERANCE_S;
+    let x = Math.min(hi - margin, Math.max(lo + margin, guessS));
+    // The previous point of the secant check: the bracket end nearer the guess.
+    let xPrev = x - lo <= hi - x ? lo : hi;
+    let vPrev = xPrev === lo ? vlo : vhi;
+    for (let k = 0; k < NEWTON_MAX_ITERATIONS; k++) {
+      this.evalAt(ta + x);
+      const v = onRate ? this.eg : this.ef;
+      const rate = onRate ? this.egDot : this.ed;
+      if (v === 0) {
+        this.rootOffsetS = 0;
+        return ta + x;
+      }
+      if (v < 0 === vlo < 0) {
+        lo = x;
+        vlo = v;
+      } else {
+        hi = x;
+        vhi = v;
+      }
+      const stepS = -v / rate;
+      const secant = (v - vPrev) / (x - xPrev);
+      if (Math.abs(stepS) <= TIME_TOLERANCE_S && Math.abs(secant - rate) <= SLOPE_AGREEMENT * Math.abs(rate)) {
+        const xr = Math.min(hi, Math.max(lo, x + stepS));
+        this.rootOffsetS = xr - x;
+        return ta + xr;
+      }
+      if (hi - lo <= TIME_TOLERANCE_S) {
+        this.rootOffsetS = Number.NaN;
+        return ta + 0.5 * (lo + hi);
+      }
+      xPrev = x;
+      vPrev = v;
+      const next = x + stepS;
+      x = next > lo && next < hi ? next : 0.5 * (lo + hi);
+    }
+    this.rootOffsetS = Number.NaN;
+    return bracketedRoot(onRate ? this.gAt : this.fAt, ta + lo, ta + hi, vlo, vhi, TIME_TOLERANCE_S, what);
+  }
+
+  /** A knot or grid sample inside the current pass may be its culmination (elRad: NaN for a grid sample). */
+  private visit(t: number, f: number, elRad: number): void {
+    if (this.inPass && f > this.bestF) {
+      this.bestF = f;
+      this.bestT = t;
+      this.bestElRad = elRad;
+    }
+  }
+
+  private open(t: number, truncated: boolean): void {
+    this.inPass = true;
+    this.aosT = t;
+    this.aosTruncated = truncated;
+    this.bestF = -Infinity;
+    this.bestT = t;
+  }
+
+  private close(t: number, truncated: boolean): void {
+    this.inPass = false;
+    const durationS = t - this.aosT;
+    const anyTruncated = truncated || this.aosTruncated;
+    if (!anyTruncated && durationS < this.station.minPassS) return;
+    // A pass that only touches the mask has no knot above it: culminate at its AOS.
+    const tca = Number.isFinite(this.bestF) ? this.bestT : this.aosT;
+    const bestElRad = Number.isNaN(this.bestElRad) ? Math.asin(Math.min(1, this.bestF + this.sinMask)) : this.bestElRad;
+    const maxElevationDeg = Number.isFinite(this.bestF) ? bestElRad / DEG : this.station.maskDeg;
+    this.passes.push({
+      satelliteId: this.satelliteId,
+      stationId: this.station.id,
+      aosTtJ2000S: this.aosT,
+      tcaTtJ2000S: tca,
+      losTtJ2000S: t,
+      maxElevationDeg,
+      durationS,
+      truncated: anyTruncated,
+      aosTruncated: this.aosTruncated,
+      losTruncated: truncated,
+    });
+  }
+}
