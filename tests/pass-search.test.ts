@@ -8,15 +8,18 @@
  * - An equatorial orbit built to cross a station's zenith at a chosen instant: TCA at 90° (derived, exact).
  * - Geostationary orbit: no pass for a station that cannot see it, one whole-window truncated pass for
  *   one that can (derived, exact).
+ * - The Earth's rotation along the grid against the exact sidereal angle, across a leap second (derived).
  */
 import { describe, expect, it } from 'vitest';
 import { WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../src/constants.ts';
 import { elevationRad, stationFrame } from '../src/events/lookAngles.ts';
 import { findPasses, findPassesMany, passGridStepS, type Pass } from '../src/events/passes.ts';
+import { earthRotationAlongGrid } from '../src/events/siderealGrid.ts';
 import { geodeticToEcefM, type Station } from '../src/events/station.ts';
 import { defaultTimeSystem } from '../src/io/tables.ts';
 import { gmstRad, temeToEcefPosition } from '../src/orbit/frames.ts';
 import { elementsFromDegKm, KeplerianTrajectory } from '../src/orbit/keplerian.ts';
+import { gmstRadAtTt } from '../src/orbit/sp3.ts';
 import { sampleByStateAt, type Trajectory } from '../src/orbit/trajectory.ts';
 import { vec3, type StateM } from '../src/orbit/vec.ts';
 
@@ -302,4 +305,31 @@ describe('window edges', () => {
     expect(q).toBeLessThan(235);
     expect(passGridStepS(geo.positionM, geo.velocityMPerS, 10_000)).toBe(600);
   });
+});
+
+describe('Earth rotation along the grid (derived)', () => {
+  // The leap second at the end of 2016-12-31 (IERS Bulletin C 52, confirmed): UTC stops for one
+  // second, so GMST of UTC jumps by ω·1 s ≈ 7.3e-5 rad. The grid's anchored recurrence must notice
+  // and match the exact angle at every sample; elsewhere it must agree to 1e-9 rad (its bound).
+  const exact = (t: number): number => gmstRadAtTt(ts, t);
+  const cases = [
+    { label: 'a quiet week in 2027', from: ts.parse('2027-03-01T00:00:00Z', 'test').ttJ2000S },
+    { label: 'across the 2016-12-31 leap second', from: ts.parse('2016-12-28T00:00:17Z', 'test').ttJ2000S },
+  ];
+  for (const c of cases) {
+    it(`${c.label}: within 1e-9 rad of the exact sidereal angle at every sample`, () => {
+      const n = 4096;
+      const stepS = 150;
+      const cos = new Float64Array(n);
+      const sin = new Float64Array(n);
+      earthRotationAlongGrid(exact, c.from, stepS, n, cos, sin);
+      let worst = 0;
+      for (let k = 0; k < n; k++) {
+        const g = exact(c.from + k * stepS);
+        worst = Math.max(worst, Math.abs(Math.atan2(sin[k] * Math.cos(g) - cos[k] * Math.sin(g), cos[k] * Math.cos(g) + sin[k] * Math.sin(g))));
+      }
+      console.log(`${c.label}: worst angle error ${worst.toExponential(2)} rad (wanted ≤ 1e-9)`);
+      expect(worst).toBeLessThanOrEqual(1e-9);
+    });
+  }
 });
