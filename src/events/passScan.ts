@@ -23,6 +23,9 @@
  * not located. V comes from the end speeds and an acceleration bound of twice the point-mass
  * gravity at the lowest radius the bin allows plus the rotating-frame terms (a free-falling orbit:
  * J2, the Moon, the Sun, drag and radiation pressure are well inside the factor two).
+ *
+ * The same bound over a chunk of the grid lets a station below the mask skip the samples before the
+ * first instant the satellite could reach its mask (StationScan.skipAhead).
  */
 import { WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../constants.ts';
 import { stateInto, type Trajectory } from '../orbit/trajectory.ts';
@@ -43,6 +46,27 @@ const REACH_FLOOR_RADIUS_M = 6.3e6;
 /** Factor on point-mass gravity in the acceleration bound (free fall: perturbations ≪ 1). */
 const REACH_GRAVITY_MARGIN = 2;
 
+/**
+ * Bound [m/s] on the earth-fixed speed at any instant within `halfGapS` of a grid sample, from the
+ * samples' largest speed and their radii, for a free-falling satellite (module comment):
+ * |a| ≤ 2·GM/r² + 2ωV + ω²r. Infinity when the bound cannot be trusted (the span could dip below
+ * {@link REACH_FLOOR_RADIUS_M}, or the gap is too long for the rotating-frame terms).
+ */
+export function earthFixedSpeedBoundMPerS(vMaxMPerS: number, rMinM: number, rMaxM: number, halfGapS: number): number {
+  const w = WGS84_OMEGA_RAD_PER_S;
+  const d = halfGapS;
+  // First with gravity at the floor radius: V ≤ vMax + d·(g_floor + 2ωV + ω²(r_max + V·d)).
+  const gFloor = (REACH_GRAVITY_MARGIN * WGS84_GM_M3_PER_S2) / (REACH_FLOOR_RADIUS_M * REACH_FLOOR_RADIUS_M);
+  const denom = 1 - 2 * w * d - w * w * d * d;
+  if (!(denom > 0.5)) return Infinity;
+  const vCrude = (vMaxMPerS + d * (gFloor + w * w * rMaxM)) / denom;
+  const rLow = rMinM - vCrude * d;
+  if (!(rLow > REACH_FLOOR_RADIUS_M)) return Infinity;
+  // Then with gravity at the lowest radius the span allows.
+  const accel = (REACH_GRAVITY_MARGIN * WGS84_GM_M3_PER_S2) / (rLow * rLow) + 2 * w * vCrude + w * w * (rMaxM + vCrude * d);
+  return vMaxMPerS + accel * d;
+}
+
 /** Earth-fixed states of one trajectory, counted. */
 export class EcefEvaluator {
   statesEvaluated = 0;
@@ -51,6 +75,11 @@ export class EcefEvaluator {
   /** Earth-fixed states at the previous and the current grid sample (set by the grid loop). */
   prevSample = new Float64Array(6);
   sample = new Float64Array(6);
+  /** Grid step [s] (set by the grid loop). */
+  gridStepS = 0;
+  /** Bound [m/s] on the earth-fixed speed over the current chunk of the grid, and the chunk's last sample time. */
+  chunkSpeedBoundMPerS = Infinity;
+  chunkEndTtJ2000S = -Infinity;
   constructor(
     readonly traj: Trajectory,
     readonly gmstRadAt: GmstRadAt,
@@ -93,6 +122,10 @@ export class StationScan {
   private readonly uz: number;
   private readonly sinMask: number;
   private started = false;
+  /** Samples whose next sample is before this time are skipped: the mask cannot be reached before it. */
+  private skipUntilT = -Infinity;
+  /** The next sample fed follows skipped ones. */
+  private resume = false;
   private prevT = 0;
   private prevF = 0;
   private prevG = 0;
@@ -132,6 +165,8 @@ export class StationScan {
 
   /** Feed the next grid sample: its time and earth-fixed state (m, m/s). */
   feed(t: number, x: number, y: number, z: number, vx: number, vy: number, vz: number): void {
+    // Skipped while the next sample too is before the instant the mask can first be reached.
+    if (t + this.ev.gridStepS < this.skipUntilT) return;
     const dx = x - this.px;
     const dy = y - this.py;
     const dz = z - this.pz;
@@ -140,16 +175,42 @@ export class StationScan {
     const rho = Math.sqrt(rho2);
     const f = u / rho - this.sinMask;
     const g = (vx * this.ux + vy * this.uy + vz * this.uz) * rho2 - u * (dx * vx + dy * vy + dz * vz);
-    if (this.started) this.step(t, f, g, rho);
-    else {
+    const f0 = this.prevF;
+    const g0 = this.prevG;
+    if (this.resume) {
+      // The samples skipped were all below the mask; this one is too (f ≤ 0) unless the bound failed,
+      // in which case the bin from the last sample seen holds the crossing.
+      this.resume = false;
+      if (f > 0) this.step(t, f, g, rho);
+    } else if (!this.started) {
       this.started = true;
       if (f > 0) this.open(t, true);
       this.visit(t, f, Number.NaN);
+    } else if ((g0 > 0 && g <= 0) || (g0 < 0 && g >= 0 && f0 > 0 && f > 0) || f0 <= 0 !== f <= 0) {
+      this.step(t, f, g, rho);
+    } else if (this.inPass && f > this.bestF) {
+      this.bestF = f;
+      this.bestT = t;
+      this.bestElRad = Number.NaN;
     }
     this.prevT = t;
     this.prevF = f;
     this.prevG = g;
     this.prevRho = rho;
+    if (!this.inPass && f < 0) this.skipAhead(t, -f, rho);
+  }
+
+  /**
+   * Below the mask by sin(mask) − sin(el) = Δ at range ρ: with the earth-fixed speed ≤ V, the range
+   * stays ≥ ρ − Vτ and sin(el) climbs at most ∫ V/(ρ − Vτ) dτ = ln(ρ/(ρ − Vτ)), so the mask is not
+   * reached before τ = ρ(1 − e^(−Δ))/V ≥ ρΔ/((1 + Δ)V). Skip the samples before that (within the chunk,
+   * whose speed bound this is).
+   */
+  private skipAhead(t: number, belowS: number, rhoM: number): void {
+    const tauS = (rhoM * belowS) / ((1 + belowS) * this.ev.chunkSpeedBoundMPerS);
+    if (!(tauS > 2 * this.ev.gridStepS)) return;
+    this.skipUntilT = Math.min(t + tauS, this.ev.chunkEndTtJ2000S);
+    this.resume = true;
   }
 
   /** Close a pass still open at the window end. */
@@ -204,18 +265,7 @@ export class StationScan {
     const r0 = Math.hypot(a[0], a[1], a[2]);
     const r1 = Math.hypot(b[0], b[1], b[2]);
     const vMax = Math.max(Math.hypot(a[3], a[4], a[5]), Math.hypot(b[3], b[4], b[5]));
-    const rMax = Math.max(r0, r1);
-    const w = WGS84_OMEGA_RAD_PER_S;
-    // A priori speed bound with gravity at the floor radius: |a| ≤ g_floor + 2ωV + ω²(r_max + V·h).
-    const gFloor = (REACH_GRAVITY_MARGIN * WGS84_GM_M3_PER_S2) / (REACH_FLOOR_RADIUS_M * REACH_FLOOR_RADIUS_M);
-    const denom = 1 - w * h - 0.5 * w * w * h * h;
-    if (!(denom > 0.5)) return true;
-    const vCrude = (vMax + 0.5 * h * (gFloor + w * w * rMax)) / denom;
-    const rLow = Math.min(r0, r1) - 0.5 * vCrude * h;
-    if (!(rLow > REACH_FLOOR_RADIUS_M)) return true;
-    // The same with gravity at the lowest radius the bin allows.
-    const accel = (REACH_GRAVITY_MARGIN * WGS84_GM_M3_PER_S2) / (rLow * rLow) + 2 * w * vCrude + w * w * (rMax + 0.5 * vCrude * h);
-    const v = vMax + 0.5 * accel * h;
+    const v = earthFixedSpeedBoundMPerS(vMax, Math.min(r0, r1), Math.max(r0, r1), 0.5 * h);
     const rhoLow = 0.5 * (rho0M + rho1M - v * h);
     if (!(rhoLow > 0)) return true;
     return f0 + f1 + (v * h) / rhoLow > 0;

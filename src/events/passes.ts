@@ -40,7 +40,7 @@
 import { WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../constants.ts';
 import { InputError } from '../errors.ts';
 import { allocStateBlock, checkSpan, type Trajectory } from '../orbit/trajectory.ts';
-import { EcefEvaluator, StationScan } from './passScan.ts';
+import { earthFixedSpeedBoundMPerS, EcefEvaluator, StationScan } from './passScan.ts';
 import { earthRotationAlongGrid } from './siderealGrid.ts';
 import { checkStation, type Station } from './station.ts';
 
@@ -151,6 +151,7 @@ export function findPassesMany(
   }
 
   const scans = stations.map((s) => new StationScan(s, ev, traj.id));
+  ev.gridStepS = stepS;
   const spanS = toTtJ2000S - fromTtJ2000S;
   const intervals = Math.max(1, Math.ceil(spanS / stepS - 1e-9));
   const total = intervals + 1;
@@ -179,16 +180,38 @@ export function findPassesMany(
     }
     const p = block.positionM;
     const v = block.velocityMPerS;
+    let v2Max = 0;
+    let r2Min = Infinity;
+    let r2Max = 0;
     for (let i = 0; i < n; i++) {
-      // temeToEcef (src/orbit/frames.ts) without allocation.
+      // temeToEcef (src/orbit/frames.ts) in place.
       const c = cosG[i];
       const s = sinG[i];
-      const x = c * p[3 * i] + s * p[3 * i + 1];
-      const y = -s * p[3 * i] + c * p[3 * i + 1];
-      const z = p[3 * i + 2];
-      const vx = c * v[3 * i] + s * v[3 * i + 1] + w * y;
-      const vy = -s * v[3 * i] + c * v[3 * i + 1] - w * x;
-      const vz = v[3 * i + 2];
+      const j = 3 * i;
+      const x = c * p[j] + s * p[j + 1];
+      const y = -s * p[j] + c * p[j + 1];
+      const vx = c * v[j] + s * v[j + 1] + w * y;
+      const vy = -s * v[j] + c * v[j + 1] - w * x;
+      p[j] = x;
+      p[j + 1] = y;
+      v[j] = vx;
+      v[j + 1] = vy;
+      const r2 = x * x + y * y + p[j + 2] * p[j + 2];
+      const v2 = vx * vx + vy * vy + v[j + 2] * v[j + 2];
+      if (v2 > v2Max) v2Max = v2;
+      if (r2 < r2Min) r2Min = r2;
+      if (r2 > r2Max) r2Max = r2;
+    }
+    ev.chunkSpeedBoundMPerS = earthFixedSpeedBoundMPerS(Math.sqrt(v2Max), Math.sqrt(r2Min), Math.sqrt(r2Max), 0.5 * stepS);
+    ev.chunkEndTtJ2000S = ts[n - 1];
+    for (let i = 0; i < n; i++) {
+      const j = 3 * i;
+      const x = p[j];
+      const y = p[j + 1];
+      const z = p[j + 2];
+      const vx = v[j];
+      const vy = v[j + 1];
+      const vz = v[j + 2];
       ev.advance();
       const e = ev.sample;
       e[0] = x;
@@ -197,7 +220,8 @@ export function findPassesMany(
       e[3] = vx;
       e[4] = vy;
       e[5] = vz;
-      for (const scan of scans) scan.feed(ts[i], x, y, z, vx, vy, vz);
+      const t = ts[i];
+      for (let k = 0; k < scans.length; k++) scans[k].feed(t, x, y, z, vx, vy, vz);
     }
   }
   for (const scan of scans) scan.finish();
