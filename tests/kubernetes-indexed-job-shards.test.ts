@@ -4,11 +4,12 @@
  * pod gets its index 0..completions−1 in JOB_COMPLETION_INDEX — confirmed from the documentation.
  * The pods run at once; the merge must be byte-identical to one unsharded run.
  */
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { startCli } from './helpers/cli.ts';
+import { ONE_LINE_ERROR, startCli } from './helpers/cli.ts';
+import { benchScenarioYaml } from '../scripts/bench/constellation.ts';
 
 const DEMO = 'data/demo/tessera.yaml';
 const dir = mkdtempSync(join(tmpdir(), 'tauplan-k8s-'));
@@ -53,6 +54,51 @@ describe('Kubernetes Indexed Job: --shard auto --shard-count', () => {
     expect(merged.code, merged.stderr).toBe(0);
     expect(readFileSync(join(dir, 'cmp-merged.csv'), 'utf8')).toBe(one);
   }, 240_000); // shard processes start at once: slow on a loaded machine
+
+  it('four indexed pods of report on a scenario full of notes, merged folder by folder, equal the data files of one report byte for byte', async () => {
+    // The invented benchmark constellation (8 satellites) made to raise every kind of note a report
+    // gathers: element sets extrapolated past SGP4's span, stations without a geoid height, the
+    // leap-second table's expiry inside the window; two satellites (both in shard 2) without a keep-in
+    // limit, two with measurements (fit-<id> files).
+    let yaml = benchScenarioYaml({ sats: 8 }).replace(/^window: .*$/m, 'window: { start: 2027-06-27T00:00:00Z, end: 2027-06-29T00:00:00Z }');
+    for (const id of ['LTC-02', 'LTC-06']) yaml = yaml.replace(new RegExp(`(id: ${id}\\n[\\s\\S]*?)keepInNs: [\\d.]+, `), '$1');
+    for (const id of ['LTC-03', 'LTC-04']) yaml = yaml.replace(new RegExp(`(id: ${id}\\n[\\s\\S]*?)(    clock:)`), '$1    measurements: offsets.csv\n$2');
+    let stripped = 0;
+    yaml = yaml.replace(/geoidHeightM: -?[\d.]+, /g, (m) => (stripped++ < 3 ? '' : m));
+    const scenario = join(dir, 'notes.yaml');
+    writeFileSync(scenario, yaml);
+    writeFileSync(join(dir, 'offsets.csv'), readFileSync('data/demo/tsr1-offsets.csv'));
+    const args = (out: string, extra: string[] = []): string[] => ['report', scenario, '--horizon', '10d', '--quiet', '--out', join(dir, out), ...extra];
+    const runs = await Promise.all([startCli(args('rep-one'), {}), ...[0, 1, 2, 3].map((i) => startCli(args(`rep-pod${i}`, ['--shard', 'auto', '--shard-count', '4']), { JOB_COMPLETION_INDEX: String(i) }))]);
+    for (const r of runs) expect(r.code, r.stderr).toBe(0);
+    const one = (f: string): string => readFileSync(join(dir, 'rep-one', f), 'utf8');
+    // The notes this scenario is built to raise are there (else the test would prove little).
+    const notes = (JSON.parse(one('passes.json')) as { notes: string[] }).notes;
+    for (const pattern of [/^LTC-05: the window reaches \d+ days from its element-set epoch/, /^station \S+ has no geoidHeightM/, /leap-second table expires/]) expect(notes.some((n) => pattern.test(n)), String(pattern)).toBe(true);
+    const merged = await startCli(['merge', ...[3, 0, 2, 1].map((i) => join(dir, `rep-pod${i}`)), '--out', join(dir, 'rep-merged'), '--quiet'], {});
+    expect(merged.code, merged.stderr).toBe(0);
+    const wanted = readdirSync(join(dir, 'rep-one')).filter((f) => /\.(csv|json)$/.test(f)).sort();
+    expect(wanted).toEqual(expect.arrayContaining(['fit-LTC-03.json', 'fit-LTC-04.csv', 'resets.json']));
+    expect(readdirSync(join(dir, 'rep-merged')).filter((f) => !f.startsWith('.')).sort()).toEqual(wanted);
+    for (const f of wanted) expect(readFileSync(join(dir, 'rep-merged', f), 'utf8'), f).toBe(one(f));
+  }, 240_000); // shard processes start at once: slow on a loaded machine
+
+  it('report shard folders: a missing shard, a shard given twice, a file among the folders, a folder that is no shard folder are one-line input errors (exit 2), and no merged folder is made', async () => {
+    // The folders of the test above.
+    const pod = (i: number): string => join(dir, `rep-pod${i}`);
+    const [missing, notShard, mixed, twice] = await Promise.all([
+      startCli(['merge', pod(0), pod(1), pod(3), '--out', join(dir, 'bad-1')], {}),
+      startCli(['merge', pod(0), pod(1), pod(2), join(dir, 'rep-one'), '--out', join(dir, 'bad-2')], {}),
+      startCli(['merge', pod(0), pod(1), pod(2), pod(3), join(dir, 'nav-pod0.json'), '--out', join(dir, 'bad-3')], {}),
+      startCli(['merge', pod(0), pod(1), pod(2), pod(2), '--out', join(dir, 'bad-4')], {}),
+    ]);
+    for (const r of [missing, notShard, mixed, twice]) expect(r.stderr).toMatch(ONE_LINE_ERROR);
+    for (const r of [missing, notShard, mixed, twice]) expect(r.code, r.stderr).toBe(2);
+    expect(missing.stderr).toMatch(/^tauplan: shard 3\/4 of the report is missing/);
+    expect(notShard.stderr).toMatch(/rep-one is not a report shard folder \(no shard\.json\)/);
+    expect(twice.stderr).toMatch(/^tauplan: shard 3\/4 appears twice/);
+    for (const k of [1, 2, 3, 4]) expect(existsSync(join(dir, `bad-${k}`, 'passes.json'))).toBe(false);
+  }, 240_000);
 
   it('an index without --shard-count, or outside it, is a one-line input error (exit 2)', async () => {
     const base = ['resets', DEMO, '--format', 'json', '--shard', 'auto'];

@@ -5,7 +5,7 @@
  * from the documented variable list. The tasks run at once, as an array does; the merge must be
  * byte-identical to one unsharded run (the contract of merge: exactly what one run writes).
  */
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -44,6 +44,21 @@ describe('Slurm job array: --shard auto', () => {
     const merged = await startCli(['merge', join(dir, 'cmp-task2.json'), join(dir, 'cmp-task0.json'), join(dir, 'cmp-task1.json'), '--out', join(dir, 'cmp-merged.json'), '--quiet'], {});
     expect(merged.code, merged.stderr).toBe(0);
     expect(readFileSync(join(dir, 'cmp-merged.json'), 'utf8')).toBe(readFileSync(join(dir, 'cmp-one.json'), 'utf8'));
+  }, 240_000); // shard processes start at once: slow on a loaded machine
+
+  it('three array tasks of report, merged folder by folder, equal the data files of one report byte for byte', async () => {
+    const slurm = (id: number): Record<string, string> => ({ SLURM_ARRAY_TASK_ID: String(id), SLURM_ARRAY_TASK_COUNT: '3', SLURM_ARRAY_TASK_MIN: '1' });
+    const args = (out: string, extra: string[] = []): string[] => ['report', DEMO, '--quiet', '--out', join(dir, out), ...extra];
+    const runs = await Promise.all([startCli(args('rep-one'), {}), ...[1, 2, 3].map((id) => startCli(args(`rep-task${id}`, ['--shard', 'auto']), slurm(id)))]);
+    for (const r of runs) expect(r.code, r.stderr).toBe(0);
+    expect(existsSync(join(dir, 'rep-task1', 'report.html'))).toBe(false);
+    const merged = await startCli(['merge', ...[2, 3, 1].map((id) => join(dir, `rep-task${id}`)), '--out', join(dir, 'rep-merged'), '--quiet'], {});
+    expect(merged.code, merged.stderr).toBe(0);
+    // Every data file of the one run (text and HTML need one process), and only those.
+    const wanted = readdirSync(join(dir, 'rep-one')).filter((f) => /\.(csv|json)$/.test(f)).sort();
+    expect(readdirSync(join(dir, 'rep-merged')).filter((f) => !f.startsWith('.')).sort()).toEqual(wanted);
+    expect(wanted).toEqual(expect.arrayContaining(['passes.json', 'resets.csv', 'size.json', 'fit.json', 'compare.csv', 'sweep.csv']));
+    for (const f of wanted) expect(readFileSync(join(dir, 'rep-merged', f), 'utf8'), f).toBe(readFileSync(join(dir, 'rep-one', f), 'utf8'));
   }, 240_000); // shard processes start at once: slow on a loaded machine
 
   it('bad or missing array variables are one-line input errors (exit 2), and a missing task stops the merge', async () => {

@@ -24,6 +24,11 @@ export interface ResetsOptions extends CommonOptions {
   sat?: string;
   /** Only contacts with these stations: comma-separated ids. */
   station?: string;
+  /**
+   * When no selected satellite has a keep-in limit: no plans (e.g. one shard of a run whose other
+   * satellites have limits) instead of an input error. Default false.
+   */
+  noPlansWithoutLimit?: boolean;
 }
 
 /** Everything the `resets` writers need. */
@@ -68,9 +73,10 @@ export function planPreparedResets(context: ScenarioContext, path: string): Sate
 /** Compute the keep-in plans (the writers' input; {@link planResets} gives the JSON). */
 export function runResets(scenario: ScenarioSpec, options?: ResetsOptions): ResetsRun {
   const ts = timeSystemOf(options);
-  const { horizon, ...sel } = options ?? {};
+  const { horizon, noPlansWithoutLimit, ...sel } = options ?? {};
   const context = prepareScenario(scenario, ts, { ...sel, horizonS: resetsHorizonS(scenario, horizon) }, resolveOrbit, scenario.fileName);
-  const plans = planScenarioResets(context, scenario.fileName);
+  const none = noPlansWithoutLimit === true && !context.runs.some((r) => r.keepInNs !== null);
+  const plans = none ? [] : planScenarioResets(context, scenario.fileName);
   return { context, plans, meta: resetsMeta(scenario, runNotes(context), context.fromTtJ2000S, context.toTtJ2000S) };
 }
 

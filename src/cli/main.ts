@@ -2,6 +2,7 @@
  * The command line. Every command: `--format text|json|csv|html`, `--out PATH` (atomic).
  * Input faults print `tauplan: <what> (<where>) — <fix>` on one line and exit 2; internal faults exit 1.
  */
+import { statSync } from 'node:fs';
 import yargs, { type Argv } from 'yargs';
 import { InputError, InternalError } from '../errors.ts';
 import { defaultTimeSystem, LEAP_SECONDS_ENV } from '../io/tables.ts';
@@ -68,7 +69,7 @@ async function loadCommand(name: string | undefined): Promise<CommandModules> {
       return { track: await import('./commands/track.ts') };
     case 'report':
     case 'demo':
-      return { report: await import('./commands/report.ts') };
+      return { report: await import('./commands/report.ts'), shard: await import('./shard.ts') };
     case 'navclock':
       return { navclock: await import('./commands/navclock.ts'), shard: await import('./shard.ts') };
     default:
@@ -119,7 +120,7 @@ function parser(args: string[], m: CommandModules) {
     )
     .command(
       'merge <files..>',
-      'Join shard outputs (size --all CSV or JSON Lines; passes, resets, navclock, compare JSON or CSV) into what one run writes',
+      'Join shard outputs (size --all CSV or JSON Lines; passes, resets, navclock, compare JSON or CSV; report --shard folders) into what one run writes',
       (y) => need(m.merge, 'merge').mergeOptions(y),
       (a) => need(m.merge, 'merge').runMerge(a.files as string[], a.out, a.quiet),
     )
@@ -170,8 +171,8 @@ function parser(args: string[], m: CommandModules) {
     )
     .command(
       'report <scenario>',
-      'Run the whole job on a scenario and write report.html plus text, CSV and JSON files into a folder',
-      (y) => need(m.report, 'report').reportOptions(y),
+      'Run the whole job on a scenario and write report.html plus text, CSV and JSON files into a folder (--shard: data files of some satellites, for merge)',
+      (y) => need(m.report, 'report').reportOptions(y).options(need(m.shard, 'shard').REPORT_SHARD_OPTIONS),
       (a) => need(m.report, 'report').runReport(a, ts),
     )
     .command(
@@ -193,6 +194,7 @@ function parser(args: string[], m: CommandModules) {
     .example('tauplan size --a-km 26561.75 --i-deg 55 --gravity point --format json', 'GPS-like sizing')
     .example('tauplan size --tle cat.tle --all --format csv --out all.csv', 'every satellite of a catalogue')
     .example('tauplan merge s1.csv s2.csv --out all.csv', 'join --shard outputs in file order')
+    .example('tauplan merge rep-1 rep-2 --out report/', 'join report --shard folders into one report\'s data files')
     .example('tauplan passes data/demo/tessera.yaml --station BRINDLEMOOR', 'pass schedule with clock offsets')
     .example('tauplan resets data/demo/tessera.yaml --horizon 28d', 'keep-in adjustment plan')
     .example('tauplan fit offsets.csv --degree 2', 'clock parameters and stability from measurements')
@@ -218,7 +220,9 @@ function parser(args: string[], m: CommandModules) {
         if (key === 'out' || key === 'update-scenario' || key === '$0' || /[A-Z]/.test(key)) continue;
         for (const v of Array.isArray(value) ? value : [value]) if (typeof v === 'string' && v !== '') noteInputFile(v);
       }
-      if (typeof argv.out === 'string' && argv._[0] !== 'demo' && argv._[0] !== 'report') checkOutputTarget(argv.out);
+      // merge of report shard folders writes a folder (checked like report's when it writes).
+      const folderMerge = argv._[0] === 'merge' && Array.isArray(argv.files) && argv.files.some((f) => typeof f === 'string' && statSync(f, { throwIfNoEntry: false })?.isDirectory() === true);
+      if (typeof argv.out === 'string' && argv._[0] !== 'demo' && argv._[0] !== 'report' && !folderMerge) checkOutputTarget(argv.out);
     })
     .fail((msg, err) => {
       // yargs' own validation faults (YError) are usage errors like the messages it passes alone.

@@ -143,6 +143,15 @@ export const SHARD_OPTIONS = {
   'shard-count': { type: 'number', requiresArg: true, describe: 'with --shard auto under a Kubernetes Indexed Job: the number of shards (the Job\'s completions)' },
 } as const;
 
+/** report's shard options: the shared ones, with what a shard folder holds. */
+export const REPORT_SHARD_OPTIONS = {
+  ...SHARD_OPTIONS,
+  shard: {
+    ...SHARD_OPTIONS.shard,
+    describe: `${SHARD_OPTIONS.shard.describe}. The --out folder gets the data files (CSV, JSON) of this shard's satellites and a shard.json, no report.html or text files; tauplan merge DIR_1 ... DIR_N --out DIR joins them into the data files of one report`,
+  },
+} as const;
+
 /**
  * Run a scenario command on its shard: with --shard, the run's satellites (after --sat, and only
  * those `eligible` for the command) are split round-robin, the command runs on this shard's

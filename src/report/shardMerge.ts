@@ -119,7 +119,7 @@ function satelliteOfNote(note: string, order: readonly string[]): number {
  * shared order; between two anchors, the other lines in satellite order (shard order for lines
  * naming no satellite), each once.
  */
-function mergeLines(lists: readonly string[][], order: readonly string[]): string[] {
+export function mergeLines(lists: readonly string[][], order: readonly string[]): string[] {
   const inAll = new Set(lists[0].filter((l) => lists.every((x) => x.includes(l))));
   const out: string[] = [];
   const pos = lists.map(() => 0);

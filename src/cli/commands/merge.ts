@@ -5,19 +5,23 @@
  * the largest must be present exactly once (a missing shard is refused, not skipped).
  * Reads the shard files whole (a row is a few hundred bytes, so 100 000 rows are tens of MB).
  */
+import { existsSync, statSync } from 'node:fs';
+import { join, resolve } from 'node:path';
 import type { Argv } from 'yargs';
 import { parse } from 'csv-parse/sync';
 import { stringify } from 'csv-stringify/sync';
 import { InputError } from '../../errors.ts';
 import { readTextFile } from '../../io/orbitSources.ts';
 import { writeFileAtomic } from '../../io/output.ts';
+import { writeOutputFolder } from '../../io/outputFolder.ts';
+import { mergeReportShards, readReportManifest, REPORT_SHARD_MANIFEST, type ReportShardFolder } from '../../report/reportShardMerge.ts';
 import { safeCsvCell } from '../../report/csv.ts';
 import { mergeScenarioShards, scenarioShardTag } from '../../report/shardMerge.ts';
 
 export function mergeOptions<T>(y: Argv<T>) {
   return y
-    .positional('files', { type: 'string', array: true, demandOption: true, describe: 'shard outputs of size --all (CSV or JSON Lines), or of passes / resets --shard (JSON or CSV)' })
-    .option('out', { type: 'string', requiresArg: true, describe: 'write to this file (atomically) instead of stdout' })
+    .positional('files', { type: 'string', array: true, demandOption: true, describe: 'shard outputs of size --all (CSV or JSON Lines), of passes / resets / navclock / compare --shard (JSON or CSV), or the folders of report --shard' })
+    .option('out', { type: 'string', requiresArg: true, describe: 'write to this file (atomically) instead of stdout; for report shard folders, the folder for the merged data files' })
     .option('quiet', { type: 'boolean', default: false, describe: 'no summary on stderr' });
 }
 
@@ -90,8 +94,36 @@ export function mergeShardTexts(inputs: readonly { name: string; text: string }[
   return stringify([(header as string[]).map(safeCsvCell), ...rows.map((r) => (r.cells as string[]).map(safeCsvCell))]);
 }
 
+/** Whether `path` is a folder (a report shard's); a missing path is left to the file reader's message. */
+function isFolder(path: string): boolean {
+  return statSync(path, { throwIfNoEntry: false })?.isDirectory() === true;
+}
+
+/** `tauplan merge DIR_1 … DIR_N --out DIR`: report shard folders into the data files of one report. */
+function mergeReportFolders(dirs: string[], out: string | undefined, quiet: boolean): void {
+  if (out === undefined) throw new InputError('merging report shard folders needs --out DIR', '--out', 'give the folder for the merged data files, e.g. --out report/');
+  const into = dirs.find((d) => resolve(d) === resolve(out));
+  if (into !== undefined) throw new InputError(`--out ${out} is one of the shard folders`, '--out', 'give a new folder for the merged data files');
+  const folders: ReportShardFolder[] = dirs.map((dir) => {
+    const path = join(dir, REPORT_SHARD_MANIFEST);
+    if (!existsSync(path)) throw new InputError(`${dir} is not a report shard folder (no ${REPORT_SHARD_MANIFEST})`, dir, 'give the --out folders of report --shard K/N runs');
+    const manifest = readReportManifest(readTextFile(path, 'merge'), path);
+    return { name: dir, manifest, read: (file) => readTextFile(join(dir, file), 'merge') };
+  });
+  // Everything is joined before the folder is touched: a refused merge leaves no file.
+  const files = mergeReportShards(folders);
+  writeOutputFolder(resolve(out), files);
+  if (!quiet) process.stderr.write(`tauplan: merged ${dirs.length} report shard folders into ${files.length} data files in ${resolve(out)} (report.html and the text files need one report process)\n`);
+}
+
 /** `tauplan merge`: read, merge, write (atomically with --out). */
 export function runMerge(files: string[], out: string | undefined, quiet = false): void {
+  const folders = files.filter(isFolder);
+  if (folders.length > 0) {
+    if (folders.length !== files.length) throw new InputError(`${files.find((f) => !isFolder(f))} is a file but ${folders[0]} is a folder`, 'merge', 'merge report shard folders, or shard output files, not both');
+    mergeReportFolders(files, out, quiet);
+    return;
+  }
   const inputs = files.map((name) => ({ name, text: readTextFile(name, 'merge') }));
   // Scenario commands' shards carry a tag (src/report/shardMerge.ts); size --all shards an index.
   const merged = inputs.some((f) => scenarioShardTag(f.text) !== null) ? mergeScenarioShards(inputs) : mergeShardTexts(inputs);

@@ -8,31 +8,28 @@
  */
 import { join, resolve } from 'node:path';
 import type { Argv } from 'yargs';
-import { runPasses } from '../../api/passes.ts';
-import { PREDICTION_BAND_RULE, runResets } from '../../api/resets.ts';
-import { sizeScenarioSatellites } from '../../api/size.ts';
-import { InputError } from '../../errors.ts';
+import { PREDICTION_BAND_RULE } from '../../api/resets.ts';
 import { loadScenario } from '../../io/loadScenario.ts';
+import type { ScenarioSpec } from '../../model/scenario.ts';
 import { toJsonText } from '../../io/output.ts';
 import { prepareOutputFolder, writeOutputFolder } from '../../io/outputFolder.ts';
 import { escapeUnsafeText } from '../../report/safeText.ts';
 import { dataPath } from '../../io/tables.ts';
-import type { FitResult } from '../../api/fitFile.ts';
 import { compareToCsv, compareToJson, compareToText, sweepToCsv } from '../../report/analysisReports.ts';
 import { PLANNING_CAUTION } from '../../report/caution.ts';
 import { fitToCsv, fitToJson, fitToText } from '../../report/fitReport.ts';
 import { typographicMinus } from '../../report/format.ts';
 import type { SectionSpec } from '../../report/html.ts';
 import { compareFigures, compareSection, fitSection, modelsSection, page, passesSections, resetsSection, sizeSection, sweepSection, windowMeta } from '../../report/htmlReport.ts';
-import { missingGeoidNote, withNotes, type NoteFormat } from '../../report/notes.ts';
+import { withNotes, type NoteFormat } from '../../report/notes.ts';
 import { passesToCsv, passesToJson, passesToText } from '../../report/passesReport.ts';
 import { resetsToCsv, resetsToJson, resetsToText } from '../../report/resetsReport.ts';
 import { sizeToCsv, sizeToJson, sizeToText } from '../../report/sizeReport.ts';
 import type { TimeSystem } from '../../time/timeSystem.ts';
 import { runNotes } from '../emit.ts';
-import { computeCompare } from './compare.ts';
-import { computeFit } from './fit.ts';
-import { computeSweep } from './sweep.ts';
+import { computeReportParts } from '../reportParts.ts';
+import { writeReportShard } from '../reportShard.ts';
+import { shardOf, type ShardArgs } from '../shard.ts';
 
 export function reportOptions<T>(y: Argv<T>) {
   return y
@@ -72,9 +69,14 @@ interface ReportStyle {
   scenarioLabel: string;
 }
 
-export function runReport(a: ReportArgs, ts: TimeSystem): void {
+export function runReport(a: ReportArgs & ShardArgs, ts: TimeSystem): void {
+  const shard = shardOf(a);
+  if (shard !== null) {
+    writeReportShard(a, ts, shard);
+    return;
+  }
   const scenario = loadScenario(a.scenario, ts);
-  writeReport(a, ts, { title: `tauplan report — ${scenario.name}`, subtitle: 'Passes, keep-in plan, sizing, clock comparison and fits for this scenario.', scenarioLabel: a.scenario });
+  writeReport(a, ts, { title: `tauplan report — ${scenario.name}`, subtitle: 'Passes, keep-in plan, sizing, clock comparison and fits for this scenario.', scenarioLabel: a.scenario }, scenario);
 }
 
 export function runDemo(a: { out: string; quiet: boolean; force?: boolean }, ts: TimeSystem): void {
@@ -85,36 +87,18 @@ export function runDemo(a: { out: string; quiet: boolean; force?: boolean }, ts:
   );
 }
 
-function writeReport(a: ReportArgs, ts: TimeSystem, style: ReportStyle): void {
+/** `parsed`: the scenario already read (runReport reads it for the title). */
+function writeReport(a: ReportArgs, ts: TimeSystem, style: ReportStyle, parsed?: ScenarioSpec): void {
   // The output folder is checked (and made) before any work, so a bad --out fails at once; files
   // go in through a temporary folder, never over files another program wrote unless --force.
   const folderOptions = { force: a.force === true };
   prepareOutputFolder(a.out, ALWAYS_WRITTEN, folderOptions);
   const dir = resolve(a.out);
-  const scenario = loadScenario(a.scenario, ts);
-  const passes = runPasses(scenario, { timeSystem: ts, from: a.from, to: a.to });
+  const scenario = parsed ?? loadScenario(a.scenario, ts);
+  const { passes, resets, sizes, fits, compare, sweep: sweepRun, noteStages } = computeReportParts(a, ts, scenario);
   const ctx = passes.context;
-  const notes: string[] = [...passes.meta.notes, ...ctx.scenario.stations.filter((s) => !s.geoidHeightGiven && s.body !== 'moon').map((s) => missingGeoidNote(s.id))];
   const passMeta = passes.meta;
-
-  const withLimit = ctx.runs.some((r) => r.keepInNs !== null);
-  const resets = withLimit ? runResets(scenario, { timeSystem: ts, horizon: a.horizon, from: a.from }) : null;
-  if (resets === null) notes.push('no satellite has a keep-in limit (clock.keepInNs): the report has no adjustment plan');
-  else notes.push(...resets.meta.notes);
-
-  const { sizes, notes: sizeNotes } = sizeScenarioSatellites(ctx);
-  notes.push(...sizeNotes);
-
-  const fits: { satellite: string; result: FitResult }[] = [];
-  for (const sat of ctx.satellites) {
-    if (sat.measurementsFile === null) continue;
-    const { result } = computeFit({ measurements: sat.measurementsFile, degree: 1, scenario: a.scenario, sat: sat.id, clip: 4 }, ts);
-    fits.push({ satellite: sat.id, result });
-  }
-
-  const compare = computeCompare({ scenario: a.scenario, from: a.from, to: a.to }, ts);
-  // The rate against altitude puts the scenario's orbits in context (circular orbits at 55°).
-  const sweep = computeSweep({ fromKm: 300, toKm: 40000, points: 120, e: 0, iDeg: 55, gravity: ctx.gravity.name, epoch: ts.format(ctx.scenario.window.start) }, ts);
+  const sweep = sweepRun as NonNullable<typeof sweepRun>;
 
   const sections: SectionSpec[] = [
     ...passesSections(ts, ctx.runs, passes.rows, ctx.stations.map((s) => s.id), ctx.fromTtJ2000S, ctx.toTtJ2000S),
@@ -143,8 +127,7 @@ function writeReport(a: ReportArgs, ts: TimeSystem, style: ReportStyle): void {
     ['size.txt', 'text', sizes.map((s) => sizeToText(s.result, ts, s.title)).join('\n')],
     ['size.csv', 'csv', sizeToCsv(sizes.map((s) => s.result), ts)],
     ['size.json', 'json', toJsonText({ satellites: sizes.map((s) => sizeToJson(s.result, ts)) })],
-    ...fits.flatMap(({ satellite, result }): [string, NoteFormat, string][] => {
-      const stem = fits.length === 1 ? 'fit' : `fit-${fileStem(satellite)}`;
+    ...fits.flatMap(({ stem, result }): [string, NoteFormat, string][] => {
       return [
         [`${stem}.txt`, 'text', fitToText(result, ts)],
         [`${stem}.csv`, 'csv', fitToCsv(result)],
@@ -156,7 +139,7 @@ function writeReport(a: ReportArgs, ts: TimeSystem, style: ReportStyle): void {
     ['compare.json', 'json', toJsonText(compareToJson(compare.result, ts, compare.meta))],
     ['sweep.csv', 'csv', sweepToCsv(sweep.result)],
   ];
-  const all = runNotes([...notes, ...compare.notes], ts);
+  const all = runNotes(noteStages.flat(), ts);
   const finished = files.map(([name, format, body]): [string, string] => {
     const b = withNotes(format, body, all);
     return [name, format === 'text' ? typographicMinus(escapeUnsafeText(b)) : b];
@@ -183,11 +166,4 @@ function writeReport(a: ReportArgs, ts: TimeSystem, style: ReportStyle): void {
     '',
   ];
   process.stdout.write(typographicMinus(escapeUnsafeText(lines.join('\n'))));
-}
-
-/** A satellite id as part of a file name: letters, digits, dot, dash and underscore only. */
-function fileStem(id: string): string {
-  const s = id.replace(/[^A-Za-z0-9._-]+/g, '_').replace(/^[.-]+/, '');
-  if (s === '') throw new InputError(`satellite id ${JSON.stringify(id)} gives no usable file name`, 'satellites[].id', 'use letters and digits in ids with measurements');
-  return s;
 }
