@@ -13,7 +13,7 @@
 import { describe, expect, it } from 'vitest';
 import { WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../src/constants.ts';
 import { elevationRad, stationFrame } from '../src/events/lookAngles.ts';
-import { findPasses, findPassesMany, passGridStepS, type Pass } from '../src/events/passes.ts';
+import { earthPassGridStepS, findPasses, findPassesMany, passGridStepS, type Pass } from '../src/events/passes.ts';
 import { earthRotationAlongGrid } from '../src/events/siderealGrid.ts';
 import { geodeticToEcefM, type Station } from '../src/events/station.ts';
 import { defaultTimeSystem } from '../src/io/tables.ts';
@@ -304,6 +304,9 @@ describe('window edges', () => {
     expect(q).toBeGreaterThan(215);
     expect(q).toBeLessThan(235);
     expect(passGridStepS(geo.positionM, geo.velocityMPerS, 10_000)).toBe(600);
+    // The Earth-station search follows the orbit alone (passes of any length come from located extrema).
+    expect(earthPassGridStepS(leo.positionM, leo.velocityMPerS)).toBe(q);
+    expect(earthPassGridStepS(geo.positionM, geo.velocityMPerS)).toBe(600);
   });
 });
 

@@ -9,8 +9,8 @@
  * J2000.0 TT.
  *
  * Method:
- * 1. A coarse grid with step h = clamp(min(minPassS / 2, τp / 4), 10 s, 600 s), where τp = r_p / v_p is
- *    the time scale of perigee passage from the osculating state at the window start (vis-viva).
+ * 1. A coarse grid with step h = clamp(τp / 4, 10 s, 600 s), where τp = r_p / v_p is the time scale
+ *    of perigee passage from the osculating state at the window start (vis-viva).
  *    Each grid sample gives sin(elevation) and the sign of its rate (from the earth-fixed velocity);
  *    the search compares sin(elevation) with sin(mask), which has the same signs and roots as
  *    elevation − mask (sin increases on [−90°, 90°]) and needs no inverse trigonometry. The Earth's
@@ -19,9 +19,10 @@
  *    by a root finder on the (smooth) rate numerator; where it changes − to + and both ends are
  *    above the mask, the minimum is located too. This catches passes shorter than h (the rate
  *    turns inside the bin even when both ends are below the mask) and dips that would merge two
- *    passes. Any pass lasting ≥ minPassS also contains a grid point, since h ≤ minPassS / 2.
- *    The remaining assumption — at most one elevation extremum per bin — holds because h is a
- *    quarter of the fastest orbital time scale. A maximum in a bin whose ends are both below the
+ *    passes, so a pass needs no grid point of its own and h does not depend on minPassS. The one
+ *    assumption — at most one elevation extremum per bin — holds because h is a quarter of the
+ *    fastest orbital time scale (elevation extrema are further apart: they follow the station-to-
+ *    satellite geometry, whose time scale ρ/v is longer still above LEO). A maximum in a bin whose ends are both below the
  *    mask is not located when a bound on the satellite's earth-fixed speed shows that the
  *    elevation cannot reach the mask in between (./passScan.ts).
  * 3. Between consecutive knots (grid points and located extrema) the elevation is monotonic, so a
@@ -94,7 +95,8 @@ const CHUNK_SAMPLES = 4096;
 /**
  * Coarse grid step [s] for a trajectory: clamp(min(minPassS / 2, τp / 4), 10, 600), with
  * τp = r_p / v_p from the osculating two-body orbit of `state` (position m, velocity m/s, inertial).
- * For an unbound or degenerate state τp falls back to r / v at the state.
+ * For an unbound or degenerate state τp falls back to r / v at the state. The lunar finder's step;
+ * the Earth-station search uses {@link earthPassGridStepS}.
  */
 export function passGridStepS(positionM: readonly number[], velocityMPerS: readonly number[], minPassS: number): number {
   const r = Math.hypot(positionM[0], positionM[1], positionM[2]);
@@ -118,8 +120,19 @@ export function passGridStepS(positionM: readonly number[], velocityMPerS: reado
 }
 
 /**
+ * Grid step [s] of the Earth-station search ({@link findPassesMany}): clamp(τp / 4, 10, 600), the
+ * orbit's own time scale (see {@link passGridStepS}). Located extrema find passes of any length
+ * (step 2 of the method), so no grid point is needed inside each pass; {@link passGridStepS} with a
+ * `minPassS` keeps one there for finders that rely on it (the lunar one: its passes can end at an
+ * occultation, which no elevation extremum announces).
+ */
+export function earthPassGridStepS(positionM: readonly number[], velocityMPerS: readonly number[]): number {
+  return passGridStepS(positionM, velocityMPerS, Infinity);
+}
+
+/**
  * Passes of one trajectory over several stations in [fromTtJ2000S, toTtJ2000S], sharing one coarse
- * sampling of the trajectory. The grid step is the smallest any station needs.
+ * sampling of the trajectory ({@link earthPassGridStepS} unless `opts.gridStepS` is given).
  * Throws SpanError when the window leaves the trajectory's span, InputError for a bad window or station.
  */
 export function findPassesMany(
@@ -146,8 +159,7 @@ export function findPassesMany(
   if (stepS === undefined) {
     const s0 = traj.stateAt(fromTtJ2000S);
     ev.statesEvaluated++;
-    const minPassS = Math.min(...stations.map((s) => s.minPassS));
-    stepS = passGridStepS(s0.positionM, s0.velocityMPerS, minPassS);
+    stepS = earthPassGridStepS(s0.positionM, s0.velocityMPerS);
   }
 
   const scans = stations.map((s) => new StationScan(s, ev, traj.id));

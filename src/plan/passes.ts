@@ -5,7 +5,7 @@
  */
 import { conventionalPeriodicS } from '../clock/rate.ts';
 import { oneWayTerms } from '../events/oneWay.ts';
-import { findPassesMany, passGridStepS, type GmstRadAt, type Pass } from '../events/passes.ts';
+import { earthPassGridStepS, findPassesMany, type GmstRadAt, type Pass } from '../events/passes.ts';
 import { geodeticToEcefM, type Station } from '../events/station.ts';
 import type { SatelliteClockRun } from './satelliteClock.ts';
 import { earthLinkStation, findLunarPasses, lunarLinkStation, needsLunarPasses } from '../events/lunarPasses.ts';
@@ -98,11 +98,11 @@ export function comparePassRows(a: PassClockRow, b: PassClockRow): number {
 /**
  * The passes a keep-in plan can use, per run (same order): only at uplink stations and at least the
  * station's `minPassS` long, with no clock rows (a plan needs AOS, TCA and LOS only). The search
- * grid is the one {@link planPasses} uses over all `stations`, so the passes found are the same.
+ * grid is the one {@link planPasses} uses (it follows the orbit, not the stations), so the passes
+ * found are the same.
  */
 export function uplinkContacts(runs: readonly SatelliteClockRun[], stations: readonly (Station & { uplink?: boolean })[], gmstRadAt: GmstRadAt, fromTtJ2000S: number, toTtJ2000S: number): Pass[][] {
   const uplink = stations.filter((s) => s.uplink !== false);
-  const minPassS = Math.min(...stations.map((s) => s.minPassS));
   return runs.map((run) => {
     const from = Math.max(fromTtJ2000S, run.startTtJ2000S ?? fromTtJ2000S);
     const to = Math.min(toTtJ2000S, run.endTtJ2000S);
@@ -115,7 +115,7 @@ export function uplinkContacts(runs: readonly SatelliteClockRun[], stations: rea
     const keep = (p: Pass): boolean => p.durationS >= (minOf.get(p.stationId) ?? 0);
     if (earth.length === 0) return lunarPasses.filter(keep).sort((a, b) => a.aosTtJ2000S - b.aosTtJ2000S);
     const s0 = run.trajectory.stateAt(from);
-    const gridStepS = passGridStepS(s0.positionM, s0.velocityMPerS, minPassS);
+    const gridStepS = earthPassGridStepS(s0.positionM, s0.velocityMPerS);
     const found = findPassesMany(run.trajectory, earth, gmstRadAt, from, to, { gridStepS });
     return [...found.passes, ...lunarPasses].filter(keep).sort((a, b) => a.aosTtJ2000S - b.aosTtJ2000S || a.stationId.localeCompare(b.stationId));
   });
