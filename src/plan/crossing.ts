@@ -7,6 +7,7 @@
  * cannot hide a crossing) and a capped bisection to 0.1 s.
  */
 import { InternalError } from '../errors.ts';
+import { bendAllowanceNs, type OffsetBend } from './offsetBend.ts';
 
 /** Which keep-in limit. */
 export type Side = 'upper' | 'lower';
@@ -114,6 +115,30 @@ export function crossingAfter(offsetNs: (t: number) => number, bandNs: (t: numbe
   return crossingAndMargin(offsetNs, bandNs, limitNs, null, from, to, stepS).crossing;
 }
 
+/**
+ * What lets a scan pass over stretches where nothing can happen: how much the offset can bend
+ * (offsetBend.ts) and the size [ns] of what the plan adds to the free-running offset.
+ */
+export interface ScanSkip {
+  bend: OffsetBend;
+  extraMagnitudeNs: number;
+}
+
+/** Relative rounding allowance on the band's computed values and on a level's sum. */
+const BAND_ROUNDING = 1e-12;
+const ROUNDING = 1e-12;
+/** Bending allowed over one first try at a block, as a share of the limit (smaller blocks are halved further). */
+const BLOCK_BEND_SHARE = 0.5;
+const MAX_BLOCK_POINTS = 256;
+
+/** Scan points per first try: a power of two over which the bend stays a small share of the limit. */
+function blockPoints(bend: OffsetBend, stepS: number, limitNs: number): number {
+  const wS = Math.sqrt((8 * BLOCK_BEND_SHARE * Math.abs(limitNs)) / Math.max(bend.curvatureNsPerS2, 1e-300));
+  let points = 1;
+  while (points * 2 <= MAX_BLOCK_POINTS && points * 2 * stepS <= wS) points *= 2;
+  return points;
+}
+
 /** Levels of crossingAndMargin: upper at, early, late; lower at, early, late; margin upper, lower. */
 const UP_AT = 0;
 const LO_AT = 3;
@@ -137,6 +162,7 @@ export function crossingAndMargin(
   from: number,
   to: number,
   stepS: number,
+  skip: ScanSkip | null = null,
 ): { crossing: Crossing | null; marginAt: number | null } {
   const count = marginLevelNs === null ? 6 : 8;
   const sign = new Float64Array([1, 1, 1, -1, -1, -1, 1, -1]);
@@ -165,15 +191,14 @@ export function crossingAndMargin(
   settle();
   const n = Math.ceil((to - from) / stepS);
   if (n > MAX_SCAN_POINTS) throw new InternalError(`crossing scan of ${n} points`, 'horizon');
-  let prev = from;
   const wanted = (): boolean => {
     for (let i = 0; i < count; i++) if (state[i] >= 0) return true;
     return false;
   };
-  for (let k = 1; k <= n && wanted(); k++) {
-    const t = Math.min(to, from + k * stepS);
-    const x = offsetNs(t);
-    const b = bandNs(t);
+  const tOf = (k: number): number => Math.min(to, from + k * stepS);
+  // The k-th scan instant, with the offset and band there, as firstLevelTimes visits it.
+  const visit = (k: number, x: number, b: number): void => {
+    const t = tOf(k);
     for (let i = 0; i < count; i++) {
       if (state[i] < 0) continue;
       const v = g(i, x, b);
@@ -182,12 +207,60 @@ export function crossingAndMargin(
         continue;
       }
       if (v >= 0) {
-        found[i] = bisect((tt) => g(i, offsetNs(tt), bandNs(tt)), prev, t);
+        found[i] = bisect((tt) => g(i, offsetNs(tt), bandNs(tt)), tOf(k - 1), t);
         state[i] = -1;
       }
     }
     settle();
-    prev = t;
+  };
+  // True when no instant strictly between scan points ka and kb can change a wanted level's state.
+  const quiet = (ta: number, xa: number, ba: number, tb: number, xb: number, bb: number): boolean => {
+    if (skip === null) return false;
+    const e = bendAllowanceNs(skip.bend, ta, tb, skip.extraMagnitudeNs);
+    const hiX = Math.max(xa, xb) + e;
+    const loX = Math.min(xa, xb) - e;
+    // The band grows with τ, so between the ends it stays between them (rounding aside).
+    const bLo = Math.min(ba, bb) * (1 - BAND_ROUNDING);
+    const bHi = Math.max(ba, bb) * (1 + BAND_ROUNDING);
+    for (let i = 0; i < count; i++) {
+      if (state[i] < 0) continue;
+      const tol = ROUNDING * (Math.abs(hiX) + Math.abs(loX) + bHi + Math.abs(levelNs[i])) + ROUNDING;
+      const sxHi = sign[i] > 0 ? hiX : -loX;
+      const sxLo = sign[i] > 0 ? loX : -hiX;
+      const bandHi = bandSign[i] > 0 ? bHi : bandSign[i] < 0 ? -bLo : 0;
+      const bandLo = bandSign[i] > 0 ? bLo : bandSign[i] < 0 ? -bHi : 0;
+      if (state[i] === 1 && sxHi + bandHi - levelNs[i] + tol >= 0) return false;
+      if (state[i] === 0 && sxLo + bandLo - levelNs[i] - tol < 0) return false;
+    }
+    return true;
+  };
+  // Scan points ka < k ≤ kb, the values at both ends known: skip the inside when it is quiet,
+  // else halve (left half first, so levels change state in time order).
+  const range = (ka: number, xa: number, ba: number, kb: number, xb: number, bb: number): void => {
+    if (kb - ka > 1 && !quiet(tOf(ka), xa, ba, tOf(kb), xb, bb)) {
+      const km = (ka + kb) >> 1;
+      const tm = tOf(km);
+      const xm = offsetNs(tm);
+      const bm = bandNs(tm);
+      range(ka, xa, ba, km, xm, bm);
+      if (wanted()) range(km, xm, bm, kb, xb, bb);
+      return;
+    }
+    visit(kb, xb, bb);
+  };
+  const block = skip === null ? 1 : blockPoints(skip.bend, stepS, limitNs);
+  let ka = 0;
+  let xa = x0;
+  let ba = b0;
+  while (ka < n && wanted()) {
+    const kb = Math.min(n, ka + block);
+    const tb = tOf(kb);
+    const xb = offsetNs(tb);
+    const bb = bandNs(tb);
+    range(ka, xa, ba, kb, xb, bb);
+    ka = kb;
+    xa = xb;
+    ba = bb;
   }
   const [upAt, upEarly, upLate, loAt, loEarly, loLate] = found;
   if (upAt === null && loAt === null) return { crossing: null, marginAt: null };

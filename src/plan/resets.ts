@@ -20,7 +20,8 @@ import type { NoiseLevels, OnboardClock } from '../clock/oscillator.ts';
 import { InputError, InternalError } from '../errors.ts';
 import { band95Ns, band95Of, bandSigmaOf, outsideProbability } from './band.ts';
 import { blackoutOf, blackoutsCover, type Blackout, type Contact } from './contacts.ts';
-import { crossingAfter, crossingAndMargin, signOf, type Crossing } from './crossing.ts';
+import { crossingAndMargin, signOf, type Crossing } from './crossing.ts';
+import { offsetBend, type OffsetBend } from './offsetBend.ts';
 import { CONTINUOUS_STEPS, type ClockSteps } from './quantise.ts';
 import { sizeAdjustment, type Strategy } from './strategy.ts';
 
@@ -178,6 +179,10 @@ class PlannedClock {
     this.cumFractionalAtS.push((n > 0 ? this.cumFractionalAtS[n - 1] : 0) + s.fractional * s.atTtJ2000S);
   }
   offsetNs(t: number): number {
+    return this.withStepsNs(this.clock.offsetNs(t), t);
+  }
+  /** The planned offset [ns] at t from the free-running offset x [ns] there. */
+  withStepsNs(x: number, t: number): number {
     // Last step at or before t (the scans ask mostly after the last one).
     const count = this.at.length;
     let lo = count > 0 && this.at[count - 1] <= t ? count : 0;
@@ -187,10 +192,15 @@ class PlannedClock {
       if (this.at[mid] <= t) lo = mid + 1;
       else hi = mid;
     }
-    const x = this.clock.offsetNs(t);
     if (lo === 0) return x;
     const i = lo - 1;
     return x + this.cumPhaseNs[i] + 1e9 * (this.cumFractional[i] * t - this.cumFractionalAtS[i]);
+  }
+  /** Size [ns] of the terms the steps add to the offset at instants up to |t| ≤ tMaxS (for rounding allowances). */
+  stepsMagnitudeNs(tMaxS: number): number {
+    const i = this.at.length - 1;
+    if (i < 0) return 0;
+    return Math.abs(this.cumPhaseNs[i]) + 1e9 * (Math.abs(this.cumFractional[i]) * Math.abs(tMaxS) + Math.abs(this.cumFractionalAtS[i]));
   }
   /** Window of one orbit centred on t, kept inside [from, to]. */
   private window(t: number, periodS: number, from: number, to: number): [number, number] {
@@ -242,7 +252,7 @@ interface StrategyPlan {
 }
 
 /** Plan one strategy to the horizon. */
-function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number): StrategyPlan {
+function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number, bend: OffsetBend | null, freeGridNs: Float64Array): StrategyPlan {
   const { limitNs: L, policy, fromTtJ2000S: from, toTtJ2000S: to } = req;
   const steps = req.steps ?? CONTINUOUS_STEPS;
   const nominalHz = req.nominalHz ?? DEFAULT_NOMINAL_HZ;
@@ -272,7 +282,8 @@ function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number)
     }
     const bandSince = since;
     const band = (t: number): number => band95(t - bandSince);
-    const { crossing, marginAt } = crossingAndMargin(offset, band, L, policy.marginNs > 0 ? L - policy.marginNs : null, since, to, scanStepS);
+    const skip = bend === null ? null : { bend, extraMagnitudeNs: planned.stepsMagnitudeNs(Math.max(Math.abs(since), Math.abs(to))) };
+    const { crossing, marginAt } = crossingAndMargin(offset, band, L, policy.marginNs > 0 ? L - policy.marginNs : null, since, to, scanStepS, skip);
     if (crossing === null) break;
     const s = signOf(crossing.side);
     const outsideNow = s * offset(since) >= L;
@@ -346,21 +357,43 @@ function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number)
     a.quantisationErrorNs = a.phaseStepNs - exact[i].phaseNs + (a.frequencyStep - exact[i].fractional) * 1e9 * (next - a.atTtJ2000S);
   });
   let minMarginNs = Infinity;
-  const n = Math.ceil((to - from) / scanStepS);
-  for (let k = 0; k <= n; k++) minMarginNs = Math.min(minMarginNs, L - Math.abs(offset(Math.min(to, from + k * scanStepS))));
+  for (let k = 0; k < freeGridNs.length; k++) minMarginNs = Math.min(minMarginNs, L - Math.abs(planned.withStepsNs(freeGridNs[k], Math.min(to, from + k * scanStepS))));
   return { adjustments, unplannable, minMarginNs };
 }
 
-/** Largest probability over [from, to] that the free-running offset is outside ±L at one instant. */
-function crossingProbability(req: ResetRequest): number {
+/** The free-running offset [ns] at the scan instants from the plan start: min(to, from + k·step), k = 0…n. */
+function freeGrid(req: ResetRequest): Float64Array {
   const { fromTtJ2000S: from, toTtJ2000S: to } = req;
   const step = scanStepOf(req.periodS);
   const n = Math.ceil((to - from) / step);
+  const grid = new Float64Array(Math.max(0, n + 1));
+  for (let k = 0; k <= n; k++) grid[k] = req.clock.offsetNs(Math.min(to, from + k * step));
+  return grid;
+}
+
+/** Scan points per block of crossingProbability. */
+const PROBABILITY_BLOCK = 64;
+/** Allowance [probability] for the normal tail's approximation (≤ 1.5e-7 per limit) and rounding. */
+const PROBABILITY_SLACK = 1e-6;
+
+/**
+ * Largest probability over [from, to] that the free-running offset is outside ±L at one instant
+ * (the largest over the scan points). Blocks of points are taken from the end, where the band is
+ * widest: inside the limit the probability grows with |x| and with the band, so a block whose
+ * largest |x| with its widest band stays below the largest so far cannot raise it and is passed.
+ */
+function crossingProbability(req: ResetRequest, freeGridNs: Float64Array): number {
+  const { fromTtJ2000S: from, toTtJ2000S: to, limitNs: L } = req;
+  const step = scanStepOf(req.periodS);
   const sigma = bandSigmaOf(req.noise);
+  const sigmaAt = (k: number): number => sigma(Math.min(to, from + k * step) - from);
   let p = 0;
-  for (let k = 0; k <= n; k++) {
-    const t = Math.min(to, from + k * step);
-    p = Math.max(p, outsideProbability(req.clock.offsetNs(t), sigma(t - from), req.limitNs));
+  for (let end = freeGridNs.length; end > 0; end -= PROBABILITY_BLOCK) {
+    const start = Math.max(0, end - PROBABILITY_BLOCK);
+    let xMaxNs = 0;
+    for (let k = start; k < end; k++) xMaxNs = Math.max(xMaxNs, Math.abs(freeGridNs[k]));
+    if (xMaxNs < L && outsideProbability(xMaxNs, sigmaAt(end - 1) * (1 + 1e-12), L) + PROBABILITY_SLACK < p) continue;
+    for (let k = start; k < end; k++) p = Math.max(p, outsideProbability(freeGridNs[k], sigmaAt(k), L));
   }
   return p;
 }
@@ -371,9 +404,12 @@ export function planResets(req: ResetRequest): SatelliteResetPlan {
   const periodicNs = periodicAmplitudeNs(req.clock, from, Math.min(to, from + req.periodS));
   const band95 = band95Of(req.noise);
   const freeBand = (t: number): number => band95(t - from);
-  const firstCrossing = crossingAfter((t) => req.clock.offsetNs(t), freeBand, L, from, to, scanStepOf(req.periodS));
+  const bend = offsetBend(req.clock, from, to);
+  const skip = bend === null ? null : { bend, extraMagnitudeNs: 0 };
+  const firstCrossing = crossingAndMargin((t) => req.clock.offsetNs(t), freeBand, L, null, from, to, scanStepOf(req.periodS), skip).crossing;
   const prefer = req.policy.prefer;
-  const main = planStrategy(req, prefer, periodicNs);
+  const grid = freeGrid(req);
+  const main = planStrategy(req, prefer, periodicNs, bend, grid);
   const summary = (s: Strategy, p: StrategyPlan): StrategySummary => ({
     prefer: s,
     adjustments: p.adjustments.length,
@@ -382,7 +418,7 @@ export function planResets(req: ResetRequest): SatelliteResetPlan {
     maxFrequencyStep: p.adjustments.reduce((m, a) => Math.max(m, Math.abs(a.frequencyStep)), 0),
     unplannable: p.unplannable !== null,
   });
-  const strategies = (req.compare ?? true) ? STRATEGIES.map((s) => summary(s, s === prefer ? main : planStrategy(req, s, periodicNs))) : [summary(prefer, main)];
+  const strategies = (req.compare ?? true) ? STRATEGIES.map((s) => summary(s, s === prefer ? main : planStrategy(req, s, periodicNs, bend, grid))) : [summary(prefer, main)];
   const notes: string[] = [];
   if (blackoutsCover(req.satellite, req.policy.blackouts ?? [], from, to)) notes.push(`blackouts cover the whole horizon for ${req.satellite}: no adjustment can be planned`);
   return {
@@ -392,7 +428,7 @@ export function planResets(req: ResetRequest): SatelliteResetPlan {
     targetNs: req.policy.targetNs ?? 0,
     nominalHz: req.nominalHz ?? DEFAULT_NOMINAL_HZ,
     firstCrossing,
-    crossingProbabilityWithinHorizon: crossingProbability(req),
+    crossingProbabilityWithinHorizon: crossingProbability(req, grid),
     adjustments: main.adjustments,
     unplannable: main.unplannable,
     startsOutside: Math.abs(req.clock.offsetNs(from)) >= L,
