@@ -24,6 +24,12 @@ export interface CompareOptions extends CommonOptions {
    * run; each figure equals that of the whole comparison bit for bit. Default: every clock.
    */
   clocks?: readonly string[];
+  /**
+   * Of `clocks`, those that get a row in `clocks` of the result (their mean rate, drift, periodic
+   * amplitude); the others serve only as partners in pairs, which saves most of their cost.
+   * Default: every computed clock.
+   */
+  rows?: readonly string[];
 }
 
 /** The header of a comparison. */
@@ -55,11 +61,11 @@ export function runCompare(scenario: ScenarioSpec, options?: CompareOptions): Co
   const against = options?.against;
   const ids = [...scenario.satellites.map((s) => s.id), ...scenario.stations.map((s) => s.id)];
   if (against !== undefined && !ids.includes(against)) throw new InputError(`no clock ${JSON.stringify(against)} in the scenario`, '--against', `use a satellite or station id (${ids.slice(0, 8).join(', ')})`);
-  for (const id of options?.clocks ?? []) {
+  for (const id of [...(options?.clocks ?? []), ...(options?.rows ?? [])]) {
     if (!ids.includes(id)) throw new InputError(`no clock ${JSON.stringify(id)} in the scenario`, 'clocks', `use a satellite or station id (${ids.slice(0, 8).join(', ')})`);
   }
-  const only = options?.clocks === undefined ? undefined : new Set(options.clocks);
-  const all = compareScenario(scenario, ts, gravity, from, to, resolveOrbit, against, only);
+  const subset = { clocks: options?.clocks === undefined ? undefined : new Set(options.clocks), figures: options?.rows === undefined ? undefined : new Set(options.rows) };
+  const all = compareScenario(scenario, ts, gravity, from, to, resolveOrbit, against, subset);
   const keepAll = against === undefined || options?.pairs === 'all';
   const result = keepAll ? all : { ...all, pairs: all.pairs.filter((p) => p.a === against || p.b === against) };
   const notes = scenario.stations.filter((s) => !s.geoidHeightGiven && s.body !== 'moon').map((s) => missingGeoidNote(s.id));

@@ -84,7 +84,7 @@ export function computeReportParts(a: ReportPartArgs, ts: TimeSystem, scenario: 
     fits.push({ satellite: s.id, stem: measured === 1 ? 'fit' : `fit-${fileStem(s.id)}`, result });
   }
 
-  const compareRun = computeCompare({ scenario: a.scenario, from: a.from, to: a.to }, ts, scenario, share?.compare.clocks);
+  const compareRun = computeCompare({ scenario: a.scenario, from: a.from, to: a.to }, ts, scenario, share?.compare);
   const compare = share === undefined ? compareRun : { ...compareRun, result: { ...compareRun.result, clocks: compareRun.result.clocks.filter((c) => share.compare.keepClock(c.id)), pairs: compareRun.result.pairs.filter((p) => share.compare.keepPair(p.a, p.b)) } };
   // The rate against altitude puts the scenario's orbits in context (circular orbits at 55°).
   const sweep = share === undefined || share.first ? computeSweep({ fromKm: 300, toKm: 40000, points: 120, e: 0, iDeg: 55, gravity: ctx.gravity.name, epoch: ts.format(ctx.scenario.window.start) }, ts) : null;

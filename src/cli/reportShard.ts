@@ -47,7 +47,7 @@ export function writeReportShard(a: ReportShardArgs, ts: TimeSystem, shard: Shar
   const plan = compareShardPlan(order, scenario.stations.map((s) => s.id), shard, undefined, true);
   const parts = computeReportParts(a, ts, scenario, {
     satellites,
-    compare: { scenario, clocks: plan.needed, keepClock: (id) => plan.rows.has(id), keepPair: plan.ownsPair },
+    compare: { scenario, clocks: plan.needed, rows: plan.order.filter((id) => plan.rows.has(id)), keepClock: (id) => plan.rows.has(id), keepPair: plan.ownsPair },
     first: shard.k === 1,
   });
   const tag = (command: string, tagOrder: string[] = order): ShardTag => ({ command, index: shard.k, count: shard.n, order: tagOrder });

@@ -74,14 +74,29 @@ const SERIES_SAMPLES = 400;
 /** ∫ y dt between two instants for a clock. */
 type Elapsed = (from: number, to: number) => number;
 
+/** Which clocks a comparison computes (e.g. one shard's): default every clock, each with its figures. */
+export interface CompareSubset {
+  /** Clocks to integrate; the pairs are formed among them. */
+  clocks?: ReadonlySet<string>;
+  /** Of those, the clocks that get a row in `clocks` (their figures); the others only serve in pairs. */
+  figures?: ReadonlySet<string>;
+}
+
+/** A computed clock as the pairs and series see it. */
+type Member = Pick<ClockComparison, 'id' | 'fromTtJ2000S' | 'toTtJ2000S' | 'flightEndTtJ2000S'>;
+
 /**
  * Compare clocks over [from, to]. `against` names the reference clock of the offset series (a
- * satellite or station id); without it the series are against TT. With `only`, only those clocks
- * (and the pairs among them) are computed; every flight in `sats` still widens the window.
+ * satellite or station id); without it the series are against TT. With `subset`, only those clocks
+ * (and the pairs among them) are computed; every flight in `sats` still widens the window, so each
+ * figure equals the whole comparison's bit for bit.
  */
-export function compareClocks(sats: CompareSatellite[], stations: BodyStation[], gravity: GravityModel, fromTtJ2000S: number, toTtJ2000S: number, against?: string, only?: ReadonlySet<string>): CompareResult {
+export function compareClocks(sats: CompareSatellite[], stations: BodyStation[], gravity: GravityModel, fromTtJ2000S: number, toTtJ2000S: number, against?: string, subset?: CompareSubset): CompareResult {
   const clocks: ClockComparison[] = [];
+  const members: Member[] = [];
   const elapsed = new Map<string, Elapsed>();
+  const only = subset?.clocks;
+  const wantsFigures = (id: string): boolean => subset?.figures === undefined || subset.figures.has(id);
   // Orbits are integrated over the window, widened to cover every flight so pairs can be formed.
   let lo = fromTtJ2000S;
   let hi = toTtJ2000S;
@@ -102,10 +117,12 @@ export function compareClocks(sats: CompareSatellite[], stations: BodyStation[],
     const [track] = integrateAlong(s.trajectory, from, to, maxStep, [(x, y, z, vx, vy, vz, t) => fractionalOffset(gravity, x, y, z, vx, vy, vz, t)]);
     const reportFrom = s.flight === null ? fromTtJ2000S : from;
     const reportTo = s.flight === null ? toTtJ2000S : to;
+    elapsed.set(s.id, (a, b) => track.integralAt(b) - track.integralAt(a));
+    members.push({ id: s.id, fromTtJ2000S: reportFrom, toTtJ2000S: reportTo, flightEndTtJ2000S: s.flight?.endTtJ2000S ?? null });
+    if (!wantsFigures(s.id)) continue; // a partner in pairs only: its figures (most of the cost) are not needed
     // A flight is no orbit: its mean is the plain average over the flight, not an orbit-mean slope.
     const body = bodyOf(s.trajectory);
     const fig = s.flight !== null ? flightFigures(track, reportFrom, reportTo) : body === 'moon' ? lunarTrackFigures(s.trajectory, track, lunarFieldOf(gravity), reportFrom, reportTo, true) : trackFigures(s.trajectory, track, reportFrom, reportTo);
-    elapsed.set(s.id, (a, b) => track.integralAt(b) - track.integralAt(a));
     clocks.push({
       id: s.id,
       kind: 'satellite',
@@ -124,8 +141,10 @@ export function compareClocks(sats: CompareSatellite[], stations: BodyStation[],
     if (st.body === 'moon') {
       // A clock at rest on the Moon: its rate follows the Earth–Moon distance (monthly term), so it is integrated.
       const { trajectory, track } = lunarStationTrack(st, gravity, fromTtJ2000S, toTtJ2000S);
-      const fig = lunarTrackFigures(trajectory, track, lunarFieldOf(gravity), fromTtJ2000S, toTtJ2000S, false);
       elapsed.set(st.id, (a, b) => track.integralAt(b) - track.integralAt(a));
+      members.push({ id: st.id, fromTtJ2000S, toTtJ2000S, flightEndTtJ2000S: null });
+      if (!wantsFigures(st.id)) continue;
+      const fig = lunarTrackFigures(trajectory, track, lunarFieldOf(gravity), fromTtJ2000S, toTtJ2000S, false);
       clocks.push({
         id: st.id,
         kind: 'station',
@@ -143,6 +162,8 @@ export function compareClocks(sats: CompareSatellite[], stations: BodyStation[],
     const r = geodeticToEcefM(st.latDeg, st.lonDeg, st.heightM);
     const y = groundClockFractionalOffset(gravity, r[0], r[1], r[2], st.geoidHeightM);
     elapsed.set(st.id, (a, b) => y * (b - a));
+    members.push({ id: st.id, fromTtJ2000S, toTtJ2000S, flightEndTtJ2000S: null });
+    if (!wantsFigures(st.id)) continue;
     clocks.push({
       id: st.id,
       kind: 'station',
@@ -157,10 +178,10 @@ export function compareClocks(sats: CompareSatellite[], stations: BodyStation[],
     });
   }
   const pairs: PairComparison[] = [];
-  for (let i = 0; i < clocks.length; i++) {
-    for (let j = i + 1; j < clocks.length; j++) {
-      const a = clocks[i];
-      const b = clocks[j];
+  for (let i = 0; i < members.length; i++) {
+    for (let j = i + 1; j < members.length; j++) {
+      const a = members[i];
+      const b = members[j];
       // Common interval: a flight's own interval when either is a flight, else the window.
       const flight = a.flightEndTtJ2000S !== null ? a : b.flightEndTtJ2000S !== null ? b : null;
       const from = flight === null ? fromTtJ2000S : flight.fromTtJ2000S;
@@ -171,9 +192,9 @@ export function compareClocks(sats: CompareSatellite[], stations: BodyStation[],
       pairs.push({ a: a.id, b: b.id, elapsedDifferenceNs: (ea - eb) * 1e9, fromTtJ2000S: from, toTtJ2000S: to });
     }
   }
-  const ref = against === undefined ? null : (clocks.find((c) => c.id === against) ?? null);
+  const ref = against === undefined ? null : (members.find((c) => c.id === against) ?? null);
   const series: CompareSeries[] = [];
-  for (const c of clocks) {
+  for (const c of members) {
     if (ref !== null && c.id === ref.id) continue;
     // Common interval with the reference (TT covers everything).
     const from = Math.max(c.fromTtJ2000S, ref?.fromTtJ2000S ?? c.fromTtJ2000S);

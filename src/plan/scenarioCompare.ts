@@ -4,7 +4,7 @@ import type { GravityModel } from '../orbit/gravity.ts';
 import type { OrbitResolver } from '../orbit/source.ts';
 import type { SatelliteSpec, ScenarioSpec } from '../model/scenario.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
-import { compareClocks, type CompareResult, type CompareSatellite } from './compare.ts';
+import { compareClocks, type CompareResult, type CompareSatellite, type CompareSubset } from './compare.ts';
 
 /** An orbit integrated from a state (Earth-centred Keplerian or state vector) may be a sub-orbital flight. */
 function mayBeFlight(sat: SatelliteSpec): boolean {
@@ -14,17 +14,18 @@ function mayBeFlight(sat: SatelliteSpec): boolean {
 
 /**
  * Compare all clocks of `scenario` over [from, to] (s since J2000.0 TT). With `against` (a satellite
- * or station id) the pairs are formed against that clock; the caller filters them. With `only`
- * (clock ids), just those clocks and the pairs among them are computed; the other satellites are
+ * or station id) the pairs are formed against that clock; the caller filters them. With `subset`,
+ * just those clocks and the pairs among them are computed (./compare.ts); the other satellites are
  * resolved only when they may be a flight, whose interval widens every orbit's integration, so
  * the figures equal those of the whole comparison bit for bit.
  */
-export function compareScenario(scenario: ScenarioSpec, ts: TimeSystem, gravity: GravityModel, fromTtJ2000S: number, toTtJ2000S: number, resolveOrbit: OrbitResolver, against?: string, only?: ReadonlySet<string>): CompareResult {
+export function compareScenario(scenario: ScenarioSpec, ts: TimeSystem, gravity: GravityModel, fromTtJ2000S: number, toTtJ2000S: number, resolveOrbit: OrbitResolver, against?: string, subset?: CompareSubset): CompareResult {
+  const only = subset?.clocks;
   const resolved = only === undefined ? scenario.satellites : scenario.satellites.filter((sat) => only.has(sat.id) || mayBeFlight(sat));
   const sats: CompareSatellite[] = resolved.map((sat) => {
     const { trajectory } = resolveOrbit(sat, scenario, ts, gravity, { fromTtJ2000S, toTtJ2000S });
     const flightEnd = trajectory instanceof NumericalTrajectory ? trajectory.flightEndTtJ2000S : null;
     return { id: sat.id, trajectory, flight: flightEnd === null ? null : { startTtJ2000S: trajectory.validFromTtJ2000S, endTtJ2000S: flightEnd } };
   });
-  return compareClocks(sats, scenario.stations, gravity, fromTtJ2000S, toTtJ2000S, against, only);
+  return compareClocks(sats, scenario.stations, gravity, fromTtJ2000S, toTtJ2000S, against, subset);
 }

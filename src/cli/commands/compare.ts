@@ -27,13 +27,13 @@ export interface CompareArgs {
 }
 
 /** The comparison of a scenario file (also a part of `report`); `parsed`: the scenario already read. */
-export function computeCompare(a: CompareArgs, ts: TimeSystem, parsed?: ScenarioSpec, clocks?: readonly string[]): CompareRun {
-  return compareScenario(parsed ?? loadScenario(a.scenario, ts), { timeSystem: ts, from: a.from, to: a.to, against: a.against, pairs: a.pairs as 'all' | 'against' | undefined, clocks });
+export function computeCompare(a: CompareArgs, ts: TimeSystem, parsed?: ScenarioSpec, share?: Pick<CompareShare, 'clocks' | 'rows'>): CompareRun {
+  return compareScenario(parsed ?? loadScenario(a.scenario, ts), { timeSystem: ts, from: a.from, to: a.to, against: a.against, pairs: a.pairs as 'all' | 'against' | undefined, clocks: share?.clocks, rows: share?.rows });
 }
 
 /** The whole comparison, or with `share` one shard's rows and pairs (JSON and CSV only). */
 export function runCompare(a: CompareArgs, ts: TimeSystem, share?: CompareShare): Rendered {
-  const run = computeCompare(a, ts, share?.scenario, share?.clocks);
+  const run = computeCompare(a, ts, share?.scenario, share);
   const { meta, notes } = run;
   const result = share === undefined ? run.result : { ...run.result, clocks: run.result.clocks.filter((c) => share.keepClock(c.id)), pairs: run.result.pairs.filter((p) => share.keepPair(p.a, p.b)) };
   return {
