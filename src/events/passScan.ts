@@ -27,7 +27,7 @@
  * The same bound over a chunk of the grid lets a station below the mask skip the samples before the
  * first instant the satellite could reach its mask (StationScan.skipAhead).
  */
-import { WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../constants.ts';
+import { WGS84_A_M, WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../constants.ts';
 import { stateInto, type Trajectory } from '../orbit/trajectory.ts';
 import { stationFrame } from './lookAngles.ts';
 import { bracketedRoot, hermiteExtremumGuessS, hermiteRootGuessS } from './passRoots.ts';
@@ -39,9 +39,24 @@ const DEG = Math.PI / 180;
 export const TIME_TOLERANCE_S = 1e-3;
 /** Cap on Newton steps per root before the Illinois finder takes the remaining bracket. */
 const NEWTON_MAX_ITERATIONS = 12;
-/** The rate used for a step must agree with the secant slope within this fraction to stop on it. */
-const SLOPE_AGREEMENT = 0.1;
-/** Radius [m] below which the reach bound is not trusted: inside the Earth (polar radius 6 356 752 m). */
+/** Largest Newton correction [s] the iteration may stop on (without evaluating its result). */
+const MAX_FINAL_STEP_S = 0.1;
+/** Predicted error [s] of the corrected time the iteration stops on: a tenth of the tolerance. */
+const STOP_ERROR_S = 1e-4;
+/** A correction this small [s] is taken whatever the curvature estimate (its error is a fraction of it). */
+const NEGLIGIBLE_STEP_S = 1e-5;
+/**
+ * Relative error allowed in the rate of f (the state's velocity as the derivative of its position:
+ * SGP4's own velocity differs by ≤ 4e-6) and of g (model acceleration with J2: the Moon, the Sun and
+ * drag are below 1e-5 of gravity), and the largest disagreement with the secant slope accepted.
+ */
+const F_RATE_RELATIVE_ERROR = 1e-5;
+const G_RATE_RELATIVE_ERROR = 1e-4;
+const F_SLOPE_MISMATCH = 0.5;
+const G_SLOPE_MISMATCH = 0.1;
+/** Earth's J2 [1] (WGS-84/EGM96 normalised C̄20 = −4.841 65e-4 → 1.082 63e-3; from memory), for the model acceleration only. */
+const EARTH_J2 = 1.08263e-3;
+/** Radius [m] the satellite is taken never to go below: inside the Earth (polar radius 6 356 752 m). */
 const REACH_FLOOR_RADIUS_M = 6.3e6;
 /** Factor on point-mass gravity in the acceleration bound (free fall: perturbations ≪ 1). */
 const REACH_GRAVITY_MARGIN = 2;
@@ -49,8 +64,8 @@ const REACH_GRAVITY_MARGIN = 2;
 /**
  * Bound [m/s] on the earth-fixed speed at any instant within `halfGapS` of a grid sample, from the
  * samples' largest speed and their radii, for a free-falling satellite (module comment):
- * |a| ≤ 2·GM/r² + 2ωV + ω²r. Infinity when the bound cannot be trusted (the span could dip below
- * {@link REACH_FLOOR_RADIUS_M}, or the gap is too long for the rotating-frame terms).
+ * |a| ≤ 2·GM/r² + 2ωV + ω²r with r ≥ {@link REACH_FLOOR_RADIUS_M}. Infinity when the gap is too
+ * long for the rotating-frame terms.
  */
 export function earthFixedSpeedBoundMPerS(vMaxMPerS: number, rMinM: number, rMaxM: number, halfGapS: number): number {
   const w = WGS84_OMEGA_RAD_PER_S;
@@ -60,11 +75,25 @@ export function earthFixedSpeedBoundMPerS(vMaxMPerS: number, rMinM: number, rMax
   const denom = 1 - 2 * w * d - w * w * d * d;
   if (!(denom > 0.5)) return Infinity;
   const vCrude = (vMaxMPerS + d * (gFloor + w * w * rMaxM)) / denom;
-  const rLow = rMinM - vCrude * d;
-  if (!(rLow > REACH_FLOOR_RADIUS_M)) return Infinity;
   // Then with gravity at the lowest radius the span allows.
-  const accel = (REACH_GRAVITY_MARGIN * WGS84_GM_M3_PER_S2) / (rLow * rLow) + 2 * w * vCrude + w * w * (rMaxM + vCrude * d);
-  return vMaxMPerS + accel * d;
+  return vMaxMPerS + earthFixedAccelBoundMPerS2(vCrude, rMinM, rMaxM, d) * d;
+}
+
+/**
+ * Bound [m/s²] on the earth-fixed acceleration within `halfGapS` of the samples, for speeds ≤
+ * vBoundMPerS: 2·GM/r² at the lowest radius reachable (not below {@link REACH_FLOOR_RADIUS_M}: the
+ * satellite does not go underground), plus the Coriolis and centrifugal terms.
+ */
+function earthFixedAccelBoundMPerS2(vBoundMPerS: number, rMinM: number, rMaxM: number, halfGapS: number): number {
+  const w = WGS84_OMEGA_RAD_PER_S;
+  const rLow = Math.max(REACH_FLOOR_RADIUS_M, rMinM - vBoundMPerS * halfGapS);
+  return (REACH_GRAVITY_MARGIN * WGS84_GM_M3_PER_S2) / (rLow * rLow) + 2 * w * vBoundMPerS + w * w * (rMaxM + vBoundMPerS * halfGapS);
+}
+
+/** A first guess [s] kept a quarter tolerance inside the bin [0, widthS]. */
+function clampInside(guessS: number, widthS: number): number {
+  const margin = 0.25 * TIME_TOLERANCE_S;
+  return Math.min(widthS - margin, Math.max(margin, guessS));
 }
 
 /** Earth-fixed states of one trajectory, counted. */
@@ -146,6 +175,10 @@ export class StationScan {
   private eax = 0;
   private eay = 0;
   private eaz = 0;
+  // Bounds of the bin last checked by mayReachMask: earth-fixed speed [m/s], acceleration [m/s²], least range [m].
+  private binSpeedBoundMPerS = Infinity;
+  private binAccelBoundMPerS2 = Infinity;
+  private binRangeLowM = 0;
   /** Offset [s] from the last evaluated state to the root the last refinement returned, NaN when unknown. */
   private rootOffsetS = Number.NaN;
   // f and elevation [rad] at a knot, from {@link knotValues}.
@@ -236,8 +269,18 @@ export class StationScan {
       let fk = f;
       let elk = Number.NaN;
       if (g !== 0) {
-        const guess = hermiteExtremumGuessS(f0, d0, f, d1, t - t0);
-        tk = this.refine(true, t0, g0, t, g, guess, `elevation rate for station ${this.station.id}`);
+        const guess = clampInside(hermiteExtremumGuessS(f0, d0, f, d1, t - t0), t - t0);
+        let evaluated = false;
+        if (isMax && f0 <= 0 && f <= 0) {
+          // A maximum that may reach the mask: one state near it usually settles that it does not.
+          this.evalAt(t0 + guess);
+          evaluated = true;
+          if (this.ef <= 0 && !this.mayReachMaskFromEvaluation()) {
+            this.visit(t, f, Number.NaN);
+            return;
+          }
+        }
+        tk = this.refine(true, t0, g0, t, g, guess, `elevation rate for station ${this.station.id}`, evaluated);
         if (Number.isNaN(this.rootOffsetS)) {
           this.evalAt(tk);
           this.rootOffsetS = 0;
@@ -267,8 +310,24 @@ export class StationScan {
     const vMax = Math.max(Math.hypot(a[3], a[4], a[5]), Math.hypot(b[3], b[4], b[5]));
     const v = earthFixedSpeedBoundMPerS(vMax, Math.min(r0, r1), Math.max(r0, r1), 0.5 * h);
     const rhoLow = 0.5 * (rho0M + rho1M - v * h);
+    this.binSpeedBoundMPerS = v;
+    this.binRangeLowM = rhoLow;
+    this.binAccelBoundMPerS2 = earthFixedAccelBoundMPerS2(v, Math.min(r0, r1), Math.max(r0, r1), 0.5 * h);
     if (!(rhoLow > 0)) return true;
     return f0 + f1 + (v * h) / rhoLow > 0;
+  }
+
+  /**
+   * After {@link mayReachMask} of the same bin and an evaluation inside it (ef, ed): whether sin(el)
+   * may reach sin(mask) in the bin. |d²ρ̂/dt²| ≤ |a|/ρ + 3V²/ρ², so sin(el) stays under the parabola
+   * f + ḟ·τ + Mτ²/2 of the evaluated point, whose top is f + ḟ²/(2M).
+   */
+  private mayReachMaskFromEvaluation(): boolean {
+    const rho = this.binRangeLowM;
+    if (!(rho > 0) || !Number.isFinite(this.binAccelBoundMPerS2)) return true;
+    const v = this.binSpeedBoundMPerS;
+    const m = this.binAccelBoundMPerS2 / rho + (3 * v * v) / (rho * rho);
+    return this.ef + (this.ed * this.ed) / (2 * m) > 0;
   }
 
   /** Monotonic piece [ta, tb] with values and rates at its ends: at most one mask crossing. */
@@ -307,13 +366,16 @@ export class StationScan {
     this.ef = u / rho - this.sinMask;
     this.ed = g / (rho2 * rho);
     this.eg = g;
-    // Earth-fixed acceleration: point-mass gravity, Coriolis −2ω×v and centrifugal −ω×(ω×r).
+    // Earth-fixed acceleration: gravity to J2, Coriolis −2ω×v and centrifugal −ω×(ω×r).
     const w = WGS84_OMEGA_RAD_PER_S;
     const r2 = x * x + y * y + z * z;
     const k = -WGS84_GM_M3_PER_S2 / (r2 * Math.sqrt(r2));
-    const ax = k * x + 2 * w * vy + w * w * x;
-    const ay = k * y - 2 * w * vx + w * w * y;
-    const az = k * z;
+    const j = (1.5 * EARTH_J2 * WGS84_A_M * WGS84_A_M) / r2;
+    const zz = (5 * z * z) / r2;
+    const kxy = k * (1 - j * (zz - 1));
+    const ax = kxy * x + 2 * w * vy + w * w * x;
+    const ay = kxy * y - 2 * w * vx + w * w * y;
+    const az = k * (1 - j * (zz - 3)) * z;
     this.eax = ax;
     this.eay = ay;
     this.eaz = az;
@@ -325,7 +387,7 @@ export class StationScan {
   /**
    * f and the elevation [rad] (atan2 of the up and horizontal components, full precision at the
    * zenith) at `offsetS` from the last evaluated state, by a second-order Taylor step of its
-   * position (offsets ≤ 1 ms: the dropped third-order term is below a micrometre), into knotF and knotElRad.
+   * position (offsets ≤ 0.1 s: the dropped third-order term is below a few millimetres), into knotF and knotElRad.
    */
   private knotValues(offsetS: number): void {
     const e = this.ev.state;
@@ -353,18 +415,19 @@ export class StationScan {
    * first guess `guessS` (offset from ta): the safeguarded Newton iteration of the module comment.
    * Sets {@link rootOffsetS}.
    */
-  private refine(onRate: boolean, ta: number, va: number, tb: number, vb: number, guessS: number, what: string): number {
+  private refine(onRate: boolean, ta: number, va: number, tb: number, vb: number, guessS: number, what: string, evaluated = false): number {
     let lo = 0;
     let hi = tb - ta;
     let vlo = va;
     let vhi = vb;
-    const margin = 0.25 * TIME_TOLERANCE_S;
-    let x = Math.min(hi - margin, Math.max(lo + margin, guessS));
+    let x = clampInside(guessS, hi);
     // The previous point of the secant check: the bracket end nearer the guess.
     let xPrev = x - lo <= hi - x ? lo : hi;
     let vPrev = xPrev === lo ? vlo : vhi;
+    const relativeRateError = onRate ? G_RATE_RELATIVE_ERROR : F_RATE_RELATIVE_ERROR;
+    const slopeMismatch = onRate ? G_SLOPE_MISMATCH : F_SLOPE_MISMATCH;
     for (let k = 0; k < NEWTON_MAX_ITERATIONS; k++) {
-      this.evalAt(ta + x);
+      if (k > 0 || !evaluated) this.evalAt(ta + x);
       const v = onRate ? this.eg : this.ef;
       const rate = onRate ? this.egDot : this.ed;
       if (v === 0) {
@@ -379,8 +442,11 @@ export class StationScan {
         vhi = v;
       }
       const stepS = -v / rate;
-      const secant = (v - vPrev) / (x - xPrev);
-      if (Math.abs(stepS) <= TIME_TOLERANCE_S && Math.abs(secant - rate) <= SLOPE_AGREEMENT * Math.abs(rate)) {
+      const size = Math.abs(stepS);
+      // |F''/F'| ≈ 2·mismatch/|x − xPrev| from the secant; the corrected time's error ≈ |F''/(2F')|·step².
+      const mismatch = Math.abs((v - vPrev) / (x - xPrev) - rate) / Math.abs(rate);
+      const predictedErrorS = (4 * mismatch * size * size) / Math.abs(x - xPrev) + relativeRateError * size;
+      if (mismatch <= slopeMismatch && (size <= NEGLIGIBLE_STEP_S || (size <= MAX_FINAL_STEP_S && predictedErrorS <= STOP_ERROR_S))) {
         const xr = Math.min(hi, Math.max(lo, x + stepS));
         this.rootOffsetS = xr - x;
         return ta + xr;
