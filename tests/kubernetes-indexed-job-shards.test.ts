@@ -83,21 +83,25 @@ describe('Kubernetes Indexed Job: --shard auto --shard-count', () => {
     for (const f of wanted) expect(readFileSync(join(dir, 'rep-merged', f), 'utf8'), f).toBe(one(f));
   }, 240_000); // shard processes start at once: slow on a loaded machine
 
-  it('report shard folders: a missing shard, a shard given twice, a file among the folders, a folder that is no shard folder are one-line input errors (exit 2), and no merged folder is made', async () => {
-    // The folders of the test above.
+  it('report shard folders: a missing shard, a shard given twice, a shard of another run, a file among the folders, a folder that is no shard folder are one-line input errors (exit 2), and no merged folder is made', async () => {
+    // The folders of the test above, and one shard of a report on another scenario.
     const pod = (i: number): string => join(dir, `rep-pod${i}`);
-    const [missing, notShard, mixed, twice] = await Promise.all([
+    const other = await startCli(['report', DEMO, '--shard', '2/4', '--quiet', '--out', join(dir, 'rep-other')], {});
+    expect(other.code, other.stderr).toBe(0);
+    const [missing, notShard, mixed, twice, foreign] = await Promise.all([
       startCli(['merge', pod(0), pod(1), pod(3), '--out', join(dir, 'bad-1')], {}),
       startCli(['merge', pod(0), pod(1), pod(2), join(dir, 'rep-one'), '--out', join(dir, 'bad-2')], {}),
       startCli(['merge', pod(0), pod(1), pod(2), pod(3), join(dir, 'nav-pod0.json'), '--out', join(dir, 'bad-3')], {}),
       startCli(['merge', pod(0), pod(1), pod(2), pod(2), '--out', join(dir, 'bad-4')], {}),
+      startCli(['merge', pod(0), join(dir, 'rep-other'), pod(2), pod(3), '--out', join(dir, 'bad-5')], {}),
     ]);
-    for (const r of [missing, notShard, mixed, twice]) expect(r.stderr).toMatch(ONE_LINE_ERROR);
-    for (const r of [missing, notShard, mixed, twice]) expect(r.code, r.stderr).toBe(2);
+    for (const r of [missing, notShard, mixed, twice, foreign]) expect(r.stderr).toMatch(ONE_LINE_ERROR);
+    for (const r of [missing, notShard, mixed, twice, foreign]) expect(r.code, r.stderr).toBe(2);
+    expect(foreign.stderr).toMatch(/rep-other comes from another report run than .*rep-pod0/);
     expect(missing.stderr).toMatch(/^tauplan: shard 3\/4 of the report is missing/);
     expect(notShard.stderr).toMatch(/rep-one is not a report shard folder \(no shard\.json\)/);
     expect(twice.stderr).toMatch(/^tauplan: shard 3\/4 appears twice/);
-    for (const k of [1, 2, 3, 4]) expect(existsSync(join(dir, `bad-${k}`, 'passes.json'))).toBe(false);
+    for (const k of [1, 2, 3, 4, 5]) expect(existsSync(join(dir, `bad-${k}`, 'passes.json'))).toBe(false);
   }, 240_000);
 
   it('an index without --shard-count, or outside it, is a one-line input error (exit 2)', async () => {
