@@ -251,6 +251,53 @@ interface StrategyPlan {
   minMarginNs: number;
 }
 
+/** Index of the first contact (sorted by AOS) whose AOS is after t. */
+function firstAosAfter(contacts: readonly Contact[], t: number): number {
+  let lo = 0;
+  let hi = contacts.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (contacts[mid].aosTtJ2000S > t) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo;
+}
+
+const usableAfter = (c: Contact, since: number): boolean => c.uplink !== false && c.aosTtJ2000S > since && c.tcaTtJ2000S > since;
+
+/**
+ * The first uplink pass after `since` (ideal) and the first one allowed (`why` null), contacts
+ * sorted by AOS (`ordered`: all times are numbers, so the sort holds and a search can skip the past).
+ */
+function passAfter(contacts: readonly Contact[], since: number, why: (c: Contact) => MovedFrom | null, ordered: boolean): { chosen: Contact | undefined; ideal: Contact | undefined } {
+  let ideal: Contact | undefined;
+  for (let i = ordered ? firstAosAfter(contacts, since) : 0; i < contacts.length; i++) {
+    const c = contacts[i];
+    if (!usableAfter(c, since)) continue;
+    ideal ??= c;
+    if (why(c) === null) return { chosen: c, ideal };
+  }
+  return { chosen: undefined, ideal };
+}
+
+/**
+ * The last uplink pass after `since` that ends by `deadline` (ideal) and the last such one allowed,
+ * contacts sorted by AOS. `ordered` (no pass ends before it begins): passes beginning after the
+ * deadline are not looked at.
+ */
+function passBefore(contacts: readonly Contact[], since: number, deadline: number, why: (c: Contact) => MovedFrom | null, ordered: boolean): { chosen: Contact | undefined; ideal: Contact | undefined } {
+  let ideal: Contact | undefined;
+  const first = ordered ? firstAosAfter(contacts, since) : 0;
+  const end = ordered ? firstAosAfter(contacts, deadline) : contacts.length;
+  for (let i = end - 1; i >= first; i--) {
+    const c = contacts[i];
+    if (!usableAfter(c, since) || !(c.losTtJ2000S <= deadline)) continue;
+    ideal ??= c;
+    if (why(c) === null) return { chosen: c, ideal };
+  }
+  return { chosen: undefined, ideal };
+}
+
 /** Plan one strategy to the horizon. */
 function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number, bend: OffsetBend | null, freeGridNs: Float64Array): StrategyPlan {
   const { limitNs: L, policy, fromTtJ2000S: from, toTtJ2000S: to } = req;
@@ -261,6 +308,8 @@ function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number,
   const blackouts = policy.blackouts ?? [];
   const planned = new PlannedClock(req.clock);
   const contacts = [...req.contacts].sort((a, b) => a.aosTtJ2000S - b.aosTtJ2000S);
+  // Every pass ends no earlier than it begins (and no time is NaN): a pass ending by a deadline begins by it too.
+  const ordered = contacts.every((c) => c.losTtJ2000S >= c.aosTtJ2000S);
   const scanStepS = scanStepOf(req.periodS);
   const agingNsPerS2 = req.clock.params === null ? 0 : (req.clock.params.agingPerDay / SECONDS_PER_DAY) * 1e9;
   const usableNs = L - policy.marginNs - PERIODIC_ALLOWANCE * periodicNs - PERIODIC_ALLOWANCE_NS;
@@ -296,17 +345,7 @@ function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number,
       if (c.tcaTtJ2000S < spacingFloor) return { station: c.station, tcaTtJ2000S: c.tcaTtJ2000S, because: 'minSpacing', blackout: null, minSpacingS };
       return null;
     };
-    const uplink = contacts.filter((c) => c.uplink !== false && c.aosTtJ2000S > since && c.tcaTtJ2000S > since);
-    let chosen: Contact | undefined;
-    let ideal: Contact | undefined;
-    if (outsideNow) {
-      ideal = uplink[0];
-      chosen = uplink.find((c) => why(c) === null);
-    } else {
-      const before = uplink.filter((c) => c.losTtJ2000S <= deadline);
-      ideal = before.at(-1);
-      chosen = before.filter((c) => why(c) === null).at(-1);
-    }
+    const { chosen, ideal } = outsideNow ? passAfter(contacts, since, why, ordered) : passBefore(contacts, since, deadline, why, ordered);
     if (chosen === undefined) {
       let reason: string;
       if (outsideNow) reason = ideal === undefined ? 'the clock is outside its limit and no uplink pass follows within the horizon' : 'the clock is outside its limit and every later uplink pass is in a blackout or within the minimum spacing';

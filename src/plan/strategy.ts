@@ -134,28 +134,62 @@ export function exitWithBandS(x0: number, r: number, d: number, usable: number, 
   const vAt = (k: number, tau: number): number => Math.abs(x0 + r * tau + 0.5 * d * tau * tau) + bandGridNs[k] - usable;
   const dt = horizonS / EXIT_SCAN_POINTS;
   let inside = vAt(0, 0) < 0;
-  let prev = 0;
-  for (let k = 1; k <= EXIT_SCAN_POINTS; k++) {
-    const tau = k * dt;
-    const vt = vAt(k, tau);
-    if (!inside) {
-      inside = vt < 0;
-      prev = tau;
+  let k = 1;
+  while (k <= EXIT_SCAN_POINTS) {
+    // A run of points where v keeps its sign (inside: < 0; not yet inside: ≥ 0) changes nothing.
+    const kb = Math.min(EXIT_SCAN_POINTS, k + EXIT_BLOCK_POINTS - 1);
+    if (kb > k && keepsSign(x0, r, d, usable, k * dt, kb * dt, bandGridNs[k], bandGridNs[kb], inside)) {
+      k = kb + 1;
       continue;
     }
-    if (vt >= 0) {
-      let lo = prev;
-      let hi = tau;
-      for (let i = 0; i < EXIT_BISECTIONS; i++) {
-        const mid = 0.5 * (lo + hi);
-        if (v(mid) >= 0) hi = mid;
-        else lo = mid;
+    for (; k <= kb; k++) {
+      const tau = k * dt;
+      const vt = vAt(k, tau);
+      if (!inside) {
+        inside = vt < 0;
+        continue;
       }
-      return hi;
+      if (vt >= 0) {
+        let lo = (k - 1) * dt;
+        let hi = tau;
+        for (let i = 0; i < EXIT_BISECTIONS; i++) {
+          const mid = 0.5 * (lo + hi);
+          if (v(mid) >= 0) hi = mid;
+          else lo = mid;
+        }
+        return hi;
+      }
     }
-    prev = tau;
   }
   return inside ? horizonS : 0;
+}
+
+/** Scan points exitWithBandS tries to pass over at once. */
+const EXIT_BLOCK_POINTS = 32;
+/** Relative rounding allowance on the quadratic's and the band's computed values. */
+const EXIT_ROUNDING = 1e-12;
+
+/**
+ * True when v(τ) = |x0 + r·τ + d·τ²/2| + band(τ) − B stays < 0 (inside) or ≥ 0 (not inside)
+ * at every scan point in [ta, tb], as computed: the quadratic's range over the interval comes from
+ * its ends and its vertex, the band (growing with τ) lies between its values at the ends.
+ */
+function keepsSign(x0: number, r: number, d: number, usable: number, ta: number, tb: number, bandA: number, bandB: number, inside: boolean): boolean {
+  const q = (tau: number): number => x0 + r * tau + 0.5 * d * tau * tau;
+  const qa = q(ta);
+  const qb = q(tb);
+  let hi = Math.max(Math.abs(qa), Math.abs(qb));
+  let lo = qa > 0 === qb > 0 && qa !== 0 && qb !== 0 ? Math.min(Math.abs(qa), Math.abs(qb)) : 0;
+  const vertex = d !== 0 ? -r / d : NaN;
+  if (vertex > ta && vertex < tb) {
+    const qv = q(vertex);
+    hi = Math.max(hi, Math.abs(qv));
+    if (qv > 0 !== qa > 0 || qv === 0) lo = 0;
+    else lo = Math.min(lo, Math.abs(qv));
+  }
+  const tol = EXIT_ROUNDING * (Math.abs(x0) + Math.abs(r) * Math.abs(tb) + Math.abs(0.5 * d) * tb * tb + hi + Math.max(bandA, bandB) + Math.abs(usable)) + EXIT_ROUNDING;
+  if (inside) return hi + Math.max(bandA, bandB) * (1 + EXIT_ROUNDING) - usable + tol < 0;
+  return lo + Math.min(bandA, bandB) * (1 - EXIT_ROUNDING) - usable - tol >= 0;
 }
 
 function sizeFrequency(input: SizingInput): Sizing {
