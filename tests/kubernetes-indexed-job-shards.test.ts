@@ -58,11 +58,13 @@ describe('Kubernetes Indexed Job: --shard auto --shard-count', () => {
   it('four indexed pods of report on a scenario full of notes, merged folder by folder, equal the data files of one report byte for byte', async () => {
     // The invented benchmark constellation (8 satellites) made to raise every kind of note a report
     // gathers: element sets extrapolated past SGP4's span, stations without a geoid height, the
-    // leap-second table's expiry inside the window; two satellites (both in shard 2) without a keep-in
-    // limit, two with measurements (fit-<id> files).
+    // leap-second table's expiry inside the window, a blackout over the whole horizon of two satellites
+    // (notes of their plans after the orbits' notes); two satellites (both in shard 2) without a
+    // keep-in limit, two with measurements (fit-<id> files).
     let yaml = benchScenarioYaml({ sats: 8 }).replace(/^window: .*$/m, 'window: { start: 2027-06-27T00:00:00Z, end: 2027-06-29T00:00:00Z }');
     for (const id of ['LTC-02', 'LTC-06']) yaml = yaml.replace(new RegExp(`(id: ${id}\\n[\\s\\S]*?)keepInNs: [\\d.]+, `), '$1');
     for (const id of ['LTC-03', 'LTC-04']) yaml = yaml.replace(new RegExp(`(id: ${id}\\n[\\s\\S]*?)(    clock:)`), '$1    measurements: offsets.csv\n$2');
+    yaml = yaml.replace(/^policy:\n/m, 'policy:\n  blackouts:\n    - { start: 2027-06-20T00:00:00Z, end: 2027-08-01T00:00:00Z, satellites: [LTC-01, LTC-04] }\n');
     let stripped = 0;
     yaml = yaml.replace(/geoidHeightM: -?[\d.]+, /g, (m) => (stripped++ < 3 ? '' : m));
     const scenario = join(dir, 'notes.yaml');
@@ -81,7 +83,16 @@ describe('Kubernetes Indexed Job: --shard auto --shard-count', () => {
     expect(wanted).toEqual(expect.arrayContaining(['fit-LTC-03.json', 'fit-LTC-04.csv', 'resets.json']));
     expect(readdirSync(join(dir, 'rep-merged')).filter((f) => !f.startsWith('.')).sort()).toEqual(wanted);
     for (const f of wanted) expect(readFileSync(join(dir, 'rep-merged', f), 'utf8'), f).toBe(one(f));
-  }, 240_000); // shard processes start at once: slow on a loaded machine
+    expect(one('resets.json')).toMatch(/blackouts cover the whole horizon for LTC-04/);
+
+    // The same scenario's keep-in plan as a resets shard run (CSV: orbits' notes, then the plans').
+    const resets = (out: string, extra: string[] = []): string[] => ['resets', scenario, '--horizon', '10d', '--format', 'csv', '--jobs', '1', '--quiet', '--out', join(dir, out), ...extra];
+    const plans = await Promise.all([startCli(resets('notes-one.csv'), {}), ...[0, 1, 2].map((i) => startCli(resets(`notes-pod${i}.csv`, ['--shard', 'auto', '--shard-count', '3']), { JOB_COMPLETION_INDEX: String(i) }))]);
+    for (const r of plans) expect(r.code, r.stderr).toBe(0);
+    const joined = await startCli(['merge', ...[2, 0, 1].map((i) => join(dir, `notes-pod${i}.csv`)), '--out', join(dir, 'notes-merged.csv'), '--quiet'], {});
+    expect(joined.code, joined.stderr).toBe(0);
+    expect(readFileSync(join(dir, 'notes-merged.csv'), 'utf8')).toBe(readFileSync(join(dir, 'notes-one.csv'), 'utf8'));
+  }, 300_000); // shard processes start at once: slow on a loaded machine
 
   it('report shard folders: a missing shard, a shard given twice, a shard of another run, a file among the folders, a folder that is no shard folder are one-line input errors (exit 2), and no merged folder is made', async () => {
     // The folders of the test above, and one shard of a report on another scenario.

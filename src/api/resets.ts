@@ -77,7 +77,10 @@ export function runResets(scenario: ScenarioSpec, options?: ResetsOptions): Rese
   const context = prepareScenario(scenario, ts, { ...sel, horizonS: resetsHorizonS(scenario, horizon) }, resolveOrbit, scenario.fileName);
   const none = noPlansWithoutLimit === true && !context.runs.some((r) => r.keepInNs !== null);
   const plans = none ? [] : planScenarioResets(context, scenario.fileName);
-  return { context, plans, meta: resetsMeta(scenario, runNotes(context), context.fromTtJ2000S, context.toTtJ2000S) };
+  // Notes about the planned satellites only: what worker threads and shards (one planned satellite
+  // each) report, so --jobs and --shard runs write the same notes as one process.
+  const notes = runNotes({ runs: context.runs.filter((r) => r.keepInNs !== null) });
+  return { context, plans, meta: resetsMeta(scenario, notes, context.fromTtJ2000S, context.toTtJ2000S) };
 }
 
 /**

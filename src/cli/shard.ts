@@ -111,7 +111,15 @@ export interface ShardTag {
   count: number;
   /** Every satellite the unsharded run would have, in its order (compare: every clock, satellites then stations). */
   order: string[];
+  /**
+   * The output's notes from per-satellite stages, stage by stage (resets: the orbits' notes, then the
+   * plans'), so that merge joins each stage in satellite order instead of interleaving them.
+   */
+  stages?: string[][];
 }
+
+/** A command's rendering with, optionally, its notes by stage (for the tag). */
+export type StagedRendered = Rendered & { noteStages?: string[][] };
 
 /** A rendered output with the shard tag merge reads (JSON: a leading `shard` field; CSV: a first `# shard` line). */
 export function tagRendered(r: Rendered, tag: ShardTag): Rendered {
@@ -162,7 +170,7 @@ export async function sharded<A extends ShardArgs & { scenario?: string; sat?: s
   a: A,
   command: string,
   ts: TimeSystem,
-  run: (a: A, scenario?: ScenarioSpec) => Rendered | Promise<Rendered>,
+  run: (a: A, scenario?: ScenarioSpec) => StagedRendered | Promise<StagedRendered>,
   eligible: (s: SatelliteSpec) => boolean = () => true,
 ): Promise<Rendered> {
   const shard = shardOf(a);
@@ -172,5 +180,5 @@ export async function sharded<A extends ShardArgs & { scenario?: string; sat?: s
   const order = selectSatellites(scenario, a).filter(eligible).map((s) => s.id);
   const ids = shardIds(order, shard);
   const r = await run({ ...a, sat: ids.join(',') }, scenario);
-  return tagRendered(r, { command, index: shard.k, count: shard.n, order });
+  return tagRendered(r, { command, index: shard.k, count: shard.n, order, ...(r.noteStages === undefined ? {} : { stages: r.noteStages }) });
 }

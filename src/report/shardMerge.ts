@@ -5,7 +5,8 @@
  * Each shard output carries a tag (JSON: a leading `shard` field; CSV: a `# shard {...}` comment
  * line) with the command, K, N and the order of every satellite of the unsharded run. The join:
  * - fields equal in every shard are kept as they are; `notes` and CSV comment lines are merged so
- *   that each satellite's notes come in satellite order between the lines every shard shares;
+ *   that each satellite's notes come in satellite order between the lines every shard shares, stage
+ *   by stage when the tag names the stages (resets: the orbits' notes, then the plans');
  * - per-satellite arrays and CSV rows are put in the unsharded order: by satellite for most
  *   commands, by AOS (GPS week and seconds, to the microsecond), satellite and station for passes,
  *   by clock and then by pair (first and second clock) for compare;
@@ -21,6 +22,8 @@ export interface ShardTagData {
   index: number;
   count: number;
   order: string[];
+  /** The output's per-satellite notes stage by stage (resets: the orbits', then the plans'). */
+  stages?: string[][];
 }
 
 interface ShardFile {
@@ -144,6 +147,49 @@ export function mergeLines(lists: readonly string[][], order: readonly string[])
   return out;
 }
 
+/** Marks a stage's block among note lines while they are joined (no note contains it). */
+const STAGE_MARK = '\u0000stage ';
+/** How a note is written as a line: CSV notes added to the run (`# NOTE: `), written by the writer (`# `), JSON (bare). */
+const NOTE_PREFIXES = ['# NOTE: ', '# ', ''];
+
+/**
+ * Note lines of the shards joined when each shard names its notes' stages: every block of one
+ * stage's notes (in one written form) becomes the whole run's block, that stage's notes of every
+ * shard in satellite order; the other lines are joined as by {@link mergeLines}.
+ */
+function mergeStagedLines(lists: readonly string[][], stages: readonly string[][][], order: readonly string[]): string[] {
+  const merged = stages[0].map((_, s) => mergeLines(stages.map((st) => st[s] ?? []), order));
+  const tokens = lists.map((list, k) => {
+    const sets = stages[k].map((st) => new Set(st));
+    const out: string[] = [];
+    for (const line of list) {
+      let token = line;
+      for (const prefix of NOTE_PREFIXES) {
+        const s = line.startsWith(prefix) ? sets.findIndex((set) => set.has(line.slice(prefix.length))) : -1;
+        if (s >= 0) {
+          token = `${STAGE_MARK}${s} ${prefix}`;
+          break;
+        }
+      }
+      if (!(token.startsWith(STAGE_MARK) && out.at(-1) === token)) out.push(token);
+    }
+    return out;
+  });
+  return mergeLines(tokens, order).flatMap((t) => {
+    if (!t.startsWith(STAGE_MARK)) return [t];
+    const rest = t.slice(STAGE_MARK.length);
+    const gap = rest.indexOf(' ');
+    const prefix = rest.slice(gap + 1);
+    return (merged[Number(rest.slice(0, gap))] ?? []).map((n) => `${prefix}${n}`);
+  });
+}
+
+/** The shards' stages when every shard names them, else null. */
+function stagesOf(files: readonly ShardFile[]): string[][][] | null {
+  const stages = files.map((f) => f.tag.stages);
+  return stages.every((s) => Array.isArray(s) && s.every((l) => Array.isArray(l))) ? (stages as string[][][]) : null;
+}
+
 type RowKey = (get: (column: string) => string) => (string | number)[];
 
 /** How each command orders its per-satellite items (fields of JSON items = CSV columns). */
@@ -191,7 +237,8 @@ function mergeJson(files: ShardFile[], command: string, order: string[]): string
     if (texts.every((t) => t === texts[0])) {
       merged[field] = values[0];
     } else if (field === 'notes' && values.every((v) => Array.isArray(v))) {
-      merged[field] = mergeLines(values as string[][], order);
+      const stages = stagesOf(files);
+      merged[field] = stages === null ? mergeLines(values as string[][], order) : mergeStagedLines(values as string[][], stages, order);
     } else if (values.every((v) => Array.isArray(v))) {
       const items = (values as unknown[][]).flat();
       merged[field] = sortStable(items, (item) => key((c) => {
@@ -214,7 +261,9 @@ function mergeCsv(files: ShardFile[], command: string, order: string[]): string 
     const i = columns.indexOf(c);
     return i < 0 ? '' : r.cells[i];
   }));
-  const comments = mergeLines(files.map((f) => f.comments ?? []), order);
+  const stages = stagesOf(files);
+  const lists = files.map((f) => f.comments ?? []);
+  const comments = stages === null ? mergeLines(lists, order) : mergeStagedLines(lists, stages, order);
   return [...comments, header, ...rows.map((r) => r.line)].join('\n') + '\n';
 }
 

@@ -44,7 +44,7 @@ export function computeResets(a: ResetsArgs, ts: TimeSystem): ResetsRun {
  * Satellites spread over worker threads (text, JSON and CSV); plans come back in scenario order.
  * `parsed`: the scenario file already read (by --shard), so it is not read twice.
  */
-export async function runResets(a: ResetsArgs, ts: TimeSystem, parsed?: ScenarioSpec): Promise<Rendered> {
+export async function runResets(a: ResetsArgs, ts: TimeSystem, parsed?: ScenarioSpec): Promise<Rendered & { noteStages: string[][] }> {
   checkJobs(a.jobs);
   const scenario = parsed ?? loadScenario(a.scenario, ts);
   const options = optionsOf(a, ts);
@@ -56,12 +56,14 @@ export async function runResets(a: ResetsArgs, ts: TimeSystem, parsed?: Scenario
     if (replies !== null) {
       const plans = replies.flatMap((r) => r.plans ?? []);
       const meta = resetsMeta(scenario, replies.flatMap((r) => r.notes), parts.fromTtJ2000S, parts.toTtJ2000S);
-      return { notes: meta.notes, json: () => resetsToJson(plans, meta, ts), csv: () => resetsToCsv(plans, ts, meta), text: () => resetsToText(plans, meta, ts) };
+      return { notes: meta.notes, noteStages: [meta.notes, plans.flatMap((p) => p.notes)], json: () => resetsToJson(plans, meta, ts), csv: () => resetsToCsv(plans, ts, meta), text: () => resetsToText(plans, meta, ts) };
     }
   }
   const { context: ctx, plans, meta } = resetsOf(scenario, options);
   return {
     notes: meta.notes,
+    // The notes' stages, for --shard (src/cli/shard.ts): the orbits' notes, then each plan's.
+    noteStages: [meta.notes, plans.flatMap((p) => p.notes)],
     html: () => page('tauplan — keep-in adjustment plan', ctx.scenario.name, windowMeta(ts, ctx.fromTtJ2000S, ctx.toTtJ2000S, ctx.scenario.reference), [resetsSection(ts, ctx.runs, plans, ctx.fromTtJ2000S, ctx.toTtJ2000S, PREDICTION_BAND_RULE, [...meta.notes, ...plans.flatMap((p) => p.notes)]), modelsSection()]),
     json: () => resetsToJson(plans, meta, ts),
     csv: () => resetsToCsv(plans, ts, meta),
