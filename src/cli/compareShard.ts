@@ -71,7 +71,7 @@ export const COMPARE_SHARD_OPTIONS = {
   ...SHARD_OPTIONS,
   shard: {
     ...SHARD_OPTIONS.shard,
-    describe: `${SHARD_OPTIONS.shard.describe}. A shard writes its satellites' rows and the pairs they begin (a pair with the --against reference goes with its other clock; stations go with shard 1). Against a reference a shard computes its satellites plus the reference; with every pair it also computes each pair's partner, so it saves little`,
+    describe: `${SHARD_OPTIONS.shard.describe}. A shard writes its satellites' rows and the pairs they begin (a pair with the --against reference goes with its other clock; stations go with shard 1). Against a reference a shard computes its satellites plus the reference; with every pair it also integrates each pair's partner (without its figures), so it saves less`,
   },
 } as const;
 
