@@ -9,20 +9,23 @@
  * Refinement: a Newton iteration from the cubic Hermite guess of the bin (values and rates at both
  * ends), kept inside the sign bracket (a step leaving it bisects instead), capped, and finished by
  * the Illinois root finder on what is left of the bracket if the cap is hit. Crossings use the
- * exact rate g/|ρ|³; culminations (roots of g) use dg/dt with a model acceleration (point-mass
- * gravity and the rotating-frame terms, J2 and the rest left out: ~1e-3 of it), so each step gains
- * about three digits. The iteration stops when the Newton correction is ≤ 1 ms and the rate used
- * agrees within 10 % with the secant slope from the previous evaluation; the error of the corrected
- * time is then second order in the correction (≪ 1 µs for orbital motion), or at worst 10 % of it
- * (≤ 0.1 ms) — inside the 1 ms the search promises.
+ * exact rate g/|ρ|³; culminations (roots of g) use dg/dt with a model acceleration (gravity to J2
+ * and the rotating-frame terms; what it leaves out is < 1e-5 of it). The iteration stops on a
+ * Newton correction δ ≤ 0.1 s without evaluating its result when the error that correction leaves,
+ * |F''/(2F')|·δ² (curvature estimated from the secant to the previous point, times four) plus the
+ * rate's relative error times δ, is ≤ 0.1 ms, and the rate agrees with the secant slope (within
+ * 50 % for crossings, 10 % for culminations); or on a correction ≤ 10 µs. That stays inside the
+ * 1 ms the search promises (tests/pass-search.test.ts checks it against a 1-µs bisection).
  *
  * Maxima below the mask: a bin whose rate turns from + to − with both ends below the mask holds a
  * pass only if the elevation can climb to the mask in between. With the earth-fixed speed bounded
  * by V over the bin, the direction to the satellite turns at most V/ρ_min, so
  * sin(el) ≤ (sin el₀ + sin el₁ + V·h/ρ_min)/2 on it; when that is below sin(mask) the maximum is
- * not located. V comes from the end speeds and an acceleration bound of twice the point-mass
- * gravity at the lowest radius the bin allows plus the rotating-frame terms (a free-falling orbit:
- * J2, the Moon, the Sun, drag and radiation pressure are well inside the factor two).
+ * not located. V comes from the end speeds and an acceleration bound A of twice the point-mass
+ * gravity at the lowest radius the bin allows (never below ground) plus the rotating-frame terms (a
+ * free-falling orbit: J2, the Moon, the Sun, drag and radiation pressure are well inside the
+ * factor two). Otherwise one state at the Hermite guess of the maximum usually settles it: with
+ * |d²ρ̂/dt²| ≤ A/ρ + 3V²/ρ² = M, sin(el) stays below f + ḟ²/(2M) + sin(mask) over the bin.
  *
  * The same bound over a chunk of the grid lets a station below the mask skip the samples before the
  * first instant the satellite could reach its mask (StationScan.skipAhead).
