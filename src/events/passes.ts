@@ -237,9 +237,36 @@ export function findPassesMany(
     }
   }
   for (const scan of scans) scan.finish();
-  const passes = scans.flatMap((s) => s.passes);
-  passes.sort((a, b) => a.aosTtJ2000S - b.aosTtJ2000S || (a.stationId < b.stationId ? -1 : a.stationId > b.stationId ? 1 : 0));
-  return { passes, statesEvaluated: ev.statesEvaluated, gridStepS: stepS };
+  return { passes: mergeByAos(scans.map((s) => s.passes)), statesEvaluated: ev.statesEvaluated, gridStepS: stepS };
+}
+
+const byStationId = (a: Pass, b: Pass): number => (a.stationId < b.stationId ? -1 : a.stationId > b.stationId ? 1 : 0);
+
+/**
+ * Passes sorted by AOS, then station id, from per-station lists already in AOS order: a merge of
+ * the lists taken in station-id order (a sort of the whole for many stations).
+ */
+function mergeByAos(lists: Pass[][]): Pass[] {
+  const nonEmpty = lists.filter((l) => l.length > 0);
+  if (nonEmpty.length > 16) return nonEmpty.flat().sort((a, b) => a.aosTtJ2000S - b.aosTtJ2000S || byStationId(a, b));
+  nonEmpty.sort((a, b) => byStationId(a[0], b[0]));
+  const heads = nonEmpty.map(() => 0);
+  const total = nonEmpty.reduce((n, l) => n + l.length, 0);
+  const out: Pass[] = new Array<Pass>(total);
+  for (let k = 0; k < total; k++) {
+    let best = -1;
+    let bestAos = Infinity;
+    for (let j = 0; j < nonEmpty.length; j++) {
+      const list = nonEmpty[j];
+      // Strictly earlier only: on a tie the list with the smaller station id (earlier) wins.
+      if (heads[j] < list.length && list[heads[j]].aosTtJ2000S < bestAos) {
+        best = j;
+        bestAos = list[heads[j]].aosTtJ2000S;
+      }
+    }
+    out[k] = nonEmpty[best][heads[best]++];
+  }
+  return out;
 }
 
 /**
