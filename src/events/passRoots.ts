@@ -1,7 +1,7 @@
 /**
  * Root finding for the pass search (./passes.ts): a bracketed Illinois regula falsi that needs only
- * values, and first guesses from the cubic Hermite interpolant of a grid bin (values and rates at
- * both ends), which put a Newton iteration within reach of the root in one or two steps.
+ * values, and first guesses from the Hermite interpolant of a grid bin (values, rates and, when
+ * known, second rates at both ends), which put a Newton iteration within reach of the root in one or two steps.
  */
 import { InternalError } from '../errors.ts';
 
@@ -63,20 +63,24 @@ export function bracketedRoot(fn: (t: number) => number, a: number, b: number, f
 }
 
 /**
- * A root in (0, 1) of c0 + c1·x + c2·x² + c3·x³, given that its values at 0 and 1 have opposite
- * signs: Newton steps kept inside a shrinking bracket (bisection when a step leaves it).
+ * A root in (0, 1) of c[0] + c[1]·x + … + c[degree]·x^degree, given that its values at 0 and 1
+ * have opposite signs: Newton steps kept inside a shrinking bracket (bisection when a step leaves it).
  */
-function cubicRootIn01(c0: number, c1: number, c2: number, c3: number): number {
+function polyRootIn01(c: Float64Array, degree: number): number {
   let lo = 0;
   let hi = 1;
-  const loNegative = c0 < 0;
+  const loNegative = c[0] < 0;
   let x = 0.5;
   for (let k = 0; k < POLY_MAX_ITERATIONS && hi - lo > POLY_TOLERANCE; k++) {
-    const p = c0 + x * (c1 + x * (c2 + x * c3));
+    let p = c[degree];
+    let dp = 0;
+    for (let j = degree - 1; j >= 0; j--) {
+      dp = dp * x + p;
+      p = p * x + c[j];
+    }
     if (p === 0) return x;
     if (p < 0 === loNegative) lo = x;
     else hi = x;
-    const dp = c1 + x * (2 * c2 + x * 3 * c3);
     const next = x - p / dp;
     x = next > lo && next < hi ? next : 0.5 * (lo + hi);
   }
@@ -84,34 +88,48 @@ function cubicRootIn01(c0: number, c1: number, c2: number, c3: number): number {
 }
 
 /**
- * Coefficients in x = τ/H ∈ [0, 1] of the cubic Hermite interpolant on a bin of width H [s] with
- * values fa, fb and rates da, db [1/s] at its ends, into out[0..3] (constant term first).
+ * Coefficients in x = τ/H ∈ [0, 1] (constant term first, into out[0..5]) of the Hermite interpolant
+ * on a bin of width H [s] with values fa, fb, rates da, db [1/s] and second rates aa, ab [1/s²] at
+ * its ends: quintic, or cubic (out[4] = out[5] = 0) when a second rate is not finite.
  */
-function hermiteCoefficients(fa: number, da: number, fb: number, db: number, widthS: number, out: Float64Array): void {
-  const ha = widthS * da;
-  const hb = widthS * db;
+function hermiteCoefficients(fa: number, da: number, aa: number, fb: number, db: number, ab: number, widthS: number, out: Float64Array): void {
+  const ma = widthS * da;
+  const mb = widthS * db;
   out[0] = fa;
-  out[1] = ha;
-  out[2] = -3 * fa - 2 * ha + 3 * fb - hb;
-  out[3] = 2 * fa + ha - 2 * fb + hb;
+  out[1] = ma;
+  if (Number.isFinite(aa) && Number.isFinite(ab)) {
+    const qa = widthS * widthS * aa;
+    const qb = widthS * widthS * ab;
+    out[2] = 0.5 * qa;
+    out[3] = -10 * fa - 6 * ma - 1.5 * qa + 0.5 * qb - 4 * mb + 10 * fb;
+    out[4] = 15 * fa + 8 * ma + 1.5 * qa - qb + 7 * mb - 15 * fb;
+    out[5] = -6 * fa - 3 * ma - 0.5 * qa + 0.5 * qb - 3 * mb + 6 * fb;
+  } else {
+    out[2] = -3 * fa - 2 * ma + 3 * fb - mb;
+    out[3] = 2 * fa + ma - 2 * fb + mb;
+    out[4] = 0;
+    out[5] = 0;
+  }
 }
 
-const coef = new Float64Array(4);
+const coef = new Float64Array(6);
+const slope = new Float64Array(5);
 
 /**
- * Offset [s] in (0, widthS) where the cubic Hermite interpolant of a bin crosses zero, for values
- * fa, fb of opposite signs and rates da, db [1/s] at the ends: a first guess for the root.
+ * Offset [s] in (0, widthS) where the Hermite interpolant of a bin (see hermiteCoefficients; second
+ * rates NaN for the cubic) crosses zero, for end values of opposite signs: a first guess for the root.
  */
-export function hermiteRootGuessS(fa: number, da: number, fb: number, db: number, widthS: number): number {
-  hermiteCoefficients(fa, da, fb, db, widthS, coef);
-  return widthS * cubicRootIn01(coef[0], coef[1], coef[2], coef[3]);
+export function hermiteRootGuessS(fa: number, da: number, aa: number, fb: number, db: number, ab: number, widthS: number): number {
+  hermiteCoefficients(fa, da, aa, fb, db, ab, widthS, coef);
+  return widthS * polyRootIn01(coef, 5);
 }
 
 /**
- * Offset [s] in (0, widthS) of the extremum of the cubic Hermite interpolant of a bin whose end
- * rates da, db [1/s] have opposite signs: a first guess for the time of the maximum or minimum.
+ * Offset [s] in (0, widthS) of the extremum of the Hermite interpolant of a bin whose end rates
+ * da, db [1/s] have opposite signs: a first guess for the time of the maximum or minimum.
  */
-export function hermiteExtremumGuessS(fa: number, da: number, fb: number, db: number, widthS: number): number {
-  hermiteCoefficients(fa, da, fb, db, widthS, coef);
-  return widthS * cubicRootIn01(coef[1], 2 * coef[2], 3 * coef[3], 0);
+export function hermiteExtremumGuessS(fa: number, da: number, aa: number, fb: number, db: number, ab: number, widthS: number): number {
+  hermiteCoefficients(fa, da, aa, fb, db, ab, widthS, coef);
+  for (let j = 0; j < 5; j++) slope[j] = (j + 1) * coef[j + 1];
+  return widthS * polyRootIn01(slope, 4);
 }

@@ -6,8 +6,9 @@
  * elevation − mask (sin increases on [−90°, 90°]), and on g = (û·v)|ρ|² − (û·ρ)(ρ·v) [m⁴/s], the
  * elevation-rate numerator: df/dt = g/|ρ|³ exactly, so every evaluated state gives f and its rate.
  *
- * Refinement: a Newton iteration from the cubic Hermite guess of the bin (values and rates at both
- * ends), kept inside the sign bracket (a step leaving it bisects instead), capped, and finished by
+ * Refinement: a Newton iteration from the Hermite guess of the bin (values and rates at both ends,
+ * and second rates from the model acceleration when both ends are grid samples or located knots:
+ * quintic then, cubic otherwise), kept inside the sign bracket (a step leaving it bisects instead), capped, and finished by
  * the Illinois root finder on what is left of the bracket if the cap is hit. Crossings use the
  * exact rate g/|ρ|³; culminations (roots of g) use dg/dt with a model acceleration (gravity to J2
  * and the rotating-frame terms; what it leaves out is < 1e-5 of it). The iteration stops on a
@@ -158,6 +159,8 @@ export class StationScan {
   private skipUntilT = -Infinity;
   /** The next sample fed follows skipped ones. */
   private resume = false;
+  /** The bin stepped is between neighbouring grid samples (the evaluator holds both states). */
+  private prevIsNeighbour = false;
   private prevT = 0;
   private prevF = 0;
   private prevG = 0;
@@ -174,6 +177,7 @@ export class StationScan {
   private ed = 0;
   private eg = 0;
   private egDot = 0;
+  private edd = 0;
   // Earth-fixed acceleration (model) at the last evaluated state [m/s²].
   private eax = 0;
   private eay = 0;
@@ -184,9 +188,10 @@ export class StationScan {
   private binRangeLowM = 0;
   /** Offset [s] from the last evaluated state to the root the last refinement returned, NaN when unknown. */
   private rootOffsetS = Number.NaN;
-  // f and elevation [rad] at a knot, from {@link knotValues}.
+  // f, elevation [rad] and d²f/dt² [1/s²] at a knot, from {@link knotValues}.
   private knotF = 0;
   private knotElRad = 0;
+  private knotA = 0;
 
   constructor(
     readonly station: Station,
@@ -217,12 +222,16 @@ export class StationScan {
       // The samples skipped were all below the mask; this one is too (f ≤ 0) unless the bound failed,
       // in which case the bin from the last sample seen holds the crossing.
       this.resume = false;
-      if (f > 0) this.step(t, f, g, rho);
+      if (f > 0) {
+        this.prevIsNeighbour = false;
+        this.step(t, f, g, rho);
+      }
     } else if (!this.started) {
       this.started = true;
       if (f > 0) this.open(t, true);
       this.visit(t, f, Number.NaN);
     } else if ((g0 > 0 && g <= 0) || (g0 < 0 && g >= 0 && f0 > 0 && f > 0) || f0 <= 0 !== f <= 0) {
+      this.prevIsNeighbour = true;
       this.step(t, f, g, rho);
     } else if (this.inPass && f > this.bestF) {
       this.bestF = f;
@@ -268,11 +277,14 @@ export class StationScan {
       }
       const d0 = g0 / (rho0 * rho0 * rho0);
       const d1 = g / (rho * rho * rho);
+      const a0 = this.prevIsNeighbour ? this.secondRateOf(this.ev.prevSample) : Number.NaN;
+      const a1 = this.prevIsNeighbour ? this.secondRateOf(this.ev.sample) : Number.NaN;
       let tk = t;
       let fk = f;
       let elk = Number.NaN;
+      let ak = a1;
       if (g !== 0) {
-        const guess = clampInside(hermiteExtremumGuessS(f0, d0, f, d1, t - t0), t - t0);
+        const guess = clampInside(hermiteExtremumGuessS(f0, d0, a0, f, d1, a1, t - t0), t - t0);
         let evaluated = false;
         if (isMax && f0 <= 0 && f <= 0) {
           // A maximum that may reach the mask: one state near it usually settles that it does not.
@@ -291,12 +303,15 @@ export class StationScan {
         this.knotValues(this.rootOffsetS);
         fk = this.knotF;
         elk = this.knotElRad;
+        ak = this.knotA;
       }
-      this.segment(t0, f0, d0, tk, fk, 0);
+      this.segment(t0, f0, d0, a0, tk, fk, 0, ak);
       this.visit(tk, fk, elk);
-      this.segment(tk, fk, 0, t, f, d1);
+      this.segment(tk, fk, 0, ak, t, f, d1, a1);
     } else if ((f0 <= 0 && f > 0) || (f0 > 0 && f <= 0)) {
-      this.segment(t0, f0, g0 / (rho0 * rho0 * rho0), t, f, g / (rho * rho * rho));
+      const a0 = this.prevIsNeighbour ? this.secondRateOf(this.ev.prevSample) : Number.NaN;
+      const a1 = this.prevIsNeighbour ? this.secondRateOf(this.ev.sample) : Number.NaN;
+      this.segment(t0, f0, g0 / (rho0 * rho0 * rho0), a0, t, f, g / (rho * rho * rho), a1);
     }
     this.visit(t, f, Number.NaN);
   }
@@ -333,24 +348,28 @@ export class StationScan {
     return this.ef + (this.ed * this.ed) / (2 * m) > 0;
   }
 
-  /** Monotonic piece [ta, tb] with values and rates at its ends: at most one mask crossing. */
-  private segment(ta: number, fa: number, da: number, tb: number, fb: number, db: number): void {
+  /** Monotonic piece [ta, tb] with values, rates and second rates (NaN: unknown) at its ends: at most one mask crossing. */
+  private segment(ta: number, fa: number, da: number, aa: number, tb: number, fb: number, db: number, ab: number): void {
     if (fa <= 0 && fb > 0) {
-      this.open(this.crossing(ta, fa, da, tb, fb, db, 'AOS'), false);
+      this.open(this.crossing(ta, fa, da, aa, tb, fb, db, ab, 'AOS'), false);
     } else if (fa > 0 && fb <= 0) {
-      this.close(this.crossing(ta, fa, da, tb, fb, db, 'LOS'), false);
+      this.close(this.crossing(ta, fa, da, aa, tb, fb, db, ab, 'LOS'), false);
     }
   }
 
-  private crossing(ta: number, fa: number, da: number, tb: number, fb: number, db: number, what: string): number {
+  private crossing(ta: number, fa: number, da: number, aa: number, tb: number, fb: number, db: number, ab: number, what: string): number {
     if (fa === 0) return ta;
     if (fb === 0) return tb;
-    return this.refine(false, ta, fa, tb, fb, hermiteRootGuessS(fa, da, fb, db, tb - ta), `${what} for station ${this.station.id}`);
+    return this.refine(false, ta, fa, tb, fb, hermiteRootGuessS(fa, da, aa, fb, db, ab, tb - ta), `${what} for station ${this.station.id}`);
   }
 
-  /** f, df/dt, g and dg/dt (model) at t into ef, ed, eg, egDot. */
+  /** f, df/dt, g, dg/dt and d²f/dt² (model) at t into ef, ed, eg, egDot, edd. */
   private evalAt(t: number): void {
-    const e = this.ev.at(t);
+    this.valuesOf(this.ev.at(t));
+  }
+
+  /** The values of {@link evalAt} from an earth-fixed state (position m, velocity m/s). */
+  private valuesOf(e: Float64Array): void {
     const x = e[0];
     const y = e[1];
     const z = e[2];
@@ -385,6 +404,14 @@ export class StationScan {
     const ua = ax * this.ux + ay * this.uy + az * this.uz;
     const ra = dx * ax + dy * ay + dz * az;
     this.egDot = ua * rho2 + uv * rv - u * (vx * vx + vy * vy + vz * vz + ra);
+    // f' = g/ρ³, so f'' = g'/ρ³ − 3g(ρ·v)/ρ⁵.
+    this.edd = this.egDot / (rho2 * rho) - (3 * g * rv) / (rho2 * rho2 * rho);
+  }
+
+  /** d²f/dt² [1/s²] at a grid sample's earth-fixed state (leaves the evaluation values changed). */
+  private secondRateOf(e: Float64Array): number {
+    this.valuesOf(e);
+    return this.edd;
   }
 
   /**
@@ -402,6 +429,7 @@ export class StationScan {
     const rho2 = dx * dx + dy * dy + dz * dz;
     this.knotF = u / Math.sqrt(rho2) - this.sinMask;
     this.knotElRad = Math.atan2(u, Math.sqrt(Math.max(0, rho2 - u * u)));
+    this.knotA = this.edd;
   }
 
   private fAt = (t: number): number => {
