@@ -278,13 +278,20 @@ export class StationScan {
       const d0 = g0 / (rho0 * rho0 * rho0);
       const d1 = g / (rho * rho * rho);
       const a0 = this.prevIsNeighbour ? this.secondRateOf(this.ev.prevSample) : Number.NaN;
+      const gDot0 = this.egDot;
       const a1 = this.prevIsNeighbour ? this.secondRateOf(this.ev.sample) : Number.NaN;
+      const gDot1 = this.egDot;
       let tk = t;
       let fk = f;
       let elk = Number.NaN;
       let ak = a1;
       if (g !== 0) {
-        const guess = clampInside(hermiteExtremumGuessS(f0, d0, a0, f, d1, a1, t - t0), t - t0);
+        // g is smoother than sin(el) at a sharp culmination (linear in time for a straight pass
+        // overhead): the root of its cubic Hermite when its rates are known, else the extremum of f's.
+        const guess = clampInside(
+          this.prevIsNeighbour ? hermiteRootGuessS(g0, gDot0, Number.NaN, g, gDot1, Number.NaN, t - t0) : hermiteExtremumGuessS(f0, d0, a0, f, d1, a1, t - t0),
+          t - t0,
+        );
         let evaluated = false;
         if (isMax && f0 <= 0 && f <= 0) {
           // A maximum that may reach the mask: one state near it usually settles that it does not.
