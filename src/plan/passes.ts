@@ -74,9 +74,18 @@ export function planPasses(runs: readonly SatelliteClockRun[], stations: readonl
 export function passClockRow(p: Pass, run: SatelliteClockRun, periodicAtTcaS: number, oneWay: { lightTimeNs: number; sagnacNs: number; shapiroNs: number }): PassClockRow {
   const atAos = run.clock.offsetNs(p.aosTtJ2000S);
   const atLos = run.clock.offsetNs(p.losTtJ2000S);
+  // Every field named (a spread of the pass builds a slower object of the same content and order).
   return {
-    ...p,
     satelliteId: run.id,
+    stationId: p.stationId,
+    aosTtJ2000S: p.aosTtJ2000S,
+    tcaTtJ2000S: p.tcaTtJ2000S,
+    losTtJ2000S: p.losTtJ2000S,
+    maxElevationDeg: p.maxElevationDeg,
+    durationS: p.durationS,
+    truncated: p.truncated,
+    aosTruncated: p.aosTruncated,
+    losTruncated: p.losTruncated,
     satelliteName: run.name,
     clockOffsetAtAosNs: atAos,
     clockOffsetAtLosNs: atLos,
