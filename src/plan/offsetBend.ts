@@ -42,6 +42,7 @@ const BEND_HEADROOM = 2;
 const SLACK_ABS_NS = 1e-6;
 const SLACK_REL = 1e-12;
 
+const HALF = NODES >> 1;
 const NODE_U = Array.from({ length: NODES }, (_, i) => Math.cos(((2 * i + 1) * Math.PI) / (2 * NODES)));
 const COS = Float64Array.from({ length: NODES * NODES }, (_, k) => Math.cos((Math.floor(k / NODES) * (2 * (k % NODES) + 1) * Math.PI) / (2 * NODES)));
 
@@ -57,6 +58,8 @@ export function offsetBend(clock: OnboardClock, from: number, to: number): Offse
   const last = Math.min(track.stepCount - 1, Math.floor((to - track.fromTtJ2000S) / h) + 1);
   const values = new Float64Array(NODES);
   const a = new Float64Array(NODES);
+  const even = new Float64Array(HALF);
+  const odd = new Float64Array(HALF);
   let slopeU = 0;
   let kink = 0;
   let maxF = 0;
@@ -70,9 +73,16 @@ export function offsetBend(clock: OnboardClock, from: number, to: number): Offse
     let slope = 0;
     let left = 0;
     let right = 0;
+    // Node i and node n−1−i mirror each other (T_m is even or odd): one sum of pairs per m.
+    for (let i = 0; i < HALF; i++) {
+      even[i] = values[i] + values[NODES - 1 - i];
+      odd[i] = values[i] - values[NODES - 1 - i];
+    }
     for (let m = 0; m < NODES; m++) {
+      const pair = m % 2 === 0 ? even : odd;
       let s = 0;
-      for (let i = 0; i < NODES; i++) s += values[i] * COS[m * NODES + i];
+      for (let i = 0; i < HALF; i++) s += pair[i] * COS[m * NODES + i];
+      if (NODES % 2 === 1) s += values[HALF] * COS[m * NODES + HALF]; // the middle node of an odd count
       a[m] = ((m === 0 ? 1 : 2) * s) / NODES;
       slope += m * m * Math.abs(a[m]);
       left += m % 2 === 0 ? a[m] : -a[m];

@@ -196,6 +196,23 @@ class PlannedClock {
     const i = lo - 1;
     return x + this.cumPhaseNs[i] + 1e9 * (this.cumFractional[i] * t - this.cumFractionalAtS[i]);
   }
+  /**
+   * Smallest limitNs − |planned offset| [ns] over the scan instants min(to, from + k·step) whose
+   * free-running offsets are `freeGridNs` (as offsetNs there; the steps found by walking forward).
+   */
+  minMarginNs(limitNs: number, freeGridNs: Float64Array, from: number, to: number, stepS: number): number {
+    let minMarginNs = Infinity;
+    let lo = 0;
+    for (let k = 0; k < freeGridNs.length; k++) {
+      const t = Math.min(to, from + k * stepS);
+      while (lo < this.at.length && this.at[lo] <= t) lo++;
+      const x = freeGridNs[k];
+      const i = lo - 1;
+      const planned = lo === 0 ? x : x + this.cumPhaseNs[i] + 1e9 * (this.cumFractional[i] * t - this.cumFractionalAtS[i]);
+      minMarginNs = Math.min(minMarginNs, limitNs - Math.abs(planned));
+    }
+    return minMarginNs;
+  }
   /** Size [ns] of the terms the steps add to the offset at instants up to |t| ≤ tMaxS (for rounding allowances). */
   stepsMagnitudeNs(tMaxS: number): number {
     const i = this.at.length - 1;
@@ -395,9 +412,7 @@ function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number,
     const next = adjustments[i + 1]?.atTtJ2000S ?? to;
     a.quantisationErrorNs = a.phaseStepNs - exact[i].phaseNs + (a.frequencyStep - exact[i].fractional) * 1e9 * (next - a.atTtJ2000S);
   });
-  let minMarginNs = Infinity;
-  for (let k = 0; k < freeGridNs.length; k++) minMarginNs = Math.min(minMarginNs, L - Math.abs(planned.withStepsNs(freeGridNs[k], Math.min(to, from + k * scanStepS))));
-  return { adjustments, unplannable, minMarginNs };
+  return { adjustments, unplannable, minMarginNs: planned.minMarginNs(L, freeGridNs, from, to, scanStepS) };
 }
 
 /** The free-running offset [ns] at the scan instants from the plan start: min(to, from + k·step), k = 0…n. */
@@ -408,6 +423,21 @@ function freeGrid(req: ResetRequest): Float64Array {
   const grid = new Float64Array(Math.max(0, n + 1));
   for (let k = 0; k <= n; k++) grid[k] = req.clock.offsetNs(Math.min(to, from + k * step));
   return grid;
+}
+
+/**
+ * The band's 1-σ [ns] at the scan instants from the plan start (NaN: not worked out yet), kept for
+ * the next satellite with the same noise and span: a scenario's satellites mostly share both. A
+ * cache of a pure function of its key, so the plans do not depend on the order they are made in.
+ */
+let sigmaGridMemo: { key: readonly (number | boolean)[]; sigmaNs: Float64Array } | null = null;
+
+function sigmaGridFor(noise: NoiseLevels | null, from: number, to: number, stepS: number, count: number): Float64Array {
+  const key = [noise === null, noise?.whiteFmAdev1s ?? 0, noise?.flickerFmFloor ?? 0, noise?.randomWalkFmAdev1d ?? 0, from, to, stepS, count];
+  if (sigmaGridMemo === null || sigmaGridMemo.key.length !== key.length || sigmaGridMemo.key.some((v, i) => !Object.is(v, key[i]))) {
+    sigmaGridMemo = { key, sigmaNs: new Float64Array(count).fill(NaN) };
+  }
+  return sigmaGridMemo.sigmaNs;
 }
 
 /** Scan points per block of crossingProbability. */
@@ -425,7 +455,12 @@ function crossingProbability(req: ResetRequest, freeGridNs: Float64Array): numbe
   const { fromTtJ2000S: from, toTtJ2000S: to, limitNs: L } = req;
   const step = scanStepOf(req.periodS);
   const sigma = bandSigmaOf(req.noise);
-  const sigmaAt = (k: number): number => sigma(Math.min(to, from + k * step) - from);
+  const known = sigmaGridFor(req.noise, from, to, step, freeGridNs.length);
+  const sigmaAt = (k: number): number => {
+    let v = known[k];
+    if (v !== v) known[k] = v = sigma(Math.min(to, from + k * step) - from);
+    return v;
+  };
   let p = 0;
   for (let end = freeGridNs.length; end > 0; end -= PROBABILITY_BLOCK) {
     const start = Math.max(0, end - PROBABILITY_BLOCK);

@@ -129,8 +129,8 @@ export function exitBandGrid(band95Ns: (tauS: number) => number, horizonS: numbe
  * inside (a start at the edge does not count); H when it stays inside, 0 when it never gets in.
  */
 export function exitWithBandS(x0: number, r: number, d: number, usable: number, band95Ns: (tauS: number) => number, horizonS: number, bandGridNs: Float64Array = exitBandGrid(band95Ns, horizonS)): number {
-  const v = (tau: number): number => Math.abs(x0 + r * tau + 0.5 * d * tau * tau) + band95Ns(tau) - usable;
-  // v at the k-th scan point, its band read from the grid (the same value band95Ns gives there).
+  // v(τ) = |x0 + r·τ + d·τ²/2| + band95Ns(τ) − usable; at the k-th scan point the band is read
+  // from the grid (the same value band95Ns gives there).
   const vAt = (k: number, tau: number): number => Math.abs(x0 + r * tau + 0.5 * d * tau * tau) + bandGridNs[k] - usable;
   const dt = horizonS / EXIT_SCAN_POINTS;
   let inside = vAt(0, 0) < 0;
@@ -152,9 +152,23 @@ export function exitWithBandS(x0: number, r: number, d: number, usable: number, 
       if (vt >= 0) {
         let lo = (k - 1) * dt;
         let hi = tau;
+        // The band at lo and hi (computed there, or a point beyond) brackets it at mid: when the
+        // bracket settles the sign of v(mid) = |trend| + band − B, the band need not be computed.
+        let bandLo = bandGridNs[k - 1];
+        let bandHi = bandGridNs[k];
         for (let i = 0; i < EXIT_BISECTIONS; i++) {
           const mid = 0.5 * (lo + hi);
-          if (v(mid) >= 0) hi = mid;
+          const trend = Math.abs(x0 + r * mid + 0.5 * d * mid * mid);
+          let leaves: boolean;
+          if (trend + bandLo * (1 - EXIT_ROUNDING) >= usable) leaves = true;
+          else if (trend + bandHi * (1 + EXIT_ROUNDING) < usable) leaves = false;
+          else {
+            const band = band95Ns(mid);
+            leaves = trend + band - usable >= 0;
+            if (leaves) bandHi = band;
+            else bandLo = band;
+          }
+          if (leaves) hi = mid;
           else lo = mid;
         }
         return hi;
@@ -162,6 +176,11 @@ export function exitWithBandS(x0: number, r: number, d: number, usable: number, 
     }
   }
   return inside ? horizonS : 0;
+}
+
+/** The trend x0 + r·τ + d·τ²/2 [ns], computed as exitWithBandS computes it. */
+function trendAt(x0: number, r: number, d: number, tau: number): number {
+  return x0 + r * tau + 0.5 * d * tau * tau;
 }
 
 /** Scan points exitWithBandS tries to pass over at once. */
@@ -175,14 +194,13 @@ const EXIT_ROUNDING = 1e-12;
  * its ends and its vertex, the band (growing with τ) lies between its values at the ends.
  */
 function keepsSign(x0: number, r: number, d: number, usable: number, ta: number, tb: number, bandA: number, bandB: number, inside: boolean): boolean {
-  const q = (tau: number): number => x0 + r * tau + 0.5 * d * tau * tau;
-  const qa = q(ta);
-  const qb = q(tb);
+  const qa = trendAt(x0, r, d, ta);
+  const qb = trendAt(x0, r, d, tb);
   let hi = Math.max(Math.abs(qa), Math.abs(qb));
   let lo = qa > 0 === qb > 0 && qa !== 0 && qb !== 0 ? Math.min(Math.abs(qa), Math.abs(qb)) : 0;
   const vertex = d !== 0 ? -r / d : NaN;
   if (vertex > ta && vertex < tb) {
-    const qv = q(vertex);
+    const qv = trendAt(x0, r, d, vertex);
     hi = Math.max(hi, Math.abs(qv));
     if (qv > 0 !== qa > 0 || qv === 0) lo = 0;
     else lo = Math.min(lo, Math.abs(qv));
