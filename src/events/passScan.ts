@@ -35,6 +35,7 @@ import { WGS84_A_M, WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../constan
 import { stateInto, type Trajectory } from '../orbit/trajectory.ts';
 import { stationFrame } from './lookAngles.ts';
 import { bracketedRoot, hermiteExtremumGuessS, hermiteRootGuessS } from './passRoots.ts';
+import { earthRotationAtGridTime } from './siderealGrid.ts';
 import type { GmstRadAt, Pass } from './passes.ts';
 import type { Station } from './station.ts';
 
@@ -117,14 +118,38 @@ export class EcefEvaluator {
     readonly traj: Trajectory,
     readonly gmstRadAt: GmstRadAt,
   ) {}
+  // The current chunk's grid rotation (./siderealGrid.ts), for instants inside it.
+  private gridT0 = 0;
+  private gridStepS2 = 1;
+  private gridN = 0;
+  private cosG: Float64Array = new Float64Array(0);
+  private sinG: Float64Array = new Float64Array(0);
+  private rateG: Float64Array = new Float64Array(0);
+  private readonly rot = new Float64Array(2);
+  /** Use the rotation the grid loop computed for its current chunk (samples t0 + k·stepS, k < n). */
+  useGridRotation(t0: number, stepS: number, n: number, cosG: Float64Array, sinG: Float64Array, rateG: Float64Array): void {
+    this.gridT0 = t0;
+    this.gridStepS2 = stepS;
+    this.gridN = n;
+    this.cosG = cosG;
+    this.sinG = sinG;
+    this.rateG = rateG;
+  }
   /** Earth-fixed state at t into {@link state} (temeToEcef of src/orbit/frames.ts, in place). */
   at(t: number): Float64Array {
     const out = this.state;
     stateInto(this.traj, t, out);
     this.statesEvaluated++;
-    const g = this.gmstRadAt(t);
-    const c = Math.cos(g);
-    const s = Math.sin(g);
+    let c: number;
+    let s: number;
+    if (earthRotationAtGridTime(t, this.gridT0, this.gridStepS2, this.gridN, this.cosG, this.sinG, this.rateG, this.rot)) {
+      c = this.rot[0];
+      s = this.rot[1];
+    } else {
+      const g = this.gmstRadAt(t);
+      c = Math.cos(g);
+      s = Math.sin(g);
+    }
     const x = c * out[0] + s * out[1];
     const y = -s * out[0] + c * out[1];
     const vx = c * out[3] + s * out[4];

@@ -171,6 +171,7 @@ export function findPassesMany(
   const times = new Float64Array(chunk);
   const cosG = new Float64Array(chunk);
   const sinG = new Float64Array(chunk);
+  const rateG = new Float64Array(chunk);
   const block = allocStateBlock(chunk);
   const w = WGS84_OMEGA_RAD_PER_S;
   for (let start = 0; start < total; start += chunk) {
@@ -184,7 +185,8 @@ export function findPassesMany(
     ev.statesEvaluated += n;
     // The window end is off the even grid: its angle exactly.
     const even = start + n - 1 === intervals ? n - 1 : n;
-    earthRotationAlongGrid(gmstRadAt, fromTtJ2000S + start * stepS, stepS, even, cosG, sinG);
+    earthRotationAlongGrid(gmstRadAt, fromTtJ2000S + start * stepS, stepS, even, cosG, sinG, rateG);
+    ev.useGridRotation(fromTtJ2000S + start * stepS, stepS, even, cosG, sinG, rateG);
     if (even < n) {
       const g = gmstRadAt(ts[n - 1]);
       cosG[n - 1] = Math.cos(g);

@@ -9,7 +9,9 @@
  * middle anchor agrees with the line through the end anchors to rounding. When it does not (by
  * more than {@link ANCHOR_MISMATCH_RAD}), the block holds a UTC jump (a leap second turns the Earth
  * by ω·1 s = 7.3e-5 rad, which puts half of it at the middle) or the caller's angle is not linear
- * in time there: the block is then evaluated exactly sample by sample.
+ * in time there: the block is then evaluated exactly sample by sample. Refinement instants between
+ * two samples of one linear block take the angle from the sample before them and the block's rate
+ * ({@link earthRotationAtGridTime}); elsewhere the caller evaluates it.
  */
 import type { GmstRadAt } from './passes.ts';
 
@@ -31,13 +33,16 @@ function wrapPi(a: number): number {
 }
 
 /**
- * cos and sin of the sidereal angle at t0 + k·stepS, k = 0 … n − 1, into cosOut[k] and sinOut[k].
- * Exact at the anchors; elsewhere within 1e-9 rad of `gmstRadAt` (see the module comment).
+ * cos and sin of the sidereal angle at t0 + k·stepS, k = 0 … n − 1, into cosOut[k] and sinOut[k],
+ * and into rateOut[k] the angle's rate [rad/s] over the block of sample k when that block is linear
+ * (NaN when it was evaluated sample by sample). Exact at the anchors; elsewhere within 1e-9 rad of
+ * `gmstRadAt` (see the module comment).
  */
-export function earthRotationAlongGrid(gmstRadAt: GmstRadAt, t0: number, stepS: number, n: number, cosOut: Float64Array, sinOut: Float64Array): void {
+export function earthRotationAlongGrid(gmstRadAt: GmstRadAt, t0: number, stepS: number, n: number, cosOut: Float64Array, sinOut: Float64Array, rateOut: Float64Array): void {
   for (let start = 0; start < n; start += BLOCK_SAMPLES) {
     const m = Math.min(BLOCK_SAMPLES, n - start);
     const ta = t0 + start * stepS;
+    rateOut.fill(Number.NaN, start, start + m);
     if (m < 3) {
       for (let k = 0; k < m; k++) {
         const g = gmstRadAt(ta + k * stepS);
@@ -62,6 +67,7 @@ export function earthRotationAlongGrid(gmstRadAt: GmstRadAt, t0: number, stepS: 
       }
       continue;
     }
+    rateOut.fill(perStep / stepS, start, start + m);
     const cStep = Math.cos(perStep);
     const sStep = Math.sin(perStep);
     let c = Math.cos(thA);
@@ -77,4 +83,27 @@ export function earthRotationAlongGrid(gmstRadAt: GmstRadAt, t0: number, stepS: 
     cosOut[start + last] = Math.cos(thB);
     sinOut[start + last] = Math.sin(thB);
   }
+}
+
+/**
+ * cos and sin [into out[0], out[1]] of the sidereal angle at a time t inside a grid filled by
+ * {@link earthRotationAlongGrid} (samples t0 + k·stepS, k < n): from the sample before t and its
+ * block's rate when the samples on both sides of t belong to the same linear block (a UTC jump
+ * between two blocks is in neither), else false (the caller evaluates the angle itself). The turn
+ * over less than a step (≤ 0.044 rad) is a Taylor series to the 7th power: error < 1e-15.
+ */
+export function earthRotationAtGridTime(t: number, t0: number, stepS: number, n: number, cosG: Float64Array, sinG: Float64Array, rateG: Float64Array, out: Float64Array): boolean {
+  const k = Math.floor((t - t0) / stepS);
+  if (!(k >= 0 && k + 1 < n) || (k + 1) % BLOCK_SAMPLES === 0) return false;
+  const rate = rateG[k];
+  if (Number.isNaN(rate)) return false;
+  const d = rate * (t - (t0 + k * stepS));
+  const d2 = d * d;
+  const cd = 1 - (d2 / 2) * (1 - (d2 / 12) * (1 - d2 / 30));
+  const sd = d * (1 - (d2 / 6) * (1 - (d2 / 20) * (1 - d2 / 42)));
+  const c = cosG[k];
+  const s = sinG[k];
+  out[0] = c * cd - s * sd;
+  out[1] = s * cd + c * sd;
+  return true;
 }
