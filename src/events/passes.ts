@@ -41,7 +41,8 @@
 import { WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../constants.ts';
 import { InputError } from '../errors.ts';
 import { allocStateBlock, checkSpan, type Trajectory } from '../orbit/trajectory.ts';
-import { earthFixedSpeedBoundMPerS, EcefEvaluator, StationScan } from './passScan.ts';
+import { earthFixedSpeedBoundMPerS, EcefEvaluator } from './passEvaluator.ts';
+import { StationScan } from './passScan.ts';
 import { earthRotationAlongGrid } from './siderealGrid.ts';
 import { checkStation, type Station } from './station.ts';
 
