@@ -17,11 +17,14 @@
  */
 import { SECONDS_PER_DAY } from '../constants.ts';
 import type { NoiseLevels, OnboardClock } from '../clock/oscillator.ts';
-import { InputError, InternalError } from '../errors.ts';
-import { band95Ns, band95Of, bandSigmaOf, outsideProbability } from './band.ts';
+import { InputError } from '../errors.ts';
+import { band95Ns, band95Of } from './band.ts';
 import { blackoutOf, blackoutsCover, type Blackout, type Contact } from './contacts.ts';
 import { crossingAndMargin, signOf, type Crossing } from './crossing.ts';
+import { crossingProbability, freeGrid, scanStepOf } from './freeRun.ts';
 import { offsetBend, type OffsetBend } from './offsetBend.ts';
+import { passAfter, passBefore } from './passChoice.ts';
+import { PlannedClock, type Step } from './plannedClock.ts';
 import { CONTINUOUS_STEPS, type ClockSteps } from './quantise.ts';
 import { sizeAdjustment, type Strategy } from './strategy.ts';
 
@@ -142,11 +145,6 @@ const PERIODIC_ALLOWANCE = 1.1;
 const PERIODIC_ALLOWANCE_NS = 0.5;
 const STRATEGIES: readonly Strategy[] = ['phase', 'frequency', 'combined'];
 
-interface Step {
-  atTtJ2000S: number;
-  phaseNs: number;
-  fractional: number;
-}
 
 /** Effect [ns] at t of phase and frequency steps applied at their instants. */
 function stepsEffectNs(steps: readonly Step[], t: number): number {
@@ -158,87 +156,6 @@ function stepsEffectNs(steps: readonly Step[], t: number): number {
 /** The offset [ns] of `clock` at t with a plan's adjustments applied (for plots and checks). */
 export function offsetWithAdjustmentsNs(clock: OnboardClock, adjustments: readonly Adjustment[], t: number): number {
   return clock.offsetNs(t) + stepsEffectNs(adjustments.map((a) => ({ atTtJ2000S: a.atTtJ2000S, phaseNs: a.phaseStepNs, fractional: a.frequencyStep })), t);
-}
-
-/**
- * The clock with the plan's steps applied. Steps are appended in time order; prefix sums make the
- * steps' effect at t one binary search instead of a loop over every step.
- */
-class PlannedClock {
-  private readonly at: number[] = [];
-  private readonly cumPhaseNs: number[] = [];
-  private readonly cumFractional: number[] = [];
-  private readonly cumFractionalAtS: number[] = [];
-  constructor(private readonly clock: OnboardClock) {}
-  push(s: Step): void {
-    const n = this.at.length;
-    if (n > 0 && s.atTtJ2000S < this.at[n - 1]) throw new InternalError('adjustments out of time order', 'adjustments');
-    this.at.push(s.atTtJ2000S);
-    this.cumPhaseNs.push((n > 0 ? this.cumPhaseNs[n - 1] : 0) + s.phaseNs);
-    this.cumFractional.push((n > 0 ? this.cumFractional[n - 1] : 0) + s.fractional);
-    this.cumFractionalAtS.push((n > 0 ? this.cumFractionalAtS[n - 1] : 0) + s.fractional * s.atTtJ2000S);
-  }
-  offsetNs(t: number): number {
-    return this.withStepsNs(this.clock.offsetNs(t), t);
-  }
-  /** The planned offset [ns] at t from the free-running offset x [ns] there. */
-  withStepsNs(x: number, t: number): number {
-    // Last step at or before t (the scans ask mostly after the last one).
-    const count = this.at.length;
-    let lo = count > 0 && this.at[count - 1] <= t ? count : 0;
-    let hi = count;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (this.at[mid] <= t) lo = mid + 1;
-      else hi = mid;
-    }
-    if (lo === 0) return x;
-    const i = lo - 1;
-    return x + this.cumPhaseNs[i] + 1e9 * (this.cumFractional[i] * t - this.cumFractionalAtS[i]);
-  }
-  /**
-   * Smallest limitNs − |planned offset| [ns] over the scan instants min(to, from + k·step) whose
-   * free-running offsets are `freeGridNs` (as offsetNs there; the steps found by walking forward).
-   */
-  minMarginNs(limitNs: number, freeGridNs: Float64Array, from: number, to: number, stepS: number): number {
-    let minMarginNs = Infinity;
-    let lo = 0;
-    for (let k = 0; k < freeGridNs.length; k++) {
-      const t = Math.min(to, from + k * stepS);
-      while (lo < this.at.length && this.at[lo] <= t) lo++;
-      const x = freeGridNs[k];
-      const i = lo - 1;
-      const planned = lo === 0 ? x : x + this.cumPhaseNs[i] + 1e9 * (this.cumFractional[i] * t - this.cumFractionalAtS[i]);
-      minMarginNs = Math.min(minMarginNs, limitNs - Math.abs(planned));
-    }
-    return minMarginNs;
-  }
-  /** Size [ns] of the terms the steps add to the offset at instants up to |t| ≤ tMaxS (for rounding allowances). */
-  stepsMagnitudeNs(tMaxS: number): number {
-    const i = this.at.length - 1;
-    if (i < 0) return 0;
-    return Math.abs(this.cumPhaseNs[i]) + 1e9 * (Math.abs(this.cumFractional[i]) * Math.abs(tMaxS) + Math.abs(this.cumFractionalAtS[i]));
-  }
-  /** Window of one orbit centred on t, kept inside [from, to]. */
-  private window(t: number, periodS: number, from: number, to: number): [number, number] {
-    let a = Math.max(from, t - periodS / 2);
-    const b = Math.min(to, a + periodS);
-    a = Math.max(from, b - periodS);
-    return b - a < 1 ? [Math.max(from, t - 60), Math.min(to, t + 60)] : [a, b];
-  }
-  /** Offset averaged over one orbit centred on t (Simpson, 64 intervals): the trend without the periodic swing. */
-  meanOffsetNs(t: number, periodS: number, from: number, to: number): number {
-    const [a, b] = this.window(t, periodS, from, to);
-    const n = 64;
-    let sum = 0;
-    for (let k = 0; k <= n; k++) sum += (k === 0 || k === n ? 1 : k % 2 === 1 ? 4 : 2) * this.offsetNs(a + ((b - a) * k) / n);
-    return sum / (3 * n);
-  }
-  /** Mean rate [ns/s] over one orbit centred on t (removes the orbit's periodic term). */
-  meanRateNsPerS(t: number, periodS: number, from: number, to: number): number {
-    const [a, b] = this.window(t, periodS, from, to);
-    return (this.offsetNs(b) - this.offsetNs(a)) / (b - a);
-  }
 }
 
 /**
@@ -260,59 +177,10 @@ export function periodicAmplitudeNs(clock: OnboardClock, from: number, to: numbe
   return (hi - lo) / 2;
 }
 
-const scanStepOf = (periodS: number): number => Math.max(10, Math.min(600, periodS / 8));
-
 interface StrategyPlan {
   adjustments: Adjustment[];
   unplannable: SatelliteResetPlan['unplannable'];
   minMarginNs: number;
-}
-
-/** Index of the first contact (sorted by AOS) whose AOS is after t. */
-function firstAosAfter(contacts: readonly Contact[], t: number): number {
-  let lo = 0;
-  let hi = contacts.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (contacts[mid].aosTtJ2000S > t) hi = mid;
-    else lo = mid + 1;
-  }
-  return lo;
-}
-
-const usableAfter = (c: Contact, since: number): boolean => c.uplink !== false && c.aosTtJ2000S > since && c.tcaTtJ2000S > since;
-
-/**
- * The first uplink pass after `since` (ideal) and the first one allowed (`why` null), contacts
- * sorted by AOS (`ordered`: all times are numbers, so the sort holds and a search can skip the past).
- */
-function passAfter(contacts: readonly Contact[], since: number, why: (c: Contact) => MovedFrom | null, ordered: boolean): { chosen: Contact | undefined; ideal: Contact | undefined } {
-  let ideal: Contact | undefined;
-  for (let i = ordered ? firstAosAfter(contacts, since) : 0; i < contacts.length; i++) {
-    const c = contacts[i];
-    if (!usableAfter(c, since)) continue;
-    ideal ??= c;
-    if (why(c) === null) return { chosen: c, ideal };
-  }
-  return { chosen: undefined, ideal };
-}
-
-/**
- * The last uplink pass after `since` that ends by `deadline` (ideal) and the last such one allowed,
- * contacts sorted by AOS. `ordered` (no pass ends before it begins): passes beginning after the
- * deadline are not looked at.
- */
-function passBefore(contacts: readonly Contact[], since: number, deadline: number, why: (c: Contact) => MovedFrom | null, ordered: boolean): { chosen: Contact | undefined; ideal: Contact | undefined } {
-  let ideal: Contact | undefined;
-  const first = ordered ? firstAosAfter(contacts, since) : 0;
-  const end = ordered ? firstAosAfter(contacts, deadline) : contacts.length;
-  for (let i = end - 1; i >= first; i--) {
-    const c = contacts[i];
-    if (!usableAfter(c, since) || !(c.losTtJ2000S <= deadline)) continue;
-    ideal ??= c;
-    if (why(c) === null) return { chosen: c, ideal };
-  }
-  return { chosen: undefined, ideal };
 }
 
 /** Plan one strategy to the horizon. */
@@ -413,63 +281,6 @@ function planStrategy(req: ResetRequest, strategy: Strategy, periodicNs: number,
     a.quantisationErrorNs = a.phaseStepNs - exact[i].phaseNs + (a.frequencyStep - exact[i].fractional) * 1e9 * (next - a.atTtJ2000S);
   });
   return { adjustments, unplannable, minMarginNs: planned.minMarginNs(L, freeGridNs, from, to, scanStepS) };
-}
-
-/** The free-running offset [ns] at the scan instants from the plan start: min(to, from + k·step), k = 0…n. */
-function freeGrid(req: ResetRequest): Float64Array {
-  const { fromTtJ2000S: from, toTtJ2000S: to } = req;
-  const step = scanStepOf(req.periodS);
-  const n = Math.ceil((to - from) / step);
-  const grid = new Float64Array(Math.max(0, n + 1));
-  for (let k = 0; k <= n; k++) grid[k] = req.clock.offsetNs(Math.min(to, from + k * step));
-  return grid;
-}
-
-/**
- * The band's 1-σ [ns] at the scan instants from the plan start (NaN: not worked out yet), kept for
- * the next satellite with the same noise and span: a scenario's satellites mostly share both. A
- * cache of a pure function of its key, so the plans do not depend on the order they are made in.
- */
-let sigmaGridMemo: { key: readonly (number | boolean)[]; sigmaNs: Float64Array } | null = null;
-
-function sigmaGridFor(noise: NoiseLevels | null, from: number, to: number, stepS: number, count: number): Float64Array {
-  const key = [noise === null, noise?.whiteFmAdev1s ?? 0, noise?.flickerFmFloor ?? 0, noise?.randomWalkFmAdev1d ?? 0, from, to, stepS, count];
-  if (sigmaGridMemo === null || sigmaGridMemo.key.length !== key.length || sigmaGridMemo.key.some((v, i) => !Object.is(v, key[i]))) {
-    sigmaGridMemo = { key, sigmaNs: new Float64Array(count).fill(NaN) };
-  }
-  return sigmaGridMemo.sigmaNs;
-}
-
-/** Scan points per block of crossingProbability. */
-const PROBABILITY_BLOCK = 64;
-/** Allowance [probability] for the normal tail's approximation (≤ 1.5e-7 per limit) and rounding. */
-const PROBABILITY_SLACK = 1e-6;
-
-/**
- * Largest probability over [from, to] that the free-running offset is outside ±L at one instant
- * (the largest over the scan points). Blocks of points are taken from the end, where the band is
- * widest: inside the limit the probability grows with |x| and with the band, so a block whose
- * largest |x| with its widest band stays below the largest so far cannot raise it and is passed.
- */
-function crossingProbability(req: ResetRequest, freeGridNs: Float64Array): number {
-  const { fromTtJ2000S: from, toTtJ2000S: to, limitNs: L } = req;
-  const step = scanStepOf(req.periodS);
-  const sigma = bandSigmaOf(req.noise);
-  const known = sigmaGridFor(req.noise, from, to, step, freeGridNs.length);
-  const sigmaAt = (k: number): number => {
-    let v = known[k];
-    if (v !== v) known[k] = v = sigma(Math.min(to, from + k * step) - from);
-    return v;
-  };
-  let p = 0;
-  for (let end = freeGridNs.length; end > 0; end -= PROBABILITY_BLOCK) {
-    const start = Math.max(0, end - PROBABILITY_BLOCK);
-    let xMaxNs = 0;
-    for (let k = start; k < end; k++) xMaxNs = Math.max(xMaxNs, Math.abs(freeGridNs[k]));
-    if (xMaxNs < L && outsideProbability(xMaxNs, sigmaAt(end - 1) * (1 + 1e-12), L) + PROBABILITY_SLACK < p) continue;
-    for (let k = start; k < end; k++) p = Math.max(p, outsideProbability(freeGridNs[k], sigmaAt(k), L));
-  }
-  return p;
 }
 
 /** Plan the adjustments for one satellite with the preferred strategy, and compare all three. */
