@@ -6,9 +6,18 @@
  * - the break-even altitude 3GM/(2 L_G c²) − a_E ≈ 3167 km;
  * - a vertical launch that falls back gains proper time against the launch-site clock, while a
  *   circular orbit at the launch radius loses against it. The flight's size is checked against an
- *   independent fixed-step RK4 integration written in this file (common practice).
+ *   independent fixed-step RK4 integration written in this file (common practice);
+ * - a flight launched before the compare window counts from the window start: the part cut off is
+ *   ∫ (y_flight − y_pad) dt over the cut, with y = L_G − (v²/2 + GM/r)/c² (IERS Conventions 2010
+ *   §10.1, point mass; derived), the flight's speed at mid-cut from energy conservation.
  */
-import { describe, expect, it } from 'vitest';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { compareClocks as compareScenarioClocks } from '../src/api/compare.ts';
+import { loadScenario } from '../src/api/scenario.ts';
+import { ONE_LINE_ERROR, runCli } from './helpers/cli.ts';
 import { groundClockFractionalOffset } from '../src/clock/groundClock.ts';
 import { gravityModel } from '../src/orbit/gravity.ts';
 import { IERS2010_L_G, SPEED_OF_LIGHT_M_PER_S, WGS84_A_M, WGS84_GM_M3_PER_S2, WGS84_OMEGA_RAD_PER_S } from '../src/constants.ts';
@@ -139,5 +148,79 @@ describe('vertical launch that falls back', () => {
     expect(Math.abs(flightEnd - T0 - t), `flight ${flightEnd - T0} s vs RK4 ${t} s`).toBeLessThan(1e-3);
     // RK4 at 0.01 s and the trapezoid rule are good to far below 1 ps over a 10-minute flight.
     expect(Math.abs(pair.elapsedDifferenceNs - referenceNs), `tauplan ${pair.elapsedDifferenceNs} ns, RK4 ${referenceNs} ns`).toBeLessThan(1e-3);
+  });
+});
+
+describe('a flight launched before the compare window', () => {
+  // INVENTED: a made-up sounding flight, orbiter and stations (one on the Moon, whose clock is
+  // integrated over the window). The flight is launched half a second before the window, as a
+  // countdown slipping past the planned window start would do.
+  const scenario = (launch: string, clock = ''): string => `name: Early hop (invented)
+window: { start: 2027-03-01T00:00:00Z, end: 2027-03-01T02:00:00Z }
+gravity: point
+satellites:
+  - id: HOP-1
+    orbit:
+      state: { epoch: ${launch}, frame: TEME, positionKm: [6380.0, 0, 0], velocityKmPerS: [3.0, 0.5, 0] }
+${clock}  - id: RING-1
+    orbit:
+      keplerian: { epoch: 2027-03-01T00:00:00Z, aKm: 7000, e: 0.001, iDeg: 50, raanDeg: 0, argpDeg: 0, meanAnomalyDeg: 0 }
+stations:
+  - { id: PADFIELD, latDeg: 0, lonDeg: 0, heightM: 10, geoidHeightM: 0, maskDeg: 5, minPassS: 0 }
+  - { id: HALDEN-BASE, body: moon, latDeg: 0, lonDeg: 0, heightM: 0, maskDeg: 5, minPassS: 300 }
+`;
+  const dir = mkdtempSync(join(tmpdir(), 'tauplan-early-hop-'));
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+  const ms = (iso: string): number => Date.parse(iso);
+
+  it('counts over its part inside the window; the cut part matches (y_flight − y_pad)·Δt', () => {
+    const text = scenario('2027-02-28T23:59:59.500Z');
+    const cut = compareScenarioClocks(loadScenario(text));
+    const whole = compareScenarioClocks(loadScenario(text), { from: '2027-02-28T23:59:59.500Z' });
+    const hop = cut.clocks.find((c) => c.id === 'HOP-1')!;
+    expect(hop.flightStart).toBe('2027-02-28T23:59:59.500Z');
+    expect(hop.from, 'the figures start at the window start').toBe('2027-03-01T00:00:00.000Z');
+    const hopPairs = cut.pairs.filter((p) => p.a === 'HOP-1' || p.b === 'HOP-1');
+    expect(hopPairs.map((p) => p.b).sort()).toEqual(['HALDEN-BASE', 'PADFIELD', 'RING-1']);
+    for (const p of hopPairs) {
+      expect(p.from, `${p.a} − ${p.b} starts at the window start`).toBe('2027-03-01T00:00:00.000Z');
+      expect(p.to, `${p.a} − ${p.b} ends at the landing`).toBe(hop.flightEnd);
+      expect(ms(p.to)).toBeLessThan(ms('2027-03-01T02:00:00Z'));
+    }
+    // The 0.5 s cut off: rate difference at mid-cut (radius from the launch climb rate ṙ = 3 km/s,
+    // speed from v²/2 − GM/r = const), times 0.5 s. The pad's radius and ground speed from WGS-84.
+    const gm = WGS84_GM_M3_PER_S2;
+    const r0 = 6_380_000;
+    const v0 = Math.hypot(3000, 500);
+    const rMid = r0 + 3000 * 0.25;
+    const hopRate = -((v0 ** 2 / 2 - gm / r0 + gm / rMid) + gm / rMid) / C2;
+    const pad = geodeticToEcefM(0, 0, 10);
+    const padR = Math.hypot(pad[0], pad[1], pad[2]);
+    const padRate = -((WGS84_OMEGA_RAD_PER_S * Math.hypot(pad[0], pad[1])) ** 2 / 2 + gm / padR) / C2;
+    const wantNs = (hopRate - padRate) * 0.5 * 1e9;
+    const pairOf = (r: typeof cut) => r.pairs.find((p) => p.a === 'HOP-1' && p.b === 'PADFIELD')!.elapsedDifferenceNs;
+    const gotNs = pairOf(whole) - pairOf(cut);
+    // 0.1 %: the rate's change over the cut is taken at its midpoint (error ~1e-5 of it); the Moon
+    // and Sun tides of this lunar scenario differ between flight and pad by ~1e-6 of it.
+    expect(Math.abs(gotNs - wantNs), `wanted ${wantNs} ns, got ${gotNs} ns, difference ${gotNs - wantNs} ns`).toBeLessThan(Math.abs(wantNs) * 1e-3);
+  });
+
+  it('a flight that lands before the window is refused in one line naming the satellite and the fix', () => {
+    const path = join(dir, 'landed.yaml');
+    writeFileSync(path, scenario('2027-02-28T23:30:00Z'));
+    const r = runCli(['compare', path]);
+    expect(r.code, r.stderr).toBe(2);
+    expect(r.stderr).toMatch(ONE_LINE_ERROR);
+    expect(r.stderr).toMatch(/sub-orbital flight of HOP-1 .* has no part in the window .*satellites\[0\]\) — give a window that holds part of the flight/);
+    expect(r.stdout).toBe('');
+  });
+
+  it('passes with a clock epoch before the launch: refused in one line naming clock.epoch', () => {
+    const path = join(dir, 'early-clock.yaml');
+    writeFileSync(path, scenario('2027-02-28T23:59:59.500Z', '    clock: { epoch: 2027-02-28T23:00:00Z }\n'));
+    const r = runCli(['passes', path]);
+    expect(r.code, r.stderr).toBe(2);
+    expect(r.stderr).toMatch(ONE_LINE_ERROR);
+    expect(r.stderr).toMatch(/clock epoch .* of HOP-1 is outside its sub-orbital flight .*satellites\[0\]\.clock\.epoch\) — give a clock epoch/);
   });
 });

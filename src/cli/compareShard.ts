@@ -10,8 +10,8 @@
  *   --pairs all) a clock's partners are every clock after it, which a shard integrates without
  *   their own figures (about a quarter of a clock's cost).
  * compare's output has no whole-run figure (each row and pair is computed from its own clocks), so
- * the merge only orders rows. The integration window of every orbit still covers every flight of
- * the scenario (src/plan/scenarioCompare.ts), which keeps each figure bit-identical to one run.
+ * the merge only orders rows. Every clock is integrated over the window (a flight over its part
+ * inside it; src/plan/compare.ts) whatever the shard, which keeps each figure bit-identical to one run.
  */
 import type { ScenarioSpec } from '../model/scenario.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';

@@ -2,8 +2,9 @@
  * Use case `compare`: satellites and stations as clocks in one field, over one window
  * (contract `tauplan compare`; physics.md §4 and §11). Relativity only: no oscillator model.
  *
- * A sub-orbital trajectory (a flight that returns to its starting radius) is compared over its
- * flight [epoch, flightEnd] only; so is every pair that includes it.
+ * A sub-orbital trajectory (a flight that returns to its starting radius) is compared over the part
+ * of its flight [epoch, flightEnd] inside the window only; so is every pair that includes it. Every
+ * clock is thus integrated within the window, whose span every source covers.
  */
 import { groundClockFractionalOffset } from '../clock/groundClock.ts';
 import type { GravityModel } from '../orbit/gravity.ts';
@@ -15,6 +16,7 @@ import { allocStateBlock, type Trajectory } from '../orbit/trajectory.ts';
 import { halfRangeAboutLine, lineFit, orbitSummaryAt } from './size.ts';
 import { bodyOf, lunarFieldOf, lunarStationTrack, lunarTrackFigures, type BodyStation } from './lunarScenario.ts';
 import type { CentralBody } from '../model/scenario.ts';
+import { InputError } from '../errors.ts';
 
 export interface CompareSatellite {
   id: string;
@@ -35,9 +37,11 @@ export interface ClockComparison {
   periodicAmplitudeNs: number;
   /** Proper time elapsed minus TT elapsed over the clock's interval [ns]. */
   elapsedOffsetNs: number;
-  /** Interval the figures cover, seconds since J2000.0 TT. */
+  /** Interval the figures cover, seconds since J2000.0 TT (for a flight, its part inside the window). */
   fromTtJ2000S: number;
   toTtJ2000S: number;
+  /** For a flight: its launch (the state epoch), seconds since J2000.0 TT; null for an orbit or a station. */
+  flightStartTtJ2000S: number | null;
   flightEndTtJ2000S: number | null;
 }
 
@@ -85,11 +89,25 @@ export interface CompareSubset {
 /** A computed clock as the pairs and series see it. */
 type Member = Pick<ClockComparison, 'id' | 'fromTtJ2000S' | 'toTtJ2000S' | 'flightEndTtJ2000S'>;
 
+/** Shortest part of a flight inside the window that is compared [s] (as passes and resets take it). */
+const MIN_FLIGHT_IN_WINDOW_S = 1;
+
+/**
+ * The part of a flight inside [from, to]; a flight with less than a second there is an InputError
+ * (scenarioCompare.ts refuses it first with the times and the scenario path).
+ */
+export function flightPartInWindow(id: string, flight: { startTtJ2000S: number; endTtJ2000S: number }, fromTtJ2000S: number, toTtJ2000S: number): { fromTtJ2000S: number; toTtJ2000S: number } {
+  const from = Math.max(fromTtJ2000S, flight.startTtJ2000S);
+  const to = Math.min(toTtJ2000S, flight.endTtJ2000S);
+  if (!(to - from >= MIN_FLIGHT_IN_WINDOW_S)) throw new InputError(`the sub-orbital flight of ${id} lies outside the window`, id, 'give a window that holds part of the flight');
+  return { fromTtJ2000S: from, toTtJ2000S: to };
+}
+
 /**
  * Compare clocks over [from, to]. `against` names the reference clock of the offset series (a
  * satellite or station id); without it the series are against TT. With `subset`, only those clocks
- * (and the pairs among them) are computed; every flight in `sats` still widens the window, so each
- * figure equals the whole comparison's bit for bit.
+ * (and the pairs among them) are computed; each figure equals the whole comparison's bit for bit.
+ * A flight counts over its part inside the window; one with none there is an InputError.
  */
 export function compareClocks(sats: CompareSatellite[], stations: BodyStation[], gravity: GravityModel, fromTtJ2000S: number, toTtJ2000S: number, against?: string, subset?: CompareSubset): CompareResult {
   const clocks: ClockComparison[] = [];
@@ -97,32 +115,25 @@ export function compareClocks(sats: CompareSatellite[], stations: BodyStation[],
   const elapsed = new Map<string, Elapsed>();
   const only = subset?.clocks;
   const wantsFigures = (id: string): boolean => subset?.figures === undefined || subset.figures.has(id);
-  // Orbits are integrated over the window, widened to cover every flight so pairs can be formed.
-  let lo = fromTtJ2000S;
-  let hi = toTtJ2000S;
-  for (const s of sats) {
-    if (s.flight !== null) {
-      lo = Math.min(lo, s.flight.startTtJ2000S);
-      hi = Math.max(hi, s.flight.endTtJ2000S);
-    }
-  }
+  // Every flight is checked, computed or not, so each shard of a run refuses the same input.
+  const inWindow = new Map(sats.flatMap((s) => (s.flight === null ? [] : [[s.id, flightPartInWindow(s.id, s.flight, fromTtJ2000S, toTtJ2000S)] as const])));
   for (const s of sats) {
     if (only !== undefined && !only.has(s.id)) continue;
-    const from = s.flight?.startTtJ2000S ?? lo;
-    const to = s.flight?.endTtJ2000S ?? hi;
+    // Orbits over the window; a flight over its part inside it (the orbit sources cover the window only).
+    const part = inWindow.get(s.id);
+    const from = part?.fromTtJ2000S ?? fromTtJ2000S;
+    const to = part?.toTtJ2000S ?? toTtJ2000S;
     // A lunar orbit's step follows its period about the Moon, not its geocentric one.
     const orbit = orbitSummaryAt(s.trajectory, from, gravity.gmM3PerS2);
     const periodS = Number.isFinite(orbit.periodS) && orbit.periodS > 0 ? orbit.periodS : 6000;
     const maxStep = s.flight === null ? clockStepS(periodS, Math.min(orbit.e, 0.95)) : Math.min(10, (to - from) / 20);
     const [track] = integrateAlong(s.trajectory, from, to, maxStep, [(x, y, z, vx, vy, vz, t) => fractionalOffset(gravity, x, y, z, vx, vy, vz, t)]);
-    const reportFrom = s.flight === null ? fromTtJ2000S : from;
-    const reportTo = s.flight === null ? toTtJ2000S : to;
     elapsed.set(s.id, (a, b) => track.integralAt(b) - track.integralAt(a));
-    members.push({ id: s.id, fromTtJ2000S: reportFrom, toTtJ2000S: reportTo, flightEndTtJ2000S: s.flight?.endTtJ2000S ?? null });
+    members.push({ id: s.id, fromTtJ2000S: from, toTtJ2000S: to, flightEndTtJ2000S: s.flight?.endTtJ2000S ?? null });
     if (!wantsFigures(s.id)) continue; // a partner in pairs only: its figures (most of the cost) are not needed
     // A flight is no orbit: its mean is the plain average over the flight, not an orbit-mean slope.
     const body = bodyOf(s.trajectory);
-    const fig = s.flight !== null ? flightFigures(track, reportFrom, reportTo) : body === 'moon' ? lunarTrackFigures(s.trajectory, track, lunarFieldOf(gravity), reportFrom, reportTo, true) : trackFigures(s.trajectory, track, reportFrom, reportTo);
+    const fig = s.flight !== null ? flightFigures(track, from, to) : body === 'moon' ? lunarTrackFigures(s.trajectory, track, lunarFieldOf(gravity), from, to, true) : trackFigures(s.trajectory, track, from, to);
     clocks.push({
       id: s.id,
       kind: 'satellite',
@@ -130,9 +141,10 @@ export function compareClocks(sats: CompareSatellite[], stations: BodyStation[],
       meanFractionalOffset: fig.slope,
       driftNsPerDay: fig.slope * SECONDS_PER_DAY * 1e9,
       periodicAmplitudeNs: fig.periodicNs,
-      elapsedOffsetNs: (track.integralAt(reportTo) - track.integralAt(reportFrom)) * 1e9,
-      fromTtJ2000S: reportFrom,
-      toTtJ2000S: reportTo,
+      elapsedOffsetNs: (track.integralAt(to) - track.integralAt(from)) * 1e9,
+      fromTtJ2000S: from,
+      toTtJ2000S: to,
+      flightStartTtJ2000S: s.flight?.startTtJ2000S ?? null,
       flightEndTtJ2000S: s.flight?.endTtJ2000S ?? null,
     });
   }
@@ -155,6 +167,7 @@ export function compareClocks(sats: CompareSatellite[], stations: BodyStation[],
         elapsedOffsetNs: track.total * 1e9,
         fromTtJ2000S,
         toTtJ2000S,
+        flightStartTtJ2000S: null,
         flightEndTtJ2000S: null,
       });
       continue;
@@ -174,6 +187,7 @@ export function compareClocks(sats: CompareSatellite[], stations: BodyStation[],
       elapsedOffsetNs: y * (toTtJ2000S - fromTtJ2000S) * 1e9,
       fromTtJ2000S,
       toTtJ2000S,
+      flightStartTtJ2000S: null,
       flightEndTtJ2000S: null,
     });
   }

@@ -105,13 +105,17 @@ export function checkWindowInSpan(traj: Trajectory, from: number, to: number, ts
 
 /**
  * For a sub-orbital flight (a ballistic state that lands), the part of [from, to] it covers; null for
- * an orbit. A flight wholly outside the window is refused.
+ * an orbit. A flight with less than a second inside the window is refused (SpanError on `satPath`).
  */
-function flightInWindow(traj: Trajectory, from: number, to: number, ts: TimeSystem, satPath: string): { fromTtJ2000S: number; toTtJ2000S: number; landTtJ2000S: number } | null {
+export function flightInWindow(traj: Trajectory, from: number, to: number, ts: TimeSystem, satPath: string): { fromTtJ2000S: number; toTtJ2000S: number; landTtJ2000S: number } | null {
   if (!(traj instanceof NumericalTrajectory) || traj.flightEndTtJ2000S === null) return null;
   const start = Math.max(from, traj.validFromTtJ2000S);
   const end = Math.min(to, traj.flightEndTtJ2000S);
-  if (!(end - start >= 1)) checkWindowInSpan(traj, from, to, ts, satPath, 'give a window that holds part of the flight');
+  if (!(end - start >= 1)) {
+    const f = (t: number): string => ts.format(Instant.fromTtJ2000S(t));
+    const [launch, land] = [f(traj.validFromTtJ2000S), f(traj.flightEndTtJ2000S)];
+    throw new SpanError(`the sub-orbital flight of ${traj.id} (${launch} to ${land}) has no part in the window ${f(from)} to ${f(to)}`, satPath, launch, land, 'give a window that holds part of the flight (--from/--to or window:), or the state of a flight inside the window');
+  }
   return { fromTtJ2000S: start, toTtJ2000S: end, landTtJ2000S: traj.flightEndTtJ2000S };
 }
 
@@ -186,8 +190,13 @@ export function prepareScenario(scenario: ScenarioSpec, ts: TimeSystem, sel: Sce
     const resolved = resolveOrbit(sat, scenario, ts, gravity, spanWithClockEpoch(from, to, params));
     const flight = flightInWindow(resolved.trajectory, from, to, ts, `${path} ${sat.path}`);
     if (flight !== null) {
-      const run = prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, params, flight.fromTtJ2000S, flight.toTtJ2000S);
       const f = (t: number): string => ts.format(Instant.fromTtJ2000S(t));
+      // The clock is integrated from its epoch, and a flight has no states before launch or after landing.
+      if (params !== null && (params.epochTtJ2000S < resolved.trajectory.validFromTtJ2000S - 1e-3 || params.epochTtJ2000S + 1 > flight.landTtJ2000S + 1e-3)) {
+        const [launch, land] = [f(resolved.trajectory.validFromTtJ2000S), f(flight.landTtJ2000S)];
+        throw new SpanError(`the clock epoch ${f(params.epochTtJ2000S)} of ${sat.id} is outside its sub-orbital flight ${launch} to ${land}`, `${path} ${sat.path}.clock.epoch`, launch, land, 'give a clock epoch from the state epoch to a second before landing (the clock is integrated from it)');
+      }
+      const run = prepareSatelliteClock(sat.id, resolved.name, resolved.trajectory, gravity, params, flight.fromTtJ2000S, flight.toTtJ2000S);
       const clipped = flight.fromTtJ2000S > resolved.trajectory.validFromTtJ2000S || flight.toTtJ2000S < flight.landTtJ2000S;
       const note = `${sat.id}: sub-orbital flight from ${f(resolved.trajectory.validFromTtJ2000S)} to ${f(flight.landTtJ2000S)}; reported over ${clipped ? `${f(flight.fromTtJ2000S)} to ${f(flight.toTtJ2000S)}` : 'its flight'} only`;
       return { ...run, startTtJ2000S: flight.fromTtJ2000S, endTtJ2000S: flight.toTtJ2000S, note };

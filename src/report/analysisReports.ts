@@ -26,7 +26,8 @@ export function compareToJson(r: CompareResult, ts: TimeSystem, meta: { scenario
       driftNsPerDay: c.driftNsPerDay,
       periodicAmplitudeNs: c.periodicAmplitudeNs,
       elapsedOffsetNs: c.elapsedOffsetNs,
-      ...(c.flightEndTtJ2000S === null ? {} : { flightStart: utc(ts, c.fromTtJ2000S), flightEnd: utc(ts, c.flightEndTtJ2000S) }),
+      // A flight: launch and landing, and the part of it inside the window that the figures cover.
+      ...(c.flightEndTtJ2000S === null ? {} : { flightStart: utc(ts, c.flightStartTtJ2000S ?? c.fromTtJ2000S), flightEnd: utc(ts, c.flightEndTtJ2000S), from: utc(ts, c.fromTtJ2000S), to: utc(ts, c.toTtJ2000S) }),
     })),
     pairs: r.pairs.map((p) => ({ a: p.a, b: p.b, elapsedDifferenceNs: p.elapsedDifferenceNs, from: utc(ts, p.fromTtJ2000S), to: utc(ts, p.toTtJ2000S) })),
     note: 'Relativity only (no oscillator model). Station rates use the scenario gravity model plus the given geoid undulation; tauplan carries no geoid model.',
@@ -55,6 +56,13 @@ export function pairInterval(ts: TimeSystem, p: { fromTtJ2000S: number; toTtJ200
   return whole ? `window (${span})` : `${utc(ts, p.fromTtJ2000S)} → ${utc(ts, p.toTtJ2000S)} (${span}, flight)`;
 }
 
+/** A flight's interval in text: the part inside the window, `*` marking an end cut by the window. */
+function flightInterval(ts: TimeSystem, c: { fromTtJ2000S: number; toTtJ2000S: number; flightStartTtJ2000S: number | null; flightEndTtJ2000S: number | null }): string {
+  const cutFrom = c.flightStartTtJ2000S !== null && c.fromTtJ2000S > c.flightStartTtJ2000S + 1e-3 ? '*' : '';
+  const cutTo = c.flightEndTtJ2000S !== null && c.toTtJ2000S < c.flightEndTtJ2000S - 1e-3 ? '*' : '';
+  return `flight ${utc(ts, c.fromTtJ2000S).slice(11, 23)}${cutFrom} → ${utc(ts, c.toTtJ2000S).slice(11, 23)}${cutTo}`;
+}
+
 export function compareToText(r: CompareResult, ts: TimeSystem, meta: { scenario: string; gravity: string; fromTtJ2000S: number; toTtJ2000S: number }): string {
   const out = [
     `Clock comparison — ${meta.scenario}`,
@@ -69,10 +77,11 @@ export function compareToText(r: CompareResult, ts: TimeSystem, meta: { scenario
         signed(c.driftNsPerDay, 3),
         fixed(c.periodicAmplitudeNs, 3),
         signed(c.elapsedOffsetNs, 3),
-        c.flightEndTtJ2000S === null ? 'window' : `flight ${utc(ts, c.fromTtJ2000S).slice(11, 23)} → ${utc(ts, c.flightEndTtJ2000S).slice(11, 23)}`,
+        c.flightEndTtJ2000S === null ? 'window' : flightInterval(ts, c),
       ]),
       [false, false, true, true, true, true, false],
     ),
+    ...(r.clocks.some((c) => c.flightEndTtJ2000S !== null && flightInterval(ts, c).includes('*')) ? ['* a flight\'s launch or landing cut by the window: its figures and pairs cover the part inside the window.'] : []),
     '',
     'Pairs (a − b, elapsed proper time over the common interval):',
     textTable(

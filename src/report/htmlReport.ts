@@ -323,7 +323,7 @@ export function compareFigures(ts: TimeSystem, r: CompareResult): string[] {
 export function compareSection(ts: TimeSystem, r: CompareResult, meta: { fromTtJ2000S: number; toTtJ2000S: number }, figures: string[] = []): SectionSpec {
   return {
     heading: 'Clock comparison',
-    intro: 'Relativity only (no oscillator model), against TT. Station clocks are earth-fixed at their heights; tauplan carries no geoid model, so give each station’s geoid undulation. A sub-orbital flight is compared over its flight only, and so is every pair that includes it (see the interval column).',
+    intro: 'Relativity only (no oscillator model), against TT. Station clocks are earth-fixed at their heights; tauplan carries no geoid model, so give each station’s geoid undulation. A sub-orbital flight is compared over the part of its flight inside the window only, and so is every pair that includes it (see the interval column).',
     figures,
     tables: [
       {
