@@ -16,80 +16,9 @@
  * record through {@link Sgp4RecordFields} and takes the constants from the caller.
  */
 
-/** The fields of an initialised satellite.js record this module reads (names as satellite.js has them). */
-export interface Sgp4RecordFields {
-  method: string;
-  isimp: number;
-  irez: number;
-  operationmode: string;
-  mo: number;
-  mdot: number;
-  argpo: number;
-  argpdot: number;
-  nodeo: number;
-  nodedot: number;
-  nodecf: number;
-  cc1: number;
-  cc4: number;
-  cc5: number;
-  bstar: number;
-  t2cof: number;
-  t3cof: number;
-  t4cof: number;
-  t5cof: number;
-  omgcof: number;
-  eta: number;
-  xmcof: number;
-  delmo: number;
-  d2: number;
-  d3: number;
-  d4: number;
-  sinmao: number;
-  no: number;
-  ecco: number;
-  inclo: number;
-  aycof: number;
-  xlcof: number;
-  con41: number;
-  x1mth2: number;
-  x7thm1: number;
-  dedt: number;
-  didt: number;
-  domdt: number;
-  dnodt: number;
-  dmdt: number;
-  e3: number;
-  ee2: number;
-  peo: number;
-  pgho: number;
-  pho: number;
-  pinco: number;
-  plo: number;
-  se2: number;
-  se3: number;
-  sgh2: number;
-  sgh3: number;
-  sgh4: number;
-  sh2: number;
-  sh3: number;
-  si2: number;
-  si3: number;
-  sl2: number;
-  sl3: number;
-  sl4: number;
-  xgh2: number;
-  xgh3: number;
-  xgh4: number;
-  xh2: number;
-  xh3: number;
-  xi2: number;
-  xi3: number;
-  xl2: number;
-  xl3: number;
-  xl4: number;
-  zmol: number;
-  zmos: number;
-}
+import { Sgp4RateRecord, type Sgp4RecordFields } from './sgp4RateRecord.ts';
+
+export { Sgp4RateRecord, type Sgp4RecordFields };
 
 /** SGP4's constants (WGS-72), as satellite.js defines them. */
 export interface Sgp4Constants {
@@ -118,41 +47,9 @@ export function rateCovers(rec: Sgp4RecordFields): boolean {
   return rec.method !== 'd' || rec.irez === 0;
 }
 
-/**
- * The record fields {@link sgp4WithRate} reads, copied once into a small object of one fixed shape
- * (satellite.js's record has about a hundred fields, several of them strings, and the hot loop reads
- * it per state), with three quantities SGP4 recomputes at every call although they depend on the
- * record only: `am0 = (xke/no)^(2/3)` and, near the earth, sin and cos of the inclination.
- * Computed by the same operations, so the results stay bit-identical.
- */
-export type Sgp4RateRecord = Readonly<Omit<Sgp4RecordFields, 'method' | 'isimp' | 'irez' | 'operationmode'>> & {
-  readonly deep: boolean;
-  readonly simple: boolean;
-  readonly afspcMode: boolean;
-  readonly am0: number;
-  readonly sinInclo: number;
-  readonly cosInclo: number;
-};
-
-const NUMERIC_FIELDS = [
-  'mo', 'mdot', 'argpo', 'argpdot', 'nodeo', 'nodedot', 'nodecf', 'cc1', 'cc4', 'cc5', 'bstar', 't2cof', 't3cof', 't4cof', 't5cof',
-  'omgcof', 'eta', 'xmcof', 'delmo', 'd2', 'd3', 'd4', 'sinmao', 'no', 'ecco', 'inclo', 'aycof', 'xlcof', 'con41', 'x1mth2', 'x7thm1',
-  'dedt', 'didt', 'domdt', 'dnodt', 'dmdt', 'e3', 'ee2', 'peo', 'pgho', 'pho', 'pinco', 'plo', 'se2', 'se3', 'sgh2', 'sgh3', 'sgh4',
-  'sh2', 'sh3', 'si2', 'si3', 'sl2', 'sl3', 'sl4', 'xgh2', 'xgh3', 'xgh4', 'xh2', 'xh3', 'xi2', 'xi3', 'xl2', 'xl3', 'xl4', 'zmol', 'zmos',
-] as const;
-
 /** The {@link Sgp4RateRecord} of an initialised record (one per element set, built once). */
 export function rateRecordOf(rec: Sgp4RecordFields, c: Sgp4Constants): Sgp4RateRecord {
-  const r: Record<string, number | boolean> = {};
-  for (const k of NUMERIC_FIELDS) r[k] = rec[k];
-  r.deep = rec.method === 'd';
-  r.simple = rec.isimp === 1;
-  r.afspcMode = rec.operationmode === 'a';
-  r.am0 = rec.no > 0 ? (c.xke / rec.no) ** c.x2o3 : NaN;
-  r.sinInclo = Math.sin(rec.inclo);
-  r.cosInclo = Math.cos(rec.inclo);
-  // One literal shape for every record: copy into a fresh object in a fixed key order.
-  return Object.fromEntries([...NUMERIC_FIELDS, 'deep', 'simple', 'afspcMode', 'am0', 'sinInclo', 'cosInclo'].map((k) => [k, r[k]])) as unknown as Sgp4RateRecord;
+  return new Sgp4RateRecord(rec, rec.no > 0 ? (c.xke / rec.no) ** c.x2o3 : NaN);
 }
 
 /**
