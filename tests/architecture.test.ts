@@ -23,7 +23,7 @@ const SRC = fileURLToPath(new URL('../src', import.meta.url));
 
 type Layer = 'base' | 'time' | 'model' | 'orbit' | 'clock' | 'events' | 'plan' | 'io' | 'report' | 'api' | 'cli';
 
-/** What each layer may import (itself included). `base` is errors.ts and constants.ts. */
+/** What each layer may import (itself included). `base` is errors.ts, constants.ts and lazyPackage.ts. */
 const ALLOWED: Record<Layer, readonly Layer[]> = {
   base: ['base'],
   time: ['base', 'time'],
@@ -45,7 +45,7 @@ const KNOWN_ARROWS: ReadonlySet<string> = new Set([
 
 /** The layer of a file under src/ (path relative to src, with `/`). */
 export function layerOf(rel: string): Layer {
-  if (rel === 'errors.ts' || rel === 'constants.ts') return 'base';
+  if (rel === 'errors.ts' || rel === 'constants.ts' || rel === 'lazyPackage.ts') return 'base';
   if (rel === 'index.ts') return 'api';
   const top = rel.split('/')[0];
   if (top in ALLOWED && top !== 'base') return top as Layer;

@@ -7,9 +7,11 @@
  * true-of-date axes; positions at the clock's instant (light time and aberration neglected: < 1e-5
  * relative change of the term).
  */
-import { Body, GeoMoon, GeoVector, MakeTime } from 'astronomy-engine';
+import { lazyPackage } from '../lazyPackage.ts';
 import { IAU2012_AU_M, IERS2010_GM_SUN_M3_PER_S2, IERS2010_MOON_EARTH_MASS_RATIO, WGS84_GM_M3_PER_S2, JD_J2000 } from '../constants.ts';
 import { gcrfToTemeInto, rotateInto } from '../orbit/temeOfDate.ts';
+
+const astronomy = lazyPackage<typeof import('astronomy-engine')>('astronomy-engine');
 
 /** GM of the Moon [m³/s²], from the IERS mass ratio and the contract's GM of the Earth. */
 export const GM_MOON_M3_PER_S2 = IERS2010_MOON_EARTH_MASS_RATIO * WGS84_GM_M3_PER_S2;
@@ -45,6 +47,7 @@ export class TidalField {
 
   bodiesAt(ttJ2000S: number): BodyPositions {
     const jd = this.jdUtcAt(ttJ2000S);
+    const { Body, GeoMoon, GeoVector, MakeTime } = astronomy();
     const time = MakeTime(jd - JD_J2000);
     // Into the satellite states' axes (TEME of date), from the interpolated IAU 2006/2000A chain.
     const m = gcrfToTemeInto(ttJ2000S, this.matrix);

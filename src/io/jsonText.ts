@@ -3,7 +3,11 @@
  * fails, jsonc-parser (comments and trailing commas disallowed) finds the first fault's offset,
  * which becomes file:line and a column with what was expected there.
  */
-import { parse, ParseErrorCode, visit, type ParseError } from 'jsonc-parser';
+import type { ParseError, ParseErrorCode } from 'jsonc-parser';
+import { lazyPackage } from '../lazyPackage.ts';
+
+// Loaded only when a file is not valid JSON, or when duplicate keys are looked for.
+const jsonc = lazyPackage<typeof import('jsonc-parser')>('jsonc-parser');
 
 /** Where strict JSON first goes wrong: 1-based line and column, and what was expected. */
 export interface JsonSyntaxFault {
@@ -13,24 +17,29 @@ export interface JsonSyntaxFault {
   readonly reason: string;
 }
 
-const EXPECTED: Partial<Record<ParseErrorCode, string>> = {
-  [ParseErrorCode.InvalidSymbol]: 'a value',
-  [ParseErrorCode.InvalidNumberFormat]: 'a number',
-  [ParseErrorCode.PropertyNameExpected]: 'a double-quoted key',
-  [ParseErrorCode.ValueExpected]: 'a value',
-  [ParseErrorCode.ColonExpected]: '":"',
-  [ParseErrorCode.CommaExpected]: '"," or a closing bracket',
-  [ParseErrorCode.CloseBraceExpected]: '"," or "}"',
-  [ParseErrorCode.CloseBracketExpected]: '"," or "]"',
-  [ParseErrorCode.EndOfFileExpected]: 'the end of the file',
-  [ParseErrorCode.InvalidCommentToken]: 'no comment (JSON has none)',
-  [ParseErrorCode.UnexpectedEndOfComment]: 'no comment (JSON has none)',
-  [ParseErrorCode.UnexpectedEndOfString]: 'a closing "',
-  [ParseErrorCode.UnexpectedEndOfNumber]: 'digits',
-  [ParseErrorCode.InvalidUnicode]: 'four hex digits after \\u',
-  [ParseErrorCode.InvalidEscapeCharacter]: 'a valid escape (\\" \\\\ \\/ \\b \\f \\n \\r \\t \\uXXXX)',
-  [ParseErrorCode.InvalidCharacter]: 'no raw control character inside a string (write \\n)',
-};
+/** What was expected where jsonc-parser reports each error code. */
+function expectedFor(code: ParseErrorCode): string | undefined {
+  const { ParseErrorCode: E } = jsonc();
+  const expected: Partial<Record<ParseErrorCode, string>> = {
+    [E.InvalidSymbol]: 'a value',
+    [E.InvalidNumberFormat]: 'a number',
+    [E.PropertyNameExpected]: 'a double-quoted key',
+    [E.ValueExpected]: 'a value',
+    [E.ColonExpected]: '":"',
+    [E.CommaExpected]: '"," or a closing bracket',
+    [E.CloseBraceExpected]: '"," or "}"',
+    [E.CloseBracketExpected]: '"," or "]"',
+    [E.EndOfFileExpected]: 'the end of the file',
+    [E.InvalidCommentToken]: 'no comment (JSON has none)',
+    [E.UnexpectedEndOfComment]: 'no comment (JSON has none)',
+    [E.UnexpectedEndOfString]: 'a closing "',
+    [E.UnexpectedEndOfNumber]: 'digits',
+    [E.InvalidUnicode]: 'four hex digits after \\u',
+    [E.InvalidEscapeCharacter]: 'a valid escape (\\" \\\\ \\/ \\b \\f \\n \\r \\t \\uXXXX)',
+    [E.InvalidCharacter]: 'no raw control character inside a string (write \\n)',
+  };
+  return expected[code];
+}
 
 /** The first strict-JSON fault in `text`, or null when jsonc-parser finds none. */
 export function jsonSyntaxFault(text: string): JsonSyntaxFault | null {
@@ -38,10 +47,10 @@ export function jsonSyntaxFault(text: string): JsonSyntaxFault | null {
   const deep = tooDeepAt(text);
   if (deep !== null) return locate(text, deep, 'less nesting');
   const errors: ParseError[] = [];
-  parse(text, errors, { disallowComments: true, allowTrailingComma: false, allowEmptyContent: false });
+  jsonc().parse(text, errors, { disallowComments: true, allowTrailingComma: false, allowEmptyContent: false });
   const first = errors[0];
   if (first === undefined) return null;
-  return locate(text, first.offset, EXPECTED[first.error] ?? 'valid JSON');
+  return locate(text, first.offset, expectedFor(first.error) ?? 'valid JSON');
 }
 
 /** Deepest nesting read before calling the fault a nesting fault; no real file comes near. */
@@ -95,7 +104,7 @@ export function duplicateJsonKey(text: string): (JsonSyntaxFault & { key: string
   if (tooDeepAt(text) !== null) return null;
   const stack: Set<string>[] = [];
   let found: { offset: number; key: string } | null = null;
-  visit(text, {
+  jsonc().visit(text, {
     onObjectBegin: () => {
       stack.push(new Set());
     },

@@ -7,13 +7,15 @@
  * `Z` or a scale name, `GPSW week sow`, `MJD ...`); `offsetNs` is the clock reading minus the
  * reference scale in ns; `sigmaNs` (optional) is its 1-σ uncertainty in ns, > 0.
  */
-import { parse } from 'csv-parse/sync';
+import { lazyPackage } from '../lazyPackage.ts';
 import { InputError } from '../errors.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import type { TimeScale } from '../time/instant.ts';
 import type { Instant } from '../time/instant.ts';
 import { emptySeries, type MeasurementSeries } from '../model/measurements.ts';
 import type { TextLine } from './textSource.ts';
+
+const csvParse = lazyPackage<typeof import('csv-parse/sync')>('csv-parse/sync');
 
 /** One measurement row, as read. */
 export interface MeasurementRow {
@@ -64,7 +66,7 @@ interface CsvRecord {
 export function parseMeasurementsCsv(text: string, fileName: string, timeSystem: TimeSystem, defaultScale?: TimeScale): Measurements {
   let records: CsvRecord[];
   try {
-    records = parse(text, {
+    records = csvParse().parse(text, {
       bom: true,
       trim: true,
       skip_empty_lines: true,

@@ -8,15 +8,16 @@
  * Units in brackets after KVN values and `units` attributes in XML are ignored: the standard
  * fixes the units (degrees, rev/day, rev/day², rev/day³, 1/earth radii).
  */
-import { XMLParser, XMLValidator } from 'fast-xml-parser';
+import { lazyPackage } from '../lazyPackage.ts';
 import { parseJsonLocated } from './jsonText.ts';
 import { InputError, OrbitFileError } from '../errors.ts';
 import { civilFromDays, daysFromCivil, daysInMonth } from '../time/calendar.ts';
 import type { CivilTime } from '../time/timeSystem.ts';
 import type { OmmRecord } from '../model/elementSet.ts';
 
-export type { OmmRecord };
+const fastXmlParser = lazyPackage<typeof import('fast-xml-parser')>('fast-xml-parser');
 
+export type { OmmRecord };
 
 /** Keywords an OMM must carry for SGP4. NORAD_CAT_ID or OBJECT_ID is required as well. */
 export const OMM_REQUIRED_KEYWORDS = ['EPOCH', 'MEAN_MOTION', 'ECCENTRICITY', 'INCLINATION', 'RA_OF_ASC_NODE', 'ARG_OF_PERICENTER', 'MEAN_ANOMALY'] as const;
@@ -118,6 +119,7 @@ function parseXml(text: string, fileName: string): OmmRecord[] {
   const xmlFix = 'check the XML syntax (matching tags, quotes)';
   let tree: unknown;
   try {
+    const { XMLParser, XMLValidator } = fastXmlParser();
     const valid = XMLValidator.validate(text);
     if (valid !== true) {
       throw new OrbitFileError(`OMM XML cannot be read: ${oneLine(valid.err.msg)}`, fileName, valid.err.line ?? 1, valid.err.col ?? null, xmlFix);

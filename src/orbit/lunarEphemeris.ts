@@ -23,9 +23,11 @@
  * Validity: tauplan accepts instants in 1900–2100 TT ({@link LUNAR_EPHEMERIS_VALID_FROM_TT_J2000_S});
  * the series degrade outside it. Requests outside are a SpanError.
  */
-import { AstroTime, Body, GeoMoonState, HelioState } from 'astronomy-engine';
+import { lazyPackage } from '../lazyPackage.ts';
 import { IAU2012_AU_M } from '../constants.ts';
 import { SpanError } from '../errors.ts';
+
+const astronomy = lazyPackage<typeof import('astronomy-engine')>('astronomy-engine');
 
 /** Earliest instant served: 1900-01-01T12:00 TT, seconds since J2000.0 TT (tauplan's choice). */
 export const LUNAR_EPHEMERIS_VALID_FROM_TT_J2000_S = -36_525 * 86_400;
@@ -45,6 +47,7 @@ function nodeAt(k: number): Float64Array {
   let n = cache.get(k);
   if (n === undefined) {
     if (cache.size >= MAX_NODES) cache.clear();
+    const { AstroTime, Body, GeoMoonState, HelioState } = astronomy();
     const time = AstroTime.FromTerrestrialTime((k * NODE_S) / 86_400);
     const m = GeoMoonState(time);
     const e = HelioState(Body.Earth, time);
@@ -120,6 +123,7 @@ export function sunStateGcrfInto(ttJ2000S: number, out: Float64Array, o = 0): Fl
 
 /** The Moon's geocentric state straight from the series (no table), for checks of the interpolation. */
 export function moonStateGcrfDirect(ttJ2000S: number): Float64Array {
+  const { AstroTime, GeoMoonState } = astronomy();
   const time = AstroTime.FromTerrestrialTime(ttJ2000S / 86_400);
   const m = GeoMoonState(time);
   const au = IAU2012_AU_M;

@@ -3,9 +3,11 @@
  * (starting with =, +, −, @, tab or CR) get a leading apostrophe; control and bidirectional
  * characters in them are shown as `\uXXXX` (safeText.ts). Numbers are written as numbers.
  */
-import { stringify } from 'csv-stringify/sync';
+import { lazyPackage } from '../lazyPackage.ts';
 import { InternalError } from '../errors.ts';
 import { escapeUnsafeText } from './safeText.ts';
+
+const csvStringify = lazyPackage<typeof import('csv-stringify/sync')>('csv-stringify/sync');
 
 export type CsvCell = string | number | boolean | null;
 
@@ -38,5 +40,5 @@ export function toCsv(columns: readonly string[], rows: readonly CsvCell[][]): s
       return String(c);
     }),
   );
-  return stringify([columns as string[], ...body]);
+  return csvStringify().stringify([columns as string[], ...body]);
 }

@@ -2,7 +2,7 @@
  * Writers for the result of `tauplan fit` ({@link FitResult} from src/plan/fit.ts): JSON object,
  * CSV and a plain-text worksheet. Pure string building; the CLI does the writing.
  */
-import { stringify } from 'csv-stringify/sync';
+import { lazyPackage } from '../lazyPackage.ts';
 import { InternalError } from '../errors.ts';
 import type { FitResult } from '../plan/fit.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
@@ -10,6 +10,8 @@ import { Instant } from '../time/instant.ts';
 import { textTable } from './format.ts';
 import type { DeviationInterval } from '../plan/stability.ts';
 import { noiseTypeName } from './stabilityReport.ts';
+
+const csvStringify = lazyPackage<typeof import('csv-stringify/sync')>('csv-stringify/sync');
 
 /** JSON shape of `tauplan fit`: the fit result without its internal time coordinate. */
 export type FitJson = Omit<FitResult, 'epochTtJ2000S' | 'stabilityAtTaus'>;
@@ -116,7 +118,7 @@ export function fitToCsv(result: FitResult): string {
   ];
   const warnings = j.warnings.map((w) => `# WARNING: ${w}\n`).join('');
   const notes = j.notes.map((n) => `# ${n}\n`).join('');
-  return warnings + notes + stringify([[...FIT_CSV_COLUMNS], row.map((v) => (v === null ? '' : String(v)))]);
+  return warnings + notes + csvStringify().stringify([[...FIT_CSV_COLUMNS], row.map((v) => (v === null ? '' : String(v)))]);
 }
 
 /**

@@ -13,8 +13,10 @@
  * - JSON is written as every command writes it (2-space JSON and a newline); CSV rows are copied.
  * A missing, repeated or foreign shard is refused with an input error.
  */
-import { parse } from 'csv-parse/sync';
+import { lazyPackage } from '../lazyPackage.ts';
 import { InputError } from '../errors.ts';
+
+const csvParse = lazyPackage<typeof import('csv-parse/sync')>('csv-parse/sync');
 
 /** The tag a shard output carries (src/cli/shard.ts writes it). */
 export interface ShardTagData {
@@ -94,7 +96,7 @@ function readShard(name: string, text: string): ShardFile {
   const rowLines = lines.slice(i + 1);
   let parsed: string[][];
   try {
-    parsed = parse(`${[header, ...rowLines].join('\n')}\n`, { relax_column_count: false }) as string[][];
+    parsed = csvParse().parse(`${[header, ...rowLines].join('\n')}\n`, { relax_column_count: false }) as string[][];
   } catch (e) {
     throw new InputError(`not a readable CSV file (${e instanceof Error ? e.message.replace(/\s+/g, ' ') : String(e)})`, name, FIX);
   }

@@ -3,13 +3,15 @@
  * JSON, CSV, text and an HTML section. Pure string building; the numbers come from
  * src/clock/stabilityTable.ts.
  */
-import { stringify } from 'csv-stringify/sync';
+import { lazyPackage } from '../lazyPackage.ts';
 import type { DeviationInterval, StabilityTableRow } from '../plan/stability.ts';
 import type { StabilityResult } from '../plan/stability.ts';
 import { PLANNING_CAUTION } from './caution.ts';
 import { textTable } from './format.ts';
 import type { SectionSpec } from './html.ts';
 import { logLogPlot } from './svg.ts';
+
+const csvStringify = lazyPackage<typeof import('csv-stringify/sync')>('csv-stringify/sync');
 
 /** Name of a power-law noise type. */
 export function noiseTypeName(alpha: number | null): string {
@@ -82,7 +84,7 @@ export function stabilityToCsv(r: StabilityResult): string {
     }
     return cells.map(String);
   });
-  return head + stringify([STABILITY_CSV_COLUMNS, ...rows]);
+  return head + csvStringify().stringify([STABILITY_CSV_COLUMNS, ...rows]);
 }
 
 function pm(v: DeviationInterval | null): string {

@@ -4,11 +4,13 @@
  * overlap neither each other nor the limit labels (else left off the plot); the list under the plot
  * always names every adjustment. Pure: numbers in, an `<svg>` string out.
  */
-import { scaleLinear } from 'd3-scale';
+import { lazyPackage } from '../lazyPackage.ts';
 import { InternalError } from '../errors.ts';
 import { decimateMinMax } from './svgDecimate.ts';
 import { AXIS, axisTitle, clip, colour, contentId, edgeText, escapeXml, finite, FONT_PX, GRID, INK, legendLayout, LIMIT, lineSwatch, n, SHADE, svgOpen, textWidthPx, type LegendItem } from './svgPrimitives.ts';
 import { formatTick, timeTicks } from './svgTicks.ts';
+
+const d3 = lazyPackage<typeof import('d3-scale')>('d3-scale');
 
 /** One curve with its band: y ± halfWidth at each x (UTC ms). */
 export interface BandedCurve {
@@ -67,7 +69,7 @@ export function keepInPlot(opts: KeepInPlotOptions): string {
   let yMax = L;
   for (const c of curves) for (const v of c.y) { yMin = Math.min(yMin, v); yMax = Math.max(yMax, v); }
   const pad = 0.08 * (yMax - yMin);
-  const ySc = scaleLinear().domain([yMin - pad, yMax + pad]).nice(6);
+  const ySc = d3().scaleLinear().domain([yMin - pad, yMax + pad]).nice(6);
   const yTicks = ySc.ticks(6);
   const yStep = yTicks.length > 1 ? Math.abs(yTicks[1] - yTicks[0]) : 1;
   const yMaxAbs = Math.max(...yTicks.map(Math.abs), 0);
@@ -84,7 +86,7 @@ export function keepInPlot(opts: KeepInPlotOptions): string {
   ySc.range([f.bottom, f.top]);
   const xMin = x[0];
   const xMax = x[x.length - 1] > xMin ? x[x.length - 1] : xMin + 3_600_000;
-  const xSc = scaleLinear().domain([xMin, xMax]).range([f.left, f.right]);
+  const xSc = d3().scaleLinear().domain([xMin, xMax]).range([f.left, f.right]);
   const plotW = f.right - f.left;
 
   const clipId = contentId('tpk', [opts.title, String(x.length), String(x[0]), ...curves.map((c) => `${c.label}:${c.y[0]}`)]);

@@ -1,9 +1,11 @@
 /** Line plot over a numeric or UTC time axis, with shaded intervals, limit lines and marked points. */
-import { scaleLinear } from 'd3-scale';
+import { lazyPackage } from '../lazyPackage.ts';
 import { InternalError } from '../errors.ts';
 import { decimateMinMax } from './svgDecimate.ts';
 import { AXIS, axisTitle, clip, colour, contentId, dash, edgeText, escapeXml, finite, FONT_PX, GRID, INK, legendLayout, LIMIT, lineSwatch, n, SHADE, svgOpen, textWidthPx, type AxisSpec, type Frame, type LegendItem } from './svgPrimitives.ts';
 import { formatTick, HOUR_MS, timeTicks } from './svgTicks.ts';
+
+const d3 = lazyPackage<typeof import('d3-scale')>('d3-scale');
 
 /** One (x, y) series of a line plot. `x` is in the x axis unit, or UTC ms on a time axis. */
 export interface LineSeries {
@@ -107,7 +109,7 @@ export function linePlot(opts: LinePlotOptions): string {
     yMin -= padY;
     yMax += padY;
   }
-  const ySc = scaleLinear().domain([yMin, yMax]);
+  const ySc = d3().scaleLinear().domain([yMin, yMax]);
   if (!opts.yDomain) ySc.nice(6);
   const yTicks = ySc.ticks(6);
   const yStep = yTicks.length > 1 ? Math.abs(yTicks[1] - yTicks[0]) : Math.abs(yMax - yMin);
@@ -130,7 +132,7 @@ export function linePlot(opts: LinePlotOptions): string {
   let xTickMarkup = '';
   const plotW = f.right - f.left;
   if (isTime) {
-    const lin = scaleLinear().domain([xMin, xMax]).range([f.left, f.right]);
+    const lin = d3().scaleLinear().domain([xMin, xMax]).range([f.left, f.right]);
     xScale = (v) => lin(v);
     const ticks = timeTicks(xMin, xMax, Math.max(2, Math.floor(plotW / 80)));
     xTickMarkup = ticks
@@ -145,7 +147,7 @@ export function linePlot(opts: LinePlotOptions): string {
       })
       .join('');
   } else {
-    const lin = scaleLinear().domain([xMin, xMax]);
+    const lin = d3().scaleLinear().domain([xMin, xMax]);
     if (!opts.xDomain) lin.nice(8);
     [xMin, xMax] = lin.domain() as [number, number];
     lin.range([f.left, f.right]);

@@ -1,8 +1,10 @@
 /** Log-log plot for stability curves (deviation against averaging time), with error bars. */
-import { scaleLog } from 'd3-scale';
+import { lazyPackage } from '../lazyPackage.ts';
 import { InternalError } from '../errors.ts';
 import { AXIS, axisTitle, colour, dash, escapeXml, finite, GRID, legendLayout, lineSwatch, n, svgOpen, type AxisSpec, type Frame } from './svgPrimitives.ts';
 import { labelledMinor, logTicks, powerLabel } from './svgTicks.ts';
+
+const d3 = lazyPackage<typeof import('d3-scale')>('d3-scale');
 
 /** One stability curve: averaging times, deviations and optional 1-sigma-style error bars. */
 export interface LogLogSeries {
@@ -56,8 +58,8 @@ export function logLogPlot(opts: LogLogPlotOptions): string {
   });
   if (!Number.isFinite(xMin)) { xMin = 1; xMax = 10; }
   if (!Number.isFinite(yMin)) { yMin = 1; yMax = 10; }
-  const xs = scaleLog().domain([xMin, xMax === xMin ? xMin * 10 : xMax]).nice();
-  const ys = scaleLog().domain([yMin, yMax === yMin ? yMin * 10 : yMax]).nice();
+  const xs = d3().scaleLog().domain([xMin, xMax === xMin ? xMin * 10 : xMax]).nice();
+  const ys = d3().scaleLog().domain([yMin, yMax === yMin ? yMin * 10 : yMax]).nice();
   const [xLo, xHi] = xs.domain() as [number, number];
   const [yLo, yHi] = ys.domain() as [number, number];
 

@@ -2,8 +2,10 @@
  * Axis ticks and their labels: linear tick labels, UTC time ticks (d3 `scaleUtc().ticks()`) and
  * decade ticks (d3 `scaleLog().ticks()`).
  */
-import { scaleLog, scaleUtc } from 'd3-scale';
+import { lazyPackage } from '../lazyPackage.ts';
 import { escapeXml, finite, MINUS, n } from './svgPrimitives.ts';
+
+const d3 = lazyPackage<typeof import('d3-scale')>('d3-scale');
 
 /** Tick label for linear ticks with spacing `stepAbs`: fixed decimals, or exponent form for very large/small values. */
 export function formatTick(v: number, stepAbs: number, maxAbs: number): string {
@@ -69,7 +71,7 @@ export interface TimeTick {
 export function timeTicks(fromMs: number, toMs: number, maxTicks: number): TimeTick[] {
   finite(fromMs, 'time axis start');
   finite(toMs, 'time axis end');
-  const scale = scaleUtc().domain([new Date(fromMs), new Date(Math.max(toMs, fromMs + 1))]);
+  const scale = d3().scaleUtc().domain([new Date(fromMs), new Date(Math.max(toMs, fromMs + 1))]);
   let dates = scale.ticks(Math.max(1, maxTicks));
   for (let count = maxTicks - 1; dates.length > maxTicks && count >= 1; count--) dates = scale.ticks(count);
   const ms = dates.map((d) => d.getTime());
@@ -90,7 +92,7 @@ export function timeTicks(fromMs: number, toMs: number, maxTicks: number): TimeT
  * ten as `scaleLog().nice()` leaves them: d3's log ticks split by mantissa.
  */
 export function logTicks(lo: number, hi: number): { major: number[]; minor: number[] } {
-  const all = scaleLog().domain([lo, hi]).ticks();
+  const all = d3().scaleLog().domain([lo, hi]).ticks();
   const major: number[] = [];
   const minor: number[] = [];
   for (const v of all) (mantissa(v) === 1 ? major : minor).push(v);

@@ -1,7 +1,9 @@
 /** Timeline of passes: one row per station, one bar per pass over a UTC time axis. */
-import { scaleLinear } from 'd3-scale';
+import { lazyPackage } from '../lazyPackage.ts';
 import { AXIS, clip, colour, edgeText, escapeXml, finite, GRID, legendLayout, n, svgOpen, textWidthPx, type Frame } from './svgPrimitives.ts';
 import { DAY_MS, HOUR_MS, timeTicks, utcClockLabel, utcDateLabel } from './svgTicks.ts';
+
+const d3 = lazyPackage<typeof import('d3-scale')>('d3-scale');
 
 /** One bar of a timeline: a pass of `row` from `fromMs` to `toMs` (UTC ms). */
 export interface TimelineBar {
@@ -68,7 +70,7 @@ export function timeline(opts: TimelineOptions): string {
   );
   const f: Frame = { left, top: 32, right: widthPx - 20, bottom: 32 + Math.max(26, totalBandH) };
   const heightPx = f.bottom + 58 + (legend.rows > 0 ? legend.rows * 18 + 8 : 0);
-  const xs = scaleLinear().domain([fromMs, toMs]).range([f.left, f.right]);
+  const xs = d3().scaleLinear().domain([fromMs, toMs]).range([f.left, f.right]);
 
   const out: string[] = [svgOpen(widthPx, heightPx, opts.title)];
   rows.forEach((r, i) => {

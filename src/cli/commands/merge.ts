@@ -8,8 +8,7 @@
 import { existsSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import type { Argv } from 'yargs';
-import { parse } from 'csv-parse/sync';
-import { stringify } from 'csv-stringify/sync';
+import { lazyPackage } from '../../lazyPackage.ts';
 import { InputError } from '../../errors.ts';
 import { readTextFile } from '../../io/orbitSources.ts';
 import { writeFileAtomic } from '../../io/output.ts';
@@ -17,6 +16,9 @@ import { writeOutputFolder } from '../../io/outputFolder.ts';
 import { mergeReportShards, readReportManifest, REPORT_SHARD_MANIFEST, type ReportShardFolder } from '../../report/reportShardMerge.ts';
 import { safeCsvCell } from '../../report/csv.ts';
 import { mergeScenarioShards, scenarioShardTag } from '../../report/shardMerge.ts';
+
+const csvParse = lazyPackage<typeof import('csv-parse/sync')>('csv-parse/sync');
+const csvStringify = lazyPackage<typeof import('csv-stringify/sync')>('csv-stringify/sync');
 
 export function mergeOptions<T>(y: Argv<T>) {
   return y
@@ -68,7 +70,7 @@ export function mergeShardTexts(inputs: readonly { name: string; text: string }[
     } else {
       let records: string[][];
       try {
-        records = parse(text, { relax_column_count: false }) as string[][];
+        records = csvParse().parse(text, { relax_column_count: false }) as string[][];
       } catch (e) {
         throw new InputError(`not a readable CSV file (${e instanceof Error ? e.message.replace(/\s+/g, ' ') : String(e)})`, name, 'merge the unedited CSV outputs of tauplan size --all');
       }
@@ -91,7 +93,7 @@ export function mergeShardTexts(inputs: readonly { name: string; text: string }[
   }
   if (kind === 'jsonl') return rows.map((r) => `${r.cells as string}\n`).join('');
   // Cells may have been edited since size --all wrote them: formulas and unsafe characters are neutralised again.
-  return stringify([(header as string[]).map(safeCsvCell), ...rows.map((r) => (r.cells as string[]).map(safeCsvCell))]);
+  return csvStringify().stringify([(header as string[]).map(safeCsvCell), ...rows.map((r) => (r.cells as string[]).map(safeCsvCell))]);
 }
 
 /** Whether `path` is a folder (a report shard's); a missing path is left to the file reader's message. */
