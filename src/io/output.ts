@@ -393,8 +393,20 @@ export function writeFileAtomic(path: string, text: string, flagOrOptions: strin
 
 /** JSON text of a result; refuses NaN and ±Infinity anywhere (they would print as null silently). */
 export function toJsonText(value: unknown): string {
-  checkFinite(value, '$');
+  // The walk that names the path builds a string per value: run it only to locate a fault.
+  if (!allFinite(value)) checkFinite(value, '$');
   return `${JSON.stringify(value, null, 2)}\n`;
+}
+
+function allFinite(value: unknown): boolean {
+  if (typeof value === 'number') return Number.isFinite(value);
+  if (value === null || typeof value !== 'object') return true;
+  if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i++) if (!allFinite(value[i])) return false;
+    return true;
+  }
+  for (const k in value) if (Object.hasOwn(value, k) && !allFinite((value as Record<string, unknown>)[k])) return false;
+  return true;
 }
 
 function checkFinite(value: unknown, path: string): void {
