@@ -112,6 +112,42 @@ export class IntegratedTrack {
     return v;
   }
 
+  /**
+   * Bounds on the interpolant f over steps `first`..`last` (clamped to the track), read from its
+   * monomial coefficients c_j in u ∈ [−1, 1]: `slopePerU` = max Σ j·|c_j| ≥ |df/du|, `value` =
+   * max Σ |c_j| ≥ |f|, and `jump` = the largest |f| jump where two of these steps meet (the
+   * polynomials' end values, as integralAt integrates them). For the offset bending bounds of the
+   * keep-in scans (plan/offsetBend.ts); no allocation beyond the result.
+   */
+  polynomialBounds(first: number, last: number): { slopePerU: number; value: number; jump: number } {
+    const n = GAUSS_POINTS_PER_STEP;
+    const c = this.coeffs;
+    const lo = Math.max(0, first);
+    const hi = Math.min(this.stepCount - 1, last);
+    let slopePerU = 0;
+    let value = 0;
+    let jump = 0;
+    let prevRight = Number.NaN;
+    for (let k = lo; k <= hi; k++) {
+      let slope = 0;
+      let abs = 0;
+      let left = 0;
+      let right = 0;
+      for (let j = 0; j < n; j++) {
+        const cj = c[k * n + j];
+        slope += j * Math.abs(cj);
+        abs += Math.abs(cj);
+        left += j % 2 === 0 ? cj : -cj;
+        right += cj;
+      }
+      if (slope > slopePerU) slopePerU = slope;
+      if (abs > value) value = abs;
+      if (k > lo) jump = Math.max(jump, Math.abs(left - prevRight));
+      prevRight = right;
+    }
+    return { slopePerU, value, jump };
+  }
+
   /** X over the whole span. */
   get total(): number {
     return this.xAtStepStart[this.stepCount];

@@ -9,13 +9,12 @@
  * lies within max/min(x(a), x(b)) ± (M·W²/8 + Σ|Δx'|·W/4) (the error of the straight line through
  * the ends, with its Green's function bounded by W²/8 and W/4), M = max |x''|.
  *
- * f' is bounded from f itself: on each step f is sampled at n Chebyshev nodes, which gives its
- * Chebyshev coefficients a_m exactly for a polynomial of degree < n (the track's, with n its
- * points per step), and
- * |df/du| ≤ Σ m²·|a_m| (Markov: max |T_m'| = m² on [−1, 1]). Rounding in all this is some 1e-16 of
- * the values; the bounds below carry far more headroom than that (BEND_HEADROOM, SLACK_*).
+ * f' is bounded from the track's own polynomials: on each step f = Σ c_j·u^j in u ∈ [−1, 1] (the
+ * interpolant the offset integrates, clock/integrate.ts), so |df/du| ≤ Σ j·|c_j| and |f| ≤ Σ |c_j|,
+ * and the jumps are the polynomials' end values where steps meet. Rounding in all this is some
+ * 1e-16 of the values; the bounds below carry far more headroom than that (BEND_HEADROOM, SLACK_*).
+ * (A looser bound only makes the scans look at more instants: their results do not change.)
  */
-import { GAUSS_POINTS_PER_STEP } from '../clock/integrate.ts';
 import type { OnboardClock } from '../clock/oscillator.ts';
 import { SECONDS_PER_DAY } from '../constants.ts';
 
@@ -34,17 +33,11 @@ export interface OffsetBend {
   magnitudeNs: number;
 }
 
-/** Chebyshev nodes per track step: the track's polynomials have one coefficient per Gauss point. */
-const NODES = GAUSS_POINTS_PER_STEP;
 /** Multiplier on the computed bounds (they are exact up to rounding; this is the margin). */
 const BEND_HEADROOM = 2;
 /** Rounding allowance: absolute [ns] and relative to the size of the summed terms. */
 const SLACK_ABS_NS = 1e-6;
 const SLACK_REL = 1e-12;
-
-const HALF = NODES >> 1;
-const NODE_U = Array.from({ length: NODES }, (_, i) => Math.cos(((2 * i + 1) * Math.PI) / (2 * NODES)));
-const COS = Float64Array.from({ length: NODES * NODES }, (_, k) => Math.cos((Math.floor(k / NODES) * (2 * (k % NODES) + 1) * Math.PI) / (2 * NODES)));
 
 /**
  * Bend bounds of `clock`'s offset over [from, to], or null when that span is not inside its track
@@ -56,43 +49,11 @@ export function offsetBend(clock: OnboardClock, from: number, to: number): Offse
   if (!(to >= from) || !(h > 0) || from < track.fromTtJ2000S || to > track.toTtJ2000S) return null;
   const first = Math.max(0, Math.floor((from - track.fromTtJ2000S) / h) - 1);
   const last = Math.min(track.stepCount - 1, Math.floor((to - track.fromTtJ2000S) / h) + 1);
-  const values = new Float64Array(NODES);
-  const a = new Float64Array(NODES);
-  const even = new Float64Array(HALF);
-  const odd = new Float64Array(HALF);
-  let slopeU = 0;
-  let kink = 0;
-  let maxF = 0;
-  let prevRight = NaN;
-  for (let k = first; k <= last; k++) {
-    const start = track.fromTtJ2000S + k * h;
-    for (let i = 0; i < NODES; i++) {
-      values[i] = track.valueAt(start + 0.5 * h * (NODE_U[i] + 1));
-      maxF = Math.max(maxF, Math.abs(values[i]));
-    }
-    let slope = 0;
-    let left = 0;
-    let right = 0;
-    // Node i and node n−1−i mirror each other (T_m is even or odd): one sum of pairs per m.
-    for (let i = 0; i < HALF; i++) {
-      even[i] = values[i] + values[NODES - 1 - i];
-      odd[i] = values[i] - values[NODES - 1 - i];
-    }
-    for (let m = 0; m < NODES; m++) {
-      const pair = m % 2 === 0 ? even : odd;
-      let s = 0;
-      for (let i = 0; i < HALF; i++) s += pair[i] * COS[m * NODES + i];
-      if (NODES % 2 === 1) s += values[HALF] * COS[m * NODES + HALF]; // the middle node of an odd count
-      a[m] = ((m === 0 ? 1 : 2) * s) / NODES;
-      slope += m * m * Math.abs(a[m]);
-      left += m % 2 === 0 ? a[m] : -a[m];
-      right += a[m];
-      maxF = Math.max(maxF, Math.abs(a[m]));
-    }
-    slopeU = Math.max(slopeU, slope);
-    if (k > first) kink = Math.max(kink, Math.abs(left - prevRight));
-    prevRight = right;
-  }
+  const bounds = track.polynomialBounds(first, last);
+  const slopeU = bounds.slopePerU;
+  const kink = bounds.jump;
+  // Scale of the rounding allowance: twice a bound on |f|, for room.
+  const maxF = 2 * bounds.value;
   const p = clock.params;
   const agingNsPerS2 = p === null ? 0 : Math.abs(p.agingPerDay / SECONDS_PER_DAY) * 1e9;
   const epoch = clock.epochTtJ2000S;
