@@ -221,22 +221,16 @@ export function findPassesMany(
     ev.chunkEndTtJ2000S = ts[n - 1];
     for (let i = 0; i < n; i++) {
       const j = 3 * i;
-      const x = p[j];
-      const y = p[j + 1];
-      const z = p[j + 2];
-      const vx = v[j];
-      const vy = v[j + 1];
-      const vz = v[j + 2];
       ev.advance();
       const e = ev.sample;
-      e[0] = x;
-      e[1] = y;
-      e[2] = z;
-      e[3] = vx;
-      e[4] = vy;
-      e[5] = vz;
+      e[0] = p[j];
+      e[1] = p[j + 1];
+      e[2] = p[j + 2];
+      e[3] = v[j];
+      e[4] = v[j + 1];
+      e[5] = v[j + 2];
       const t = ts[i];
-      for (let k = 0; k < scans.length; k++) scans[k].feed(t, x, y, z, vx, vy, vz);
+      for (let k = 0; k < scans.length; k++) scans[k].feed(t, e);
     }
   }
   for (const scan of scans) scan.finish();
