@@ -90,8 +90,8 @@ export class TimeSystem {
     const { utcWholeS, inLeapSecond, taiMinusUtcS } = this.leap.taiToUtcLabel(t.taiWholeS);
     const label = inLeapSecond ? utcWholeS - 1 : utcWholeS;
     const c = civilFromSeconds(label, t.taiFracS);
-    if (inLeapSecond) c.second += 1;
-    return { ...c, taiMinusUtcS };
+    // Fields named, not spread: every printed time passes here, and a spread builds a slower object.
+    return { year: c.year, month: c.month, day: c.day, hour: c.hour, minute: c.minute, second: inLeapSecond ? c.second + 1 : c.second, taiMinusUtcS };
   }
 
   /** Civil label in any scale. */
@@ -261,7 +261,8 @@ function civilFromSeconds(wholeS: number, fracS: number): CivilTime {
   rest -= hour * 3600;
   const minute = Math.floor(rest / 60);
   const second = rest - minute * 60 + fracS;
-  return { ...civilFromDays(day), hour, minute, second };
+  const d = civilFromDays(day);
+  return { year: d.year, month: d.month, day: d.day, hour, minute, second };
 }
 
 /** `YYYY-MM-DDTHH:MM:SS.fff`; the fraction is clamped so it never carries into the next second. */
