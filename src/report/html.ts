@@ -83,6 +83,8 @@ footer { margin-top: 32px; font-size: 12px; color: #666; border-top: 1px solid #
   tr, figure, .caution, .notes { break-inside: avoid; page-break-inside: avoid; }
   figure svg { max-height: 170mm; width: auto; max-width: 100%; }
   h2, caption { break-after: avoid; page-break-after: avoid; }
+  /* A section's intro stays with its first figure or table, not alone at a page's foot. */
+  h2 + p { break-after: avoid; page-break-after: avoid; break-inside: avoid; page-break-inside: avoid; }
   .caution, .notes, tr.group th { background: none; }
   tbody tr:nth-child(even) td { background: none; }
 }
