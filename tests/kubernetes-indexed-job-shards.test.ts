@@ -115,6 +115,19 @@ describe('Kubernetes Indexed Job: --shard auto --shard-count', () => {
     for (const k of [1, 2, 3, 4, 5]) expect(existsSync(join(dir, `bad-${k}`, 'passes.json'))).toBe(false);
   }, 240_000);
 
+  it('a report shard does not replace another shard\'s folder (one --out for every task would keep only the last); the same shard run again does', async () => {
+    const out = join(dir, 'rep-shared');
+    const first = await startCli(['report', DEMO, '--shard', 'auto', '--shard-count', '2', '--quiet', '--out', out], { JOB_COMPLETION_INDEX: '0' });
+    expect(first.code, first.stderr).toBe(0);
+    const second = await startCli(['report', DEMO, '--shard', 'auto', '--shard-count', '2', '--quiet', '--out', out], { JOB_COMPLETION_INDEX: '1' });
+    expect(second.code, second.stderr).toBe(2);
+    expect(second.stderr).toMatch(ONE_LINE_ERROR);
+    expect(second.stderr).toMatch(/rep-shared holds shard 1\/2 of a report, and this run is shard 2\/2 \(--out\) — give each shard its own folder, e\.g\. --out .*rep-shared-2\n$/);
+    expect(JSON.parse(readFileSync(join(out, 'shard.json'), 'utf8')).shard.index, 'the first shard\'s files are kept').toBe(1);
+    const retried = await startCli(['report', DEMO, '--shard', 'auto', '--shard-count', '2', '--quiet', '--out', out], { JOB_COMPLETION_INDEX: '0' });
+    expect(retried.code, retried.stderr).toBe(0);
+  }, 240_000);
+
   it('an index without --shard-count, or outside it, is a one-line input error (exit 2)', async () => {
     const base = ['resets', DEMO, '--format', 'json', '--shard', 'auto'];
     const [noCount, outside, notNumber] = await Promise.all([

@@ -13,7 +13,9 @@
  * report.html and no text file: the HTML's figures and the text worksheets are drawn from the
  * computed series, which the data files do not hold, so they need one `report` process.
  */
-import { resolve } from 'node:path';
+import { readFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { InputError } from '../errors.ts';
 import { toJsonText } from '../io/output.ts';
 import { prepareOutputFolder, writeOutputFolder } from '../io/outputFolder.ts';
 import { loadScenario } from '../io/loadScenario.ts';
@@ -39,6 +41,7 @@ export interface ReportShardArgs extends ReportPartArgs {
 /** Write shard K/N of the report of `a.scenario` into `a.out`. */
 export function writeReportShard(a: ReportShardArgs, ts: TimeSystem, shard: ShardSpec): void {
   const folderOptions = { force: a.force === true };
+  refuseOtherShardsFolder(a.out, shard);
   prepareOutputFolder(a.out, [REPORT_SHARD_MANIFEST], folderOptions);
   const dir = resolve(a.out);
   const scenario = loadScenario(a.scenario, ts);
@@ -101,4 +104,30 @@ export function writeReportShard(a: ReportShardArgs, ts: TimeSystem, shard: Shar
     process.stderr.write(`tauplan: report shard ${shard.k}/${shard.n} holds the data files of ${satellites.length} satellites, no report.html or text files (they need one process): join the ${shard.n} folders with tauplan merge DIR_1 … DIR_${shard.n} --out DIR\n`);
   }
   process.stdout.write(`${dir}\n`);
+}
+
+/**
+ * A shard does not replace the folder of another shard (another index or count): array tasks given
+ * one `--out`, or the default one, would otherwise leave only the last task's files, and the merge
+ * would find shards missing. The same shard run again (a retried task) replaces its own folder.
+ */
+function refuseOtherShardsFolder(out: string, shard: ShardSpec): void {
+  let text: string;
+  try {
+    text = readFileSync(join(out, REPORT_SHARD_MANIFEST), 'utf8');
+  } catch {
+    return; // no shard folder there
+  }
+  let tag: { index?: unknown; count?: unknown } | undefined;
+  try {
+    tag = (JSON.parse(text) as { shard?: { index?: unknown; count?: unknown } } | null)?.shard;
+  } catch {
+    return; // not a manifest this run reads: the folder checks decide
+  }
+  if (tag === undefined || (tag.index === shard.k && tag.count === shard.n)) return;
+  throw new InputError(
+    `${out} holds shard ${String(tag.index)}/${String(tag.count)} of a report, and this run is shard ${shard.k}/${shard.n}`,
+    '--out',
+    `give each shard its own folder, e.g. --out ${out.replace(/[\\/]+$/, '')}-${shard.k}`,
+  );
 }
