@@ -16,9 +16,9 @@
  * record through {@link Sgp4RecordFields} and takes the constants from the caller.
  */
 
-import { Sgp4RateRecord, type Sgp4RecordFields } from './sgp4RateRecord.ts';
+import { RateField, rateRecordFrom, type Sgp4RateRecord, type Sgp4RecordFields } from './sgp4RateRecord.ts';
 
-export { Sgp4RateRecord, type Sgp4RecordFields };
+export type { Sgp4RateRecord, Sgp4RecordFields };
 
 /** SGP4's constants (WGS-72), as satellite.js defines them. */
 export interface Sgp4Constants {
@@ -49,7 +49,7 @@ export function rateCovers(rec: Sgp4RecordFields): boolean {
 
 /** The {@link Sgp4RateRecord} of an initialised record (one per element set, built once). */
 export function rateRecordOf(rec: Sgp4RecordFields, c: Sgp4Constants): Sgp4RateRecord {
-  return new Sgp4RateRecord(rec, rec.no > 0 ? (c.xke / rec.no) ** c.x2o3 : NaN);
+  return rateRecordFrom(rec, rec.no > 0 ? (c.xke / rec.no) ** c.x2o3 : NaN);
 }
 
 /**
@@ -60,66 +60,66 @@ export function rateRecordOf(rec: Sgp4RecordFields, c: Sgp4Constants): Sgp4RateR
 export function sgp4WithRate(rec: Sgp4RateRecord, tsince: number, c: Sgp4Constants, out: Float64Array): number {
   const t = tsince;
   // ------- secular gravity and atmospheric drag -------
-  const xmdf = rec.mo + rec.mdot * t;
-  const xmdfD = rec.mdot;
-  const argpdf = rec.argpo + rec.argpdot * t;
-  const nodedf = rec.nodeo + rec.nodedot * t;
+  const xmdf = rec[RateField.mo] + rec[RateField.mdot] * t;
+  const xmdfD = rec[RateField.mdot];
+  const argpdf = rec[RateField.argpo] + rec[RateField.argpdot] * t;
+  const nodedf = rec[RateField.nodeo] + rec[RateField.nodedot] * t;
   let argpm = argpdf;
-  let argpmD = rec.argpdot;
+  let argpmD = rec[RateField.argpdot];
   let mm = xmdf;
   let mmD = xmdfD;
   const t2 = t * t;
-  let nodem = nodedf + rec.nodecf * t2;
-  let nodemD = rec.nodedot + 2 * rec.nodecf * t;
-  let tempa = 1.0 - rec.cc1 * t;
-  let tempaD = -rec.cc1;
-  let tempe = rec.bstar * rec.cc4 * t;
-  let tempeD = rec.bstar * rec.cc4;
-  let templ = rec.t2cof * t2;
-  let templD = 2 * rec.t2cof * t;
-  if (!rec.simple) {
-    const delomg = rec.omgcof * t;
+  let nodem = nodedf + rec[RateField.nodecf] * t2;
+  let nodemD = rec[RateField.nodedot] + 2 * rec[RateField.nodecf] * t;
+  let tempa = 1.0 - rec[RateField.cc1] * t;
+  let tempaD = -rec[RateField.cc1];
+  let tempe = rec[RateField.bstar] * rec[RateField.cc4] * t;
+  let tempeD = rec[RateField.bstar] * rec[RateField.cc4];
+  let templ = rec[RateField.t2cof] * t2;
+  let templD = 2 * rec[RateField.t2cof] * t;
+  if (rec[RateField.simple] === 0) {
+    const delomg = rec[RateField.omgcof] * t;
     const cosx = Math.cos(xmdf);
-    const delmtemp = 1.0 + rec.eta * cosx;
-    const delmtempD = -rec.eta * Math.sin(xmdf) * xmdfD;
-    const delm = rec.xmcof * (delmtemp * delmtemp * delmtemp - rec.delmo);
-    const delmD = rec.xmcof * 3 * delmtemp * delmtemp * delmtempD;
+    const delmtemp = 1.0 + rec[RateField.eta] * cosx;
+    const delmtempD = -rec[RateField.eta] * Math.sin(xmdf) * xmdfD;
+    const delm = rec[RateField.xmcof] * (delmtemp * delmtemp * delmtemp - rec[RateField.delmo]);
+    const delmD = rec[RateField.xmcof] * 3 * delmtemp * delmtemp * delmtempD;
     const temp = delomg + delm;
-    const tempD = rec.omgcof + delmD;
+    const tempD = rec[RateField.omgcof] + delmD;
     mm = xmdf + temp;
     mmD = xmdfD + tempD;
     argpm = argpdf - temp;
-    argpmD = rec.argpdot - tempD;
+    argpmD = rec[RateField.argpdot] - tempD;
     const t3 = t2 * t;
     const t4 = t3 * t;
-    tempa = tempa - rec.d2 * t2 - rec.d3 * t3 - rec.d4 * t4;
-    tempaD = tempaD - 2 * rec.d2 * t - 3 * rec.d3 * t2 - 4 * rec.d4 * t3;
-    tempe += rec.bstar * rec.cc5 * (Math.sin(mm) - rec.sinmao);
-    tempeD += rec.bstar * rec.cc5 * Math.cos(mm) * mmD;
-    templ = templ + rec.t3cof * t3 + t4 * (rec.t4cof + t * rec.t5cof);
-    templD = templD + 3 * rec.t3cof * t2 + 4 * t3 * rec.t4cof + 5 * t4 * rec.t5cof;
+    tempa = tempa - rec[RateField.d2] * t2 - rec[RateField.d3] * t3 - rec[RateField.d4] * t4;
+    tempaD = tempaD - 2 * rec[RateField.d2] * t - 3 * rec[RateField.d3] * t2 - 4 * rec[RateField.d4] * t3;
+    tempe += rec[RateField.bstar] * rec[RateField.cc5] * (Math.sin(mm) - rec[RateField.sinmao]);
+    tempeD += rec[RateField.bstar] * rec[RateField.cc5] * Math.cos(mm) * mmD;
+    templ = templ + rec[RateField.t3cof] * t3 + t4 * (rec[RateField.t4cof] + t * rec[RateField.t5cof]);
+    templD = templD + 3 * rec[RateField.t3cof] * t2 + 4 * t3 * rec[RateField.t4cof] + 5 * t4 * rec[RateField.t5cof];
   }
-  let nm = rec.no;
-  let em = rec.ecco;
+  let nm = rec[RateField.no];
+  let em = rec[RateField.ecco];
   let emD = 0;
-  let inclm = rec.inclo;
+  let inclm = rec[RateField.inclo];
   let inclmD = 0;
-  const deep = rec.deep;
+  const deep = rec[RateField.deep] !== 0;
   if (deep) {
     // Secular deep-space rates (dspace without resonance).
-    em += rec.dedt * t;
-    emD += rec.dedt;
-    inclm += rec.didt * t;
-    inclmD += rec.didt;
-    argpm += rec.domdt * t;
-    argpmD += rec.domdt;
-    nodem += rec.dnodt * t;
-    nodemD += rec.dnodt;
-    mm += rec.dmdt * t;
-    mmD += rec.dmdt;
+    em += rec[RateField.dedt] * t;
+    emD += rec[RateField.dedt];
+    inclm += rec[RateField.didt] * t;
+    inclmD += rec[RateField.didt];
+    argpm += rec[RateField.domdt] * t;
+    argpmD += rec[RateField.domdt];
+    nodem += rec[RateField.dnodt] * t;
+    nodemD += rec[RateField.dnodt];
+    mm += rec[RateField.dmdt] * t;
+    mmD += rec[RateField.dmdt];
   }
   if (nm <= 0.0) return MEAN_MOTION;
-  const am0 = rec.am0;
+  const am0 = rec[RateField.am0];
   const am = am0 * tempa * tempa;
   const amD = am0 * 2 * tempa * tempaD;
   // satellite.js then sets nm = xke / am^1.5, which only the resonance terms (not covered here) read.
@@ -130,8 +130,8 @@ export function sgp4WithRate(rec: Sgp4RateRecord, tsince: number, c: Sgp4Constan
     em = 1.0e-6;
     emD = 0;
   }
-  mm += rec.no * templ;
-  mmD += rec.no * templD;
+  mm += rec[RateField.no] * templ;
+  mmD += rec[RateField.no] * templD;
   let xlm = mm + argpm + nodem;
   nodem %= TWO_PI;
   argpm %= TWO_PI;
@@ -150,15 +150,15 @@ export function sgp4WithRate(rec: Sgp4RateRecord, tsince: number, c: Sgp4Constan
   let mp = mm;
   let mpD = mmD;
   // Near the earth inclm is the record's inclination: its sine and cosine are the record's.
-  let sinip = deep ? Math.sin(inclm) : rec.sinInclo;
-  let cosip = deep ? Math.cos(inclm) : rec.cosInclo;
+  let sinip = deep ? Math.sin(inclm) : rec[RateField.sinInclo];
+  let cosip = deep ? Math.cos(inclm) : rec[RateField.cosInclo];
   if (deep) {
     const zns = 1.19459e-5;
     const zes = 0.01675;
     const znl = 1.5835218e-4;
     const zel = 0.0549;
     // Sun, then Moon: f2, f3 and sin zf with their derivatives (written out twice: no allocation).
-    const szm = rec.zmos + zns * t;
+    const szm = rec[RateField.zmos] + zns * t;
     const szf = szm + 2.0 * zes * Math.sin(szm);
     const szfD = zns * (1 + 2.0 * zes * Math.cos(szm));
     const ssz = Math.sin(szf);
@@ -168,12 +168,12 @@ export function sgp4WithRate(rec: Sgp4RateRecord, tsince: number, c: Sgp4Constan
     const sf2D = ssz * sszD;
     const sf3 = -0.5 * ssz * scz;
     const sf3D = -0.5 * (sszD * scz - ssz * ssz * szfD);
-    const ses = rec.se2 * sf2 + rec.se3 * sf3;
-    const sis = rec.si2 * sf2 + rec.si3 * sf3;
-    const sls = rec.sl2 * sf2 + rec.sl3 * sf3 + rec.sl4 * ssz;
-    const sghs = rec.sgh2 * sf2 + rec.sgh3 * sf3 + rec.sgh4 * ssz;
-    const shs = rec.sh2 * sf2 + rec.sh3 * sf3;
-    const lzm = rec.zmol + znl * t;
+    const ses = rec[RateField.se2] * sf2 + rec[RateField.se3] * sf3;
+    const sis = rec[RateField.si2] * sf2 + rec[RateField.si3] * sf3;
+    const sls = rec[RateField.sl2] * sf2 + rec[RateField.sl3] * sf3 + rec[RateField.sl4] * ssz;
+    const sghs = rec[RateField.sgh2] * sf2 + rec[RateField.sgh3] * sf3 + rec[RateField.sgh4] * ssz;
+    const shs = rec[RateField.sh2] * sf2 + rec[RateField.sh3] * sf3;
+    const lzm = rec[RateField.zmol] + znl * t;
     const lzf = lzm + 2.0 * zel * Math.sin(lzm);
     const lzfD = znl * (1 + 2.0 * zel * Math.cos(lzm));
     const lsz = Math.sin(lzf);
@@ -183,26 +183,26 @@ export function sgp4WithRate(rec: Sgp4RateRecord, tsince: number, c: Sgp4Constan
     const lf2D = lsz * lszD;
     const lf3 = -0.5 * lsz * lcz;
     const lf3D = -0.5 * (lszD * lcz - lsz * lsz * lzfD);
-    const sel = rec.ee2 * lf2 + rec.e3 * lf3;
-    const sil = rec.xi2 * lf2 + rec.xi3 * lf3;
-    const sll = rec.xl2 * lf2 + rec.xl3 * lf3 + rec.xl4 * lsz;
-    const sghl = rec.xgh2 * lf2 + rec.xgh3 * lf3 + rec.xgh4 * lsz;
-    const shll = rec.xh2 * lf2 + rec.xh3 * lf3;
+    const sel = rec[RateField.ee2] * lf2 + rec[RateField.e3] * lf3;
+    const sil = rec[RateField.xi2] * lf2 + rec[RateField.xi3] * lf3;
+    const sll = rec[RateField.xl2] * lf2 + rec[RateField.xl3] * lf3 + rec[RateField.xl4] * lsz;
+    const sghl = rec[RateField.xgh2] * lf2 + rec[RateField.xgh3] * lf3 + rec[RateField.xgh4] * lsz;
+    const shll = rec[RateField.xh2] * lf2 + rec[RateField.xh3] * lf3;
     let pe = ses + sel;
     let pinc = sis + sil;
     let pl = sls + sll;
     let pgh = sghs + sghl;
     let ph = shs + shll;
-    const peD = rec.se2 * sf2D + rec.se3 * sf3D + rec.ee2 * lf2D + rec.e3 * lf3D;
-    const pincD = rec.si2 * sf2D + rec.si3 * sf3D + rec.xi2 * lf2D + rec.xi3 * lf3D;
-    const plD = rec.sl2 * sf2D + rec.sl3 * sf3D + rec.sl4 * sszD + rec.xl2 * lf2D + rec.xl3 * lf3D + rec.xl4 * lszD;
-    let pghD = rec.sgh2 * sf2D + rec.sgh3 * sf3D + rec.sgh4 * sszD + rec.xgh2 * lf2D + rec.xgh3 * lf3D + rec.xgh4 * lszD;
-    let phD = rec.sh2 * sf2D + rec.sh3 * sf3D + rec.xh2 * lf2D + rec.xh3 * lf3D;
-    pe -= rec.peo;
-    pinc -= rec.pinco;
-    pl -= rec.plo;
-    pgh -= rec.pgho;
-    ph -= rec.pho;
+    const peD = rec[RateField.se2] * sf2D + rec[RateField.se3] * sf3D + rec[RateField.ee2] * lf2D + rec[RateField.e3] * lf3D;
+    const pincD = rec[RateField.si2] * sf2D + rec[RateField.si3] * sf3D + rec[RateField.xi2] * lf2D + rec[RateField.xi3] * lf3D;
+    const plD = rec[RateField.sl2] * sf2D + rec[RateField.sl3] * sf3D + rec[RateField.sl4] * sszD + rec[RateField.xl2] * lf2D + rec[RateField.xl3] * lf3D + rec[RateField.xl4] * lszD;
+    let pghD = rec[RateField.sgh2] * sf2D + rec[RateField.sgh3] * sf3D + rec[RateField.sgh4] * sszD + rec[RateField.xgh2] * lf2D + rec[RateField.xgh3] * lf3D + rec[RateField.xgh4] * lszD;
+    let phD = rec[RateField.sh2] * sf2D + rec[RateField.sh3] * sf3D + rec[RateField.xh2] * lf2D + rec[RateField.xh3] * lf3D;
+    pe -= rec[RateField.peo];
+    pinc -= rec[RateField.pinco];
+    pl -= rec[RateField.plo];
+    pgh -= rec[RateField.pgho];
+    ph -= rec[RateField.pho];
     xincp += pinc;
     xincpD += pincD;
     ep += pe;
@@ -238,7 +238,7 @@ export function sgp4WithRate(rec: Sgp4RateRecord, tsince: number, c: Sgp4Constan
       alfdp += dalf;
       betdp += dbet;
       nodep %= TWO_PI;
-      if (nodep < 0.0 && rec.afspcMode) nodep += TWO_PI;
+      if (nodep < 0.0 && rec[RateField.afspcMode] !== 0) nodep += TWO_PI;
       let xls = mp + argpp + cosip * nodep;
       let xlsD = mpD + argppD + cosipD * nodep + cosip * nodepD;
       const dls = pl + pgh - pinc * nodep * sinip;
@@ -248,7 +248,7 @@ export function sgp4WithRate(rec: Sgp4RateRecord, tsince: number, c: Sgp4Constan
       const xnoh = nodep;
       nodep = Math.atan2(alfdp, betdp);
       nodepD = (betdp * alfdpD - alfdp * betdpD) / (alfdp * alfdp + betdp * betdp);
-      if (nodep < 0.0 && rec.afspcMode) nodep += TWO_PI;
+      if (nodep < 0.0 && rec[RateField.afspcMode] !== 0) nodep += TWO_PI;
       if (Math.abs(xnoh - nodep) > PI) {
         if (nodep < xnoh) nodep += TWO_PI;
         else nodep -= TWO_PI;
@@ -268,9 +268,9 @@ export function sgp4WithRate(rec: Sgp4RateRecord, tsince: number, c: Sgp4Constan
   }
 
   // ------- long-period periodics -------
-  let aycof = rec.aycof;
+  let aycof = rec[RateField.aycof];
   let aycofD = 0;
-  let xlcof = rec.xlcof;
+  let xlcof = rec[RateField.xlcof];
   let xlcofD = 0;
   let cosipD = 0;
   let sinipD = 0;
@@ -364,9 +364,9 @@ export function sgp4WithRate(rec: Sgp4RateRecord, tsince: number, c: Sgp4Constan
   const temp2D = temp1D * temp + temp1 * invPlD;
 
   // ------- short-period periodics -------
-  let con41 = rec.con41;
-  let x1mth2 = rec.x1mth2;
-  let x7thm1 = rec.x7thm1;
+  let con41 = rec[RateField.con41];
+  let x1mth2 = rec[RateField.x1mth2];
+  let x7thm1 = rec[RateField.x7thm1];
   let con41D = 0;
   let x1mth2D = 0;
   let x7thm1D = 0;

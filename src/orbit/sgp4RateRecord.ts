@@ -1,12 +1,13 @@
 /**
  * The satellite.js record fields the differentiated SGP4 (sgp4Rate.ts) reads, copied once per
- * element set into an object of one class.
+ * element set into a Float64Array, indexed by {@link RateField}.
  *
- * Why a class with one named assignment per field: every record then shares one hidden class with
- * its fields in the object itself, so the propagation's field reads stay monomorphic. Copied key by
- * key (Object.fromEntries), each record ended with a hidden class of its own; the optimised
- * propagation then met more classes than it could check and deoptimised at a field read on every
- * call for most records, about 150 000 times in a 180-day plan of 24 satellites.
+ * Why an array and not an object: the propagation reads some seventy fields per state, and an
+ * object's field reads carry a check of its hidden class. V8 revised that class as records of
+ * other orbits arrived (a field first seen as a whole number, then as a fraction), and in about one
+ * run in five the optimised propagation then deoptimised at a field read on every call (90 000 to
+ * 150 000 times in a 180-day plan of 24 satellites, seen with --trace-deopt) instead of being
+ * re-optimised. A typed array's reads have no such check. Flags are stored as 1 or 0.
  */
 
 /** The fields of an initialised satellite.js record this module reads (names as satellite.js has them). */
@@ -84,161 +85,100 @@ export interface Sgp4RecordFields {
   zmos: number;
 }
 
+/** Index of each field in a {@link Sgp4RateRecord} (satellite.js's names, then our own). */
+export const enum RateField {
+  mo = 0, mdot, argpo, argpdot, nodeo, nodedot, nodecf, cc1, cc4, cc5, bstar, t2cof, t3cof, t4cof,
+  t5cof, omgcof, eta, xmcof, delmo, d2, d3, d4, sinmao, no, ecco, inclo, aycof, xlcof, con41,
+  x1mth2, x7thm1, dedt, didt, domdt, dnodt, dmdt, e3, ee2, peo, pgho, pho, pinco, plo, se2, se3,
+  sgh2, sgh3, sgh4, sh2, sh3, si2, si3, sl2, sl3, sl4, xgh2, xgh3, xgh4, xh2, xh3, xi2, xi3, xl2,
+  xl3, xl4, zmol, zmos, deep, simple, afspcMode, am0, sinInclo, cosInclo,
+  /** Number of fields. */
+  count,
+}
+
 /**
  * The fields {@link Sgp4RecordFields} lists (strings replaced by flags), with three quantities SGP4
  * recomputes at every call although they depend on the record only: `am0 = (xke/no)^(2/3)` and,
  * near the earth, sin and cos of the inclination. Computed by the same operations as satellite.js,
  * so the propagation stays bit-identical.
  */
-export class Sgp4RateRecord {
-  declare readonly mo: number;
-  declare readonly mdot: number;
-  declare readonly argpo: number;
-  declare readonly argpdot: number;
-  declare readonly nodeo: number;
-  declare readonly nodedot: number;
-  declare readonly nodecf: number;
-  declare readonly cc1: number;
-  declare readonly cc4: number;
-  declare readonly cc5: number;
-  declare readonly bstar: number;
-  declare readonly t2cof: number;
-  declare readonly t3cof: number;
-  declare readonly t4cof: number;
-  declare readonly t5cof: number;
-  declare readonly omgcof: number;
-  declare readonly eta: number;
-  declare readonly xmcof: number;
-  declare readonly delmo: number;
-  declare readonly d2: number;
-  declare readonly d3: number;
-  declare readonly d4: number;
-  declare readonly sinmao: number;
-  declare readonly no: number;
-  declare readonly ecco: number;
-  declare readonly inclo: number;
-  declare readonly aycof: number;
-  declare readonly xlcof: number;
-  declare readonly con41: number;
-  declare readonly x1mth2: number;
-  declare readonly x7thm1: number;
-  declare readonly dedt: number;
-  declare readonly didt: number;
-  declare readonly domdt: number;
-  declare readonly dnodt: number;
-  declare readonly dmdt: number;
-  declare readonly e3: number;
-  declare readonly ee2: number;
-  declare readonly peo: number;
-  declare readonly pgho: number;
-  declare readonly pho: number;
-  declare readonly pinco: number;
-  declare readonly plo: number;
-  declare readonly se2: number;
-  declare readonly se3: number;
-  declare readonly sgh2: number;
-  declare readonly sgh3: number;
-  declare readonly sgh4: number;
-  declare readonly sh2: number;
-  declare readonly sh3: number;
-  declare readonly si2: number;
-  declare readonly si3: number;
-  declare readonly sl2: number;
-  declare readonly sl3: number;
-  declare readonly sl4: number;
-  declare readonly xgh2: number;
-  declare readonly xgh3: number;
-  declare readonly xgh4: number;
-  declare readonly xh2: number;
-  declare readonly xh3: number;
-  declare readonly xi2: number;
-  declare readonly xi3: number;
-  declare readonly xl2: number;
-  declare readonly xl3: number;
-  declare readonly xl4: number;
-  declare readonly zmol: number;
-  declare readonly zmos: number;
-  declare readonly deep: boolean;
-  declare readonly simple: boolean;
-  declare readonly afspcMode: boolean;
-  /** (xke/no)^(2/3) [earth radii], NaN for a record with no ≤ 0. */
-  declare readonly am0: number;
-  declare readonly sinInclo: number;
-  declare readonly cosInclo: number;
+export type Sgp4RateRecord = Float64Array & { readonly sgp4RateRecord: true };
 
-  constructor(rec: Sgp4RecordFields, am0: number) {
-    this.mo = rec.mo;
-    this.mdot = rec.mdot;
-    this.argpo = rec.argpo;
-    this.argpdot = rec.argpdot;
-    this.nodeo = rec.nodeo;
-    this.nodedot = rec.nodedot;
-    this.nodecf = rec.nodecf;
-    this.cc1 = rec.cc1;
-    this.cc4 = rec.cc4;
-    this.cc5 = rec.cc5;
-    this.bstar = rec.bstar;
-    this.t2cof = rec.t2cof;
-    this.t3cof = rec.t3cof;
-    this.t4cof = rec.t4cof;
-    this.t5cof = rec.t5cof;
-    this.omgcof = rec.omgcof;
-    this.eta = rec.eta;
-    this.xmcof = rec.xmcof;
-    this.delmo = rec.delmo;
-    this.d2 = rec.d2;
-    this.d3 = rec.d3;
-    this.d4 = rec.d4;
-    this.sinmao = rec.sinmao;
-    this.no = rec.no;
-    this.ecco = rec.ecco;
-    this.inclo = rec.inclo;
-    this.aycof = rec.aycof;
-    this.xlcof = rec.xlcof;
-    this.con41 = rec.con41;
-    this.x1mth2 = rec.x1mth2;
-    this.x7thm1 = rec.x7thm1;
-    this.dedt = rec.dedt;
-    this.didt = rec.didt;
-    this.domdt = rec.domdt;
-    this.dnodt = rec.dnodt;
-    this.dmdt = rec.dmdt;
-    this.e3 = rec.e3;
-    this.ee2 = rec.ee2;
-    this.peo = rec.peo;
-    this.pgho = rec.pgho;
-    this.pho = rec.pho;
-    this.pinco = rec.pinco;
-    this.plo = rec.plo;
-    this.se2 = rec.se2;
-    this.se3 = rec.se3;
-    this.sgh2 = rec.sgh2;
-    this.sgh3 = rec.sgh3;
-    this.sgh4 = rec.sgh4;
-    this.sh2 = rec.sh2;
-    this.sh3 = rec.sh3;
-    this.si2 = rec.si2;
-    this.si3 = rec.si3;
-    this.sl2 = rec.sl2;
-    this.sl3 = rec.sl3;
-    this.sl4 = rec.sl4;
-    this.xgh2 = rec.xgh2;
-    this.xgh3 = rec.xgh3;
-    this.xgh4 = rec.xgh4;
-    this.xh2 = rec.xh2;
-    this.xh3 = rec.xh3;
-    this.xi2 = rec.xi2;
-    this.xi3 = rec.xi3;
-    this.xl2 = rec.xl2;
-    this.xl3 = rec.xl3;
-    this.xl4 = rec.xl4;
-    this.zmol = rec.zmol;
-    this.zmos = rec.zmos;
-    this.deep = rec.method === 'd';
-    this.simple = rec.isimp === 1;
-    this.afspcMode = rec.operationmode === 'a';
-    this.am0 = am0;
-    this.sinInclo = Math.sin(rec.inclo);
-    this.cosInclo = Math.cos(rec.inclo);
-  }
+/** The record of an initialised satellite.js record; `am0` = (xke/no)^(2/3) [earth radii], NaN when no ≤ 0. */
+export function rateRecordFrom(rec: Sgp4RecordFields, am0: number): Sgp4RateRecord {
+  const r = new Float64Array(RateField.count);
+  r[RateField.mo] = rec.mo;
+  r[RateField.mdot] = rec.mdot;
+  r[RateField.argpo] = rec.argpo;
+  r[RateField.argpdot] = rec.argpdot;
+  r[RateField.nodeo] = rec.nodeo;
+  r[RateField.nodedot] = rec.nodedot;
+  r[RateField.nodecf] = rec.nodecf;
+  r[RateField.cc1] = rec.cc1;
+  r[RateField.cc4] = rec.cc4;
+  r[RateField.cc5] = rec.cc5;
+  r[RateField.bstar] = rec.bstar;
+  r[RateField.t2cof] = rec.t2cof;
+  r[RateField.t3cof] = rec.t3cof;
+  r[RateField.t4cof] = rec.t4cof;
+  r[RateField.t5cof] = rec.t5cof;
+  r[RateField.omgcof] = rec.omgcof;
+  r[RateField.eta] = rec.eta;
+  r[RateField.xmcof] = rec.xmcof;
+  r[RateField.delmo] = rec.delmo;
+  r[RateField.d2] = rec.d2;
+  r[RateField.d3] = rec.d3;
+  r[RateField.d4] = rec.d4;
+  r[RateField.sinmao] = rec.sinmao;
+  r[RateField.no] = rec.no;
+  r[RateField.ecco] = rec.ecco;
+  r[RateField.inclo] = rec.inclo;
+  r[RateField.aycof] = rec.aycof;
+  r[RateField.xlcof] = rec.xlcof;
+  r[RateField.con41] = rec.con41;
+  r[RateField.x1mth2] = rec.x1mth2;
+  r[RateField.x7thm1] = rec.x7thm1;
+  r[RateField.dedt] = rec.dedt;
+  r[RateField.didt] = rec.didt;
+  r[RateField.domdt] = rec.domdt;
+  r[RateField.dnodt] = rec.dnodt;
+  r[RateField.dmdt] = rec.dmdt;
+  r[RateField.e3] = rec.e3;
+  r[RateField.ee2] = rec.ee2;
+  r[RateField.peo] = rec.peo;
+  r[RateField.pgho] = rec.pgho;
+  r[RateField.pho] = rec.pho;
+  r[RateField.pinco] = rec.pinco;
+  r[RateField.plo] = rec.plo;
+  r[RateField.se2] = rec.se2;
+  r[RateField.se3] = rec.se3;
+  r[RateField.sgh2] = rec.sgh2;
+  r[RateField.sgh3] = rec.sgh3;
+  r[RateField.sgh4] = rec.sgh4;
+  r[RateField.sh2] = rec.sh2;
+  r[RateField.sh3] = rec.sh3;
+  r[RateField.si2] = rec.si2;
+  r[RateField.si3] = rec.si3;
+  r[RateField.sl2] = rec.sl2;
+  r[RateField.sl3] = rec.sl3;
+  r[RateField.sl4] = rec.sl4;
+  r[RateField.xgh2] = rec.xgh2;
+  r[RateField.xgh3] = rec.xgh3;
+  r[RateField.xgh4] = rec.xgh4;
+  r[RateField.xh2] = rec.xh2;
+  r[RateField.xh3] = rec.xh3;
+  r[RateField.xi2] = rec.xi2;
+  r[RateField.xi3] = rec.xi3;
+  r[RateField.xl2] = rec.xl2;
+  r[RateField.xl3] = rec.xl3;
+  r[RateField.xl4] = rec.xl4;
+  r[RateField.zmol] = rec.zmol;
+  r[RateField.zmos] = rec.zmos;
+  r[RateField.deep] = rec.method === 'd' ? 1 : 0;
+  r[RateField.simple] = rec.isimp === 1 ? 1 : 0;
+  r[RateField.afspcMode] = rec.operationmode === 'a' ? 1 : 0;
+  r[RateField.am0] = am0;
+  r[RateField.sinInclo] = Math.sin(rec.inclo);
+  r[RateField.cosInclo] = Math.cos(rec.inclo);
+  return r as Sgp4RateRecord;
 }
