@@ -11,6 +11,8 @@
  *   resetsRssGrowth6x  peak RSS of the 180-day resets run ÷ a 30-day run. Goal ≤ 1.3.
  *   shardsVsOne        wall time of 2 concurrent `--shard K/2` processes (resets 180 d, --jobs 1
  *                      each) ÷ the one process. Goal ≤ 0.6. Their merge must equal the one run's bytes.
+ *                      Printed beside it: its bound, the one run's CPU time over two cores ÷ its
+ *                      wall time (what shards with no start-up or compilation of their own reach).
  *
  * Wall times are whole child processes (node start-up, module loading and the output written), as
  * a user waits for them, each the fastest of three takes (the floor is the best of its repeats too).
