@@ -8,6 +8,7 @@
  */
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
+import { toJsonText } from '../src/io/output.ts';
 import { InternalError } from '../src/errors.ts';
 import { escapeHtml, htmlPage, type HtmlPageOptions } from '../src/report/html.ts';
 import { withNotes } from '../src/report/notes.ts';
@@ -201,5 +202,10 @@ describe('non-finite numbers never reach the output', () => {
     ['NaN table cell', () => htmlPage({ title: 't', caution: 'c', sections: [{ heading: 'h', tables: [{ caption: 'c', columns: ['v'], rows: [[NaN]] }] }] })],
   ])('%s throws InternalError', (_what, make) => {
     expect(make).toThrow(InternalError);
+  });
+  it('JSON output names where the non-finite number is, and passes finite values through', () => {
+    expect(() => toJsonText({ a: [1, { b: Infinity }] })).toThrow('non-finite number Infinity at $.a[1].b in the output');
+    expect(() => toJsonText([{ ok: 1 }, NaN])).toThrow('non-finite number NaN at $[1] in the output');
+    expect(toJsonText({ a: [1, { b: -0.5 }], s: 'x', n: null })).toBe(`${JSON.stringify({ a: [1, { b: -0.5 }], s: 'x', n: null }, null, 2)}\n`);
   });
 });

@@ -393,28 +393,38 @@ export function writeFileAtomic(path: string, text: string, flagOrOptions: strin
 
 /** JSON text of a result; refuses NaN and ±Infinity anywhere (they would print as null silently). */
 export function toJsonText(value: unknown): string {
-  // The walk that names the path builds a string per value: run it only to locate a fault.
-  if (!allFinite(value)) checkFinite(value, '$');
+  const fault = nonFinite(value);
+  if (fault !== null) {
+    const path = `$${fault.path.join('')}`;
+    throw new InternalError(`non-finite number ${fault.value} at ${path} in the output`, path);
+  }
   return `${JSON.stringify(value, null, 2)}\n`;
 }
 
-function allFinite(value: unknown): boolean {
-  if (typeof value === 'number') return Number.isFinite(value);
-  if (value === null || typeof value !== 'object') return true;
+/**
+ * The first NaN or ±Infinity in `value` with its path (`[i]` and `.key` parts, outermost first), or
+ * null. The path is collected on the way back out, so a clean walk builds no strings.
+ */
+function nonFinite(value: unknown): { value: number; path: string[] } | null {
+  if (typeof value === 'number') return Number.isFinite(value) ? null : { value, path: [] };
+  if (value === null || typeof value !== 'object') return null;
   if (Array.isArray(value)) {
-    for (let i = 0; i < value.length; i++) if (!allFinite(value[i])) return false;
-    return true;
+    for (let i = 0; i < value.length; i++) {
+      const f = nonFinite(value[i]);
+      if (f !== null) {
+        f.path.unshift(`[${i}]`);
+        return f;
+      }
+    }
+    return null;
   }
-  for (const k in value) if (Object.hasOwn(value, k) && !allFinite((value as Record<string, unknown>)[k])) return false;
-  return true;
-}
-
-function checkFinite(value: unknown, path: string): void {
-  if (typeof value === 'number') {
-    if (!Number.isFinite(value)) throw new InternalError(`non-finite number ${value} at ${path} in the output`, path);
-  } else if (Array.isArray(value)) {
-    value.forEach((v, i) => checkFinite(v, `${path}[${i}]`));
-  } else if (value !== null && typeof value === 'object') {
-    for (const [k, v] of Object.entries(value)) checkFinite(v, `${path}.${k}`);
+  for (const k in value) {
+    if (!Object.hasOwn(value, k)) continue;
+    const f = nonFinite((value as Record<string, unknown>)[k]);
+    if (f !== null) {
+      f.path.unshift(`.${k}`);
+      return f;
+    }
   }
+  return null;
 }
