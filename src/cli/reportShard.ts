@@ -23,7 +23,7 @@ import { compareToCsv, compareToJson, sweepToCsv } from '../report/analysisRepor
 import { fitToCsv, fitToJson } from '../report/fitReport.ts';
 import { passesToCsv, passesToJson } from '../report/passesReport.ts';
 import { resetsNotes, resetsToCsv, resetsToJson } from '../report/resetsReport.ts';
-import { REPORT_SHARD_MANIFEST, type ReportShardManifest } from '../report/reportShardMerge.ts';
+import { readReportManifest, REPORT_SHARD_MANIFEST, type ReportShardManifest } from '../report/reportShardMerge.ts';
 import { sizeToCsv, sizeToJson } from '../report/sizeReport.ts';
 import type { TimeSystem } from '../time/timeSystem.ts';
 import { compareShardPlan } from './compareShard.ts';
@@ -112,21 +112,16 @@ export function writeReportShard(a: ReportShardArgs, ts: TimeSystem, shard: Shar
  * would find shards missing. The same shard run again (a retried task) replaces its own folder.
  */
 function refuseOtherShardsFolder(out: string, shard: ShardSpec): void {
-  let text: string;
+  const file = join(out, REPORT_SHARD_MANIFEST);
+  let tag: ReportShardManifest['shard'];
   try {
-    text = readFileSync(join(out, REPORT_SHARD_MANIFEST), 'utf8');
+    tag = readReportManifest(readFileSync(file, 'utf8'), file).shard;
   } catch {
-    return; // no shard folder there
+    return; // no shard folder there, or not one this run reads: the folder checks decide
   }
-  let tag: { index?: unknown; count?: unknown } | undefined;
-  try {
-    tag = (JSON.parse(text) as { shard?: { index?: unknown; count?: unknown } } | null)?.shard;
-  } catch {
-    return; // not a manifest this run reads: the folder checks decide
-  }
-  if (tag === undefined || (tag.index === shard.k && tag.count === shard.n)) return;
+  if (tag.index === shard.k && tag.count === shard.n) return;
   throw new InputError(
-    `${out} holds shard ${String(tag.index)}/${String(tag.count)} of a report, and this run is shard ${shard.k}/${shard.n}`,
+    `${out} holds shard ${tag.index}/${tag.count} of a report, and this run is shard ${shard.k}/${shard.n}`,
     '--out',
     `give each shard its own folder, e.g. --out ${out.replace(/[\\/]+$/, '')}-${shard.k}`,
   );
